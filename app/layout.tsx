@@ -1,0 +1,25 @@
+import type { Metadata, Viewport } from "next";
+import localFont from "next/font/local";
+import "./globals.css";
+
+const archivo = localFont({
+  src: "../fonts/archivo-wght.woff2",
+  variable: "--font-archivo",
+  weight: "100 900",
+  display: "swap",
+});
+
+export const metadata: Metadata = {
+  title: { default: "Baywright", template: "%s · Baywright" },
+  description: "Job tracking for truck upfit shops",
+};
+
+export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#0e5a54" };
+
+export default function RootLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en" className={archivo.variable}>
+      <body className="min-h-dvh font-sans antialiased">{children}</body>
+    </html>
+  );
+}

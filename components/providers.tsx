@@ -1,0 +1,10 @@
+"use client";
+
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { useState } from "react";
+
+export function Providers({ children }: { children: React.ReactNode }) {
+  // One client per browser session; a short stale time keeps the board fresh without hammering the server.
+  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 5_000, retry: 1 } } }));
+  return <QueryClientProvider client={client}>{children}</QueryClientProvider>;
+}

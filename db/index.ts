@@ -1,0 +1,73 @@
+import { mkdirSync } from "node:fs";
+import { dirname, resolve } from "node:path";
+import SQLite from "better-sqlite3";
+import { Kysely, SqliteDialect } from "kysely";
+import type { Database } from "./schema";
+
+export type DB = Kysely<Database>;
+
+export function databasePath(): string {
+  return resolve(/*turbopackIgnore: true*/ process.env.DATABASE_PATH ?? "data/baywright.db");
+}
+
+/**
+ * Pragmas set on every connection. `synchronous=FULL` costs a little write speed but a power cut
+ * in a shop office must never lose a recorded leak test or stage move; WAL keeps reads (the
+ * board) from waiting on writes.
+ */
+export const PRAGMAS = {
+  journal_mode: "wal",
+  synchronous: 2, // FULL
+  foreign_keys: 1,
+  busy_timeout: 5000,
+} as const;
+
+export function openSqlite(path: string): SQLite.Database {
+  if (path !== ":memory:") mkdirSync(dirname(path), { recursive: true });
+  const sqlite = new SQLite(path);
+  sqlite.pragma(`journal_mode = ${PRAGMAS.journal_mode}`);
+  sqlite.pragma(`synchronous = ${PRAGMAS.synchronous}`);
+  sqlite.pragma(`foreign_keys = ${PRAGMAS.foreign_keys}`);
+  sqlite.pragma(`busy_timeout = ${PRAGMAS.busy_timeout}`);
+  checkPragmas(sqlite, path);
+  return sqlite;
+}
+
+function checkPragmas(sqlite: SQLite.Database, path: string) {
+  const got = {
+    journal_mode: sqlite.pragma("journal_mode", { simple: true }),
+    synchronous: sqlite.pragma("synchronous", { simple: true }),
+    foreign_keys: sqlite.pragma("foreign_keys", { simple: true }),
+    busy_timeout: sqlite.pragma("busy_timeout", { simple: true }),
+  };
+  const wantJournal = path === ":memory:" ? "memory" : PRAGMAS.journal_mode;
+  if (
+    got.journal_mode !== wantJournal ||
+    got.synchronous !== PRAGMAS.synchronous ||
+    got.foreign_keys !== PRAGMAS.foreign_keys ||
+    got.busy_timeout !== PRAGMAS.busy_timeout
+  ) {
+    throw new Error(`SQLite pragmas did not hold on ${path}: ${JSON.stringify(got)}`);
+  }
+}
+
+export function createDb(path = databasePath()): DB {
+  return new Kysely<Database>({ dialect: new SqliteDialect({ database: openSqlite(path) }) });
+}
+
+const holder = globalThis as unknown as { __baywrightDb?: { path: string; db: DB } };
+
+/** One connection per process (per database path), kept across dev-server reloads. */
+export function getDb(): DB {
+  const path = databasePath();
+  if (!holder.__baywrightDb || holder.__baywrightDb.path !== path) {
+    holder.__baywrightDb = { path, db: createDb(path) };
+  }
+  return holder.__baywrightDb.db;
+}
+
+export async function closeDb() {
+  const current = holder.__baywrightDb;
+  holder.__baywrightDb = undefined;
+  if (current) await current.db.destroy();
+}

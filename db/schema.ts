@@ -1,0 +1,138 @@
+import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+
+export const ROLES = ["owner", "office", "tech"] as const;
+export type Role = (typeof ROLES)[number];
+
+export const STAGES = [
+  "queued",
+  "fabricate",
+  "pressure_test",
+  "coating",
+  "install",
+  "wire",
+  "ready",
+  "delivered",
+] as const;
+export type Stage = (typeof STAGES)[number];
+
+export interface StaffTable {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  password_hash: string;
+  active: number;
+  created_at: string;
+}
+
+export interface SessionTable {
+  /** SHA-256 (hex) of the session id the cookie carries; the raw id is never stored. */
+  id: string;
+  staff_id: string;
+  expires_at: number;
+  created_at: string;
+}
+
+export interface ShopTable {
+  id: ColumnType<number, number | undefined, never>;
+  name: string;
+  phone: ColumnType<string, string | undefined, string>;
+  time_zone: ColumnType<string, string | undefined, string>;
+  work_order_prefix: ColumnType<string, string | undefined, string>;
+  next_work_order: ColumnType<number, number | undefined, number>;
+}
+
+export interface CustomerTable {
+  id: Generated<number>;
+  kind: "company" | "owner_operator";
+  name: string;
+  phone: string;
+  email: string;
+  notes: string;
+  created_at: string;
+}
+
+export interface ContactTable {
+  id: Generated<number>;
+  customer_id: number;
+  name: string;
+  email: string;
+  phone: string;
+  receives_email: number;
+}
+
+export interface TruckTable {
+  id: Generated<number>;
+  customer_id: number;
+  unit_number: string;
+  vin: string;
+  year: number;
+  description: string;
+  transmission: string;
+  work_engine_rpm: number | null;
+  created_at: string;
+}
+
+export type Priority = "normal" | "rush";
+export type JobScope = "fabrication" | "install_only";
+
+export interface JobTable {
+  id: Generated<number>;
+  work_order: string;
+  customer_id: number;
+  truck_id: number;
+  scope: JobScope;
+  description: string;
+  stage: Stage;
+  position: number;
+  due_on: string | null;
+  assigned_tech_id: string | null;
+  priority: Priority;
+  notes: string;
+  version: number;
+  created_at: string;
+  updated_at: string;
+}
+
+export interface StageEventTable {
+  id: Generated<number>;
+  job_id: number;
+  from_stage: Stage | null;
+  to_stage: Stage;
+  actor_id: string | null;
+  at: string;
+  note: string;
+  override_reason: string | null;
+}
+
+export interface OutboxTable {
+  id: string;
+  job_id: number;
+  kind: "stage_changed";
+  payload: string;
+  status: "pending" | "sent" | "failed" | "skipped";
+  attempts: number;
+  next_attempt_at: string;
+  last_error: string | null;
+  created_at: string;
+  sent_at: string | null;
+}
+
+export interface Database {
+  staff: StaffTable;
+  session: SessionTable;
+  shop: ShopTable;
+  customer: CustomerTable;
+  contact: ContactTable;
+  truck: TruckTable;
+  job: JobTable;
+  stage_event: StageEventTable;
+  outbox: OutboxTable;
+}
+
+export type Staff = Selectable<StaffTable>;
+export type NewStaff = Insertable<StaffTable>;
+export type Customer = Selectable<CustomerTable>;
+export type Truck = Selectable<TruckTable>;
+export type Job = Selectable<JobTable>;
+export type JobUpdate = Updateable<JobTable>;

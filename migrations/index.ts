@@ -1,0 +1,26 @@
+import { type Kysely, type Migration, type MigrationProvider, Migrator } from "kysely";
+import * as m0001 from "./0001_staff_and_sessions";
+import * as m0002 from "./0002_customers_trucks_jobs";
+
+/** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
+export const migrations: Record<string, Migration> = {
+  "0001_staff_and_sessions": m0001,
+  "0002_customers_trucks_jobs": m0002,
+};
+
+const provider: MigrationProvider = { getMigrations: async () => migrations };
+
+export function migrator(db: Kysely<any>) {
+  return new Migrator({ db, provider });
+}
+
+export async function migrateToLatest(db: Kysely<any>) {
+  const { error, results } = await migrator(db).migrateToLatest();
+  if (error) throw error instanceof Error ? error : new Error(String(error));
+  return results ?? [];
+}
+
+export async function pendingMigrations(db: Kysely<any>): Promise<string[]> {
+  const all = await migrator(db).getMigrations();
+  return all.filter((m) => !m.executedAt).map((m) => m.name);
+}

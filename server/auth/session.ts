@@ -1,0 +1,68 @@
+import "server-only";
+import { cookies } from "next/headers";
+import { redirect } from "next/navigation";
+import { cache } from "react";
+import type { Role } from "@/db/schema";
+import { ApiError } from "@/server/http/errors";
+import { SESSION_COOKIE, lucia } from "./lucia";
+
+export interface StaffUser {
+  id: string;
+  name: string;
+  email: string;
+  role: Role;
+}
+
+function readCookie(header: string | null, name: string): string | null {
+  if (!header) return null;
+  for (const part of header.split(";")) {
+    const [k, ...v] = part.trim().split("=");
+    if (k === name) return decodeURIComponent(v.join("="));
+  }
+  return null;
+}
+
+async function validate(sessionId: string | null) {
+  if (!sessionId) return null;
+  const { session, user } = await lucia.validateSession(sessionId);
+  if (!session || !user) return null;
+  return { sessionId: session.id, user: { id: user.id, name: user.name, email: user.email, role: user.role } as StaffUser };
+}
+
+/** The signed-in staff member behind a route handler's request, read from its own cookie header. */
+export async function sessionFromRequest(req: Request) {
+  return validate(readCookie(req.headers.get("cookie"), SESSION_COOKIE));
+}
+
+/**
+ * Every route handler calls this itself: the proxy only redirects, it never decides access.
+ * With no roles given, any active staff member passes.
+ */
+export async function requireStaff(req: Request, roles?: readonly Role[]): Promise<StaffUser> {
+  const found = await sessionFromRequest(req);
+  if (!found) throw new ApiError("unauthenticated", "Sign in first.");
+  assertRole(found.user, roles);
+  return found.user;
+}
+
+export function assertRole(user: StaffUser, roles?: readonly Role[]) {
+  if (roles && !roles.includes(user.role)) {
+    throw new ApiError("forbidden", `This needs the ${roles.join(" or ")} role; you are signed in as ${user.role}.`);
+  }
+}
+
+/** For server components: the session, read once per request. Never refreshes the cookie while rendering. */
+export const currentStaff = cache(async (): Promise<StaffUser | null> => {
+  const jar = await cookies();
+  const found = await validate(jar.get(SESSION_COOKIE)?.value ?? null);
+  return found?.user ?? null;
+});
+
+export async function requirePageStaff(roles?: readonly Role[]): Promise<StaffUser> {
+  const user = await currentStaff();
+  if (!user) redirect("/sign-in");
+  if (roles && !roles.includes(user.role)) redirect("/board?denied=1");
+  return user;
+}
+
+export { readCookie };

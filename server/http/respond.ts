@@ -1,0 +1,77 @@
+import "server-only";
+import { NextResponse } from "next/server";
+import { z } from "zod";
+import { ApiError, validationError } from "./errors";
+
+export function json<T>(body: T, init?: ResponseInit) {
+  return NextResponse.json(body, init);
+}
+
+export function errorResponse(err: ApiError) {
+  const body = { error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) } };
+  return NextResponse.json(body, { status: err.status, headers: err.headers });
+}
+
+/** Runs a handler body and turns known failures into the API's error shape; anything else is logged and a 500. */
+export async function respond(work: () => Promise<Response>): Promise<Response> {
+  try {
+    return await work();
+  } catch (err) {
+    if (err instanceof ApiError) return errorResponse(err);
+    if (err instanceof z.ZodError) return errorResponse(validationError(err));
+    console.error(err);
+    return NextResponse.json(
+      { error: { code: "internal", message: "Something went wrong on the server. Try again; if it keeps happening, tell the shop owner." } },
+      { status: 500 },
+    );
+  }
+}
+
+const MAX_BODY_BYTES = 256 * 1024;
+
+/**
+ * Refuses cross-site writes (a form on another site cannot post into the shop's data) and
+ * anything that is not a JSON body, then parses it with the given schema.
+ */
+export async function readJson<S extends z.ZodType>(req: Request, schema: S): Promise<z.infer<S>> {
+  assertSameOrigin(req);
+  const type = req.headers.get("content-type") ?? "";
+  if (!type.toLowerCase().startsWith("application/json")) {
+    throw new ApiError("unsupported_media_type", "Send the request as JSON (Content-Type: application/json).");
+  }
+  const text = await req.text();
+  if (text.length > MAX_BODY_BYTES) throw new ApiError("validation", "The request is too large.");
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch {
+    throw new ApiError("validation", "The request body is not valid JSON.");
+  }
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
+export function assertSameOrigin(req: Request) {
+  const site = req.headers.get("sec-fetch-site");
+  if (site && site !== "same-origin" && site !== "none") {
+    throw new ApiError("cross_site", "Requests from other sites are refused.");
+  }
+  const origin = req.headers.get("origin");
+  if (origin) {
+    const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host") ?? new URL(req.url).host;
+    let originHost: string;
+    try {
+      originHost = new URL(origin).host;
+    } catch {
+      throw new ApiError("cross_site", "Requests from other sites are refused.");
+    }
+    if (originHost !== host) throw new ApiError("cross_site", "Requests from other sites are refused.");
+  }
+}
+
+/** Route params of another shape (a job id that is not a number) are a 404, never a crash. */
+export function parseId(raw: string, what: string): number {
+  if (!/^[1-9][0-9]{0,9}$/.test(raw)) throw new ApiError("validation", `${what} id must be a positive whole number.`, { fields: { id: [`${what} id must be a positive whole number.`] } });
+  return Number(raw);
+}

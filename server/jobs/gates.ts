@@ -1,0 +1,83 @@
+import type { JobScope, Stage } from "@/db/schema";
+import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
+
+/** What the gates read of a job's records; the records loader fills it, tests build it by hand. */
+export interface GateRecords {
+  /** Parts marked for a leak test, with whether a passing test is newer than their last rework. */
+  leakTestParts: { name: string; passedSinceRework: boolean; lastResult: "pass" | "fail" | null }[];
+  /** Parts marked for outside coating, with whether they are back and inspected. */
+  coatedParts: { name: string; received: boolean; inspected: boolean }[];
+  /** The wiring & run-test sign-off: null when none has been started. */
+  signOff: { complete: boolean; missing: string[] } | null;
+}
+
+export const NO_RECORDS: GateRecords = { leakTestParts: [], coatedParts: [], signOff: null };
+
+export type GatedStage = "coating" | "install" | "ready";
+export const GATED_STAGES: readonly GatedStage[] = ["coating", "install", "ready"];
+
+/** Unmet conditions of one gate, in plain words a tech can act on. */
+export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
+  switch (gate) {
+    case "coating":
+      return records.leakTestParts
+        .filter((p) => !p.passedSinceRework)
+        .map((p) =>
+          p.lastResult === "fail"
+            ? `${p.name}: the last leak test failed; rework it and record a passing test.`
+            : `${p.name}: record a passing leak test (none since its last rework).`,
+        );
+    case "install":
+      return records.coatedParts
+        .filter((p) => !p.received || !p.inspected)
+        .map((p) =>
+          !p.received
+            ? `${p.name}: still out for coating; mark the coating run received.`
+            : `${p.name}: back from coating; record the receiving inspection.`,
+        );
+    case "ready":
+      if (!records.signOff) return ["Wiring & run-test sign-off: not started."];
+      return records.signOff.complete ? [] : records.signOff.missing.map((m) => `Sign-off: ${m}`);
+  }
+}
+
+export type MoveKind = "forward" | "backward" | "reorder";
+
+export interface MoveCheck {
+  kind: MoveKind;
+  /** Conditions that stop the move; empty when it may go. */
+  unmet: string[];
+  /** True when the move is refused for a reason an owner's override cannot change. */
+  impossible: boolean;
+}
+
+/**
+ * Decides whether a job may move. Backward moves and reordering are always allowed (a failed
+ * leak test sends a job back to fabricate). A forward move must pass every gate it crosses,
+ * so skipping a column does not skip its gate.
+ */
+export function checkMove(from: Stage, to: Stage, scope: JobScope, records: GateRecords): MoveCheck {
+  const route = stagesFor(scope);
+  if (!route.includes(to)) {
+    return {
+      kind: stageIndex(to) > stageIndex(from) ? "forward" : "backward",
+      unmet: [`This job has no fabricated parts, so it skips ${STAGE_LABELS[to]}. Change the job's scope first if that is wrong.`],
+      impossible: true,
+    };
+  }
+  if (from === to) return { kind: "reorder", unmet: [], impossible: false };
+  if (stageIndex(to) < stageIndex(from)) return { kind: "backward", unmet: [], impossible: false };
+  const crossed = GATED_STAGES.filter(
+    (g) => route.includes(g) && stageIndex(g) > stageIndex(from) && stageIndex(g) <= stageIndex(to),
+  );
+  const unmet = crossed.flatMap((g) => gateUnmet(g, records).map((m) => `Into ${STAGE_LABELS[g]}: ${m}`));
+  return { kind: "forward", unmet, impossible: false };
+}
+
+/** Which gates ahead of the job's current stage are still unmet: shown on the card. */
+export function nextGateState(stage: Stage, scope: JobScope, records: GateRecords): { gate: GatedStage; unmet: string[] } | null {
+  const route = stagesFor(scope);
+  const next = GATED_STAGES.find((g) => route.includes(g) && stageIndex(g) > stageIndex(stage));
+  if (!next) return null;
+  return { gate: next, unmet: gateUnmet(next, records) };
+}

@@ -1,0 +1,31 @@
+import { TZDate, tz } from "@date-fns/tz";
+import { format, isValid } from "date-fns";
+
+// Record dates ("sent on", "calibrated on") are calendar days with no time of day. Doing their
+// arithmetic in UTC keeps the answer the same whatever zone the server process runs in.
+export const calendarZone = tz("UTC");
+
+const isoDatePattern = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+export function parseCalendarDate(isoDate: string): TZDate {
+  const match = isoDatePattern.exec(isoDate);
+  if (!match) throw new RangeError(`Expected a date as YYYY-MM-DD, got "${isoDate}"`);
+  const [, year, month, day] = match;
+  const date = new TZDate(Number(year), Number(month) - 1, Number(day), "UTC");
+  if (!isValid(date) || formatCalendarDate(date) !== isoDate) {
+    throw new RangeError(`"${isoDate}" is not a real calendar date`);
+  }
+  return date;
+}
+
+export function formatCalendarDate(date: Date): string {
+  return format(date, "yyyy-MM-dd", { in: calendarZone });
+}
+
+export function assertTimeZone(timeZone: string): void {
+  try {
+    new Intl.DateTimeFormat("en-US", { timeZone });
+  } catch {
+    throw new RangeError(`Unknown shop time zone "${timeZone}"; use an IANA name such as US/Central`);
+  }
+}

@@ -1,0 +1,187 @@
+import { addYears } from "date-fns";
+import { formatCalendarDate, parseCalendarDate } from "./calendar";
+import type { LeakTestInput } from "./schemas";
+
+/** The part's shape, from the part record: the pressure band and the decay method depend on it. */
+export type PartShape = "round" | "box" | "other";
+
+export type LeakTestResult = "pass" | "fail";
+
+export type LeakTestWarningCode =
+  | "test_pressure_outside_band"
+  | "hold_too_short"
+  | "gauge_range"
+  | "gauge_calibration_old"
+  | "gauge_calibration_future"
+  | "decay_on_box_tank"
+  | "soap_only_drop_exceeds_allowed";
+
+export type LeakTestWarning = { code: LeakTestWarningCode; message: string };
+
+export type LeakTestContext = {
+  partShape: PartShape;
+  /** The shop's allowed temperature-corrected drop over the hold, psi (a shop setting). */
+  allowedDropPsi: number;
+  /** The shop's today, YYYY-MM-DD (see shopToday in turnaround.ts). */
+  today: string;
+};
+
+export type LeakTestOutcome = {
+  correctedDropPsi: number;
+  rawDropPsi: number;
+  result: LeakTestResult;
+  warnings: LeakTestWarning[];
+};
+
+// Rankine = °F + 459.67, exact by the definition of the two scales.
+export const RANKINE_OFFSET_F = 459.67;
+// Standard atmosphere at sea level, 101.325 kPa (NIST Handbook 44, Appendix C units).
+export const SEA_LEVEL_PSIA = 14.696;
+// UL 142 §42.2.1: air test pressure, horizontal cylindrical tanks 3–5 psig, rectangular 1.5–3 psig.
+export const UL142_TEST_PRESSURE_PSIG = {
+  round: { min: 3, max: 5, tank: "a round (horizontal cylindrical) tank" },
+  box: { min: 1.5, max: 3, tank: "a box (rectangular) tank" },
+} as const;
+// ASME BPVC Section V, Article 10 (direct-pressure bubble test): hold at least 15 minutes.
+export const ASME_MIN_HOLD_MINUTES = 15;
+// ASME BPVC Section V, Article 10: gauge full scale about 2× the test pressure, never under 1.5× nor over 4×.
+export const ASME_GAUGE_FULL_SCALE_RATIO = { min: 1.5, max: 4 } as const;
+// Recalibrate test gauges yearly: common practice, no published source.
+export const GAUGE_CALIBRATION_YEARS = 1;
+
+// Drops are reported and compared at 0.0001 psi, far finer than any shop gauge reads, so float
+// noise never turns a pure-cooling drop into a failure.
+const roundPsi = (psi: number) => Math.round(psi * 10_000) / 10_000 + 0;
+const show = (value: number) => String(Number(value.toFixed(3)));
+
+export type PressureReadings = Pick<
+  LeakTestInput,
+  "startPressurePsig" | "endPressurePsig" | "startTempF" | "endTempF" | "barometricPsia"
+>;
+
+/**
+ * Raw and temperature-corrected pressure drop over the hold. At constant volume P/T is constant
+ * in absolute units (ideal gas law), so the end pressure is brought back to the start temperature
+ * before the drop is read as a leak: 1 °F of cooling at 5 psig alone shows as about 0.037 psi.
+ */
+export function pressureDrop(readings: PressureReadings): { rawDropPsi: number; correctedDropPsi: number } {
+  const startAbs = readings.startPressurePsig + readings.barometricPsia;
+  const endAbs = readings.endPressurePsig + readings.barometricPsia;
+  const startRankine = readings.startTempF + RANKINE_OFFSET_F;
+  const endRankine = readings.endTempF + RANKINE_OFFSET_F;
+  // Ideal gas law at constant volume: P_end,corr = P_end × T_start / T_end, all absolute.
+  const endCorrectedAbs = endAbs * (startRankine / endRankine);
+  return {
+    rawDropPsi: roundPsi(readings.startPressurePsig - readings.endPressurePsig),
+    correctedDropPsi: roundPsi(startAbs - endCorrectedAbs),
+  };
+}
+
+/**
+ * The pressure the gauge would read at the end of the hold if the tank were tight and only the
+ * temperature changed (ideal gas law, absolute units).
+ */
+export function expectedEndPressurePsig(readings: Omit<PressureReadings, "endPressurePsig">): number {
+  const startAbs = readings.startPressurePsig + readings.barometricPsia;
+  const ratio = (readings.endTempF + RANKINE_OFFSET_F) / (readings.startTempF + RANKINE_OFFSET_F);
+  return startAbs * ratio - readings.barometricPsia;
+}
+
+/**
+ * Decides a leak test. A seam seen leaking fails the test whatever the method named: a bubble is
+ * a leak. The corrected drop decides only for "decay" and "both"; in a soap-only test it is
+ * reported and flagged when over the allowed drop, since a leak may be where no seam was looked at.
+ * A soap or both test with no seams examined is not a test: the schema refuses it and so does this.
+ */
+export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext): LeakTestOutcome {
+  if (!Number.isFinite(context.allowedDropPsi) || context.allowedDropPsi < 0) {
+    throw new RangeError(`The shop's allowed drop must be 0 psi or more; got ${context.allowedDropPsi}`);
+  }
+  const usesSoap = test.method === "soap" || test.method === "both";
+  const usesDecay = test.method === "decay" || test.method === "both";
+  if (usesSoap && test.seams.length === 0) {
+    throw new RangeError("A soap test needs at least one seam examined");
+  }
+
+  const { rawDropPsi, correctedDropPsi } = pressureDrop(test);
+  const seamLeaked = test.seams.some((seam) => seam.result === "leak");
+  const dropTooLarge = correctedDropPsi > context.allowedDropPsi;
+  const result: LeakTestResult = seamLeaked || (usesDecay && dropTooLarge) ? "fail" : "pass";
+
+  const warnings: LeakTestWarning[] = [];
+  const warn = (code: LeakTestWarningCode, message: string) => warnings.push({ code, message });
+
+  if (context.partShape === "round" || context.partShape === "box") {
+    const band = UL142_TEST_PRESSURE_PSIG[context.partShape];
+    if (test.testPressurePsig < band.min || test.testPressurePsig > band.max) {
+      warn(
+        "test_pressure_outside_band",
+        `Test pressure ${show(test.testPressurePsig)} psig is outside the usual ${band.min}–${band.max} psig for ${band.tank} (UL 142 §42.2.1).`,
+      );
+    }
+  }
+
+  if (test.holdMinutes < ASME_MIN_HOLD_MINUTES) {
+    warn(
+      "hold_too_short",
+      `Pressure was held ${show(test.holdMinutes)} min; hold at least ${ASME_MIN_HOLD_MINUTES} min before examining (ASME BPVC Section V, Article 10).`,
+    );
+  }
+
+  const lowestScale = ASME_GAUGE_FULL_SCALE_RATIO.min * test.testPressurePsig;
+  const highestScale = ASME_GAUGE_FULL_SCALE_RATIO.max * test.testPressurePsig;
+  if (test.gaugeFullScalePsi < lowestScale || test.gaugeFullScalePsi > highestScale) {
+    warn(
+      "gauge_range",
+      `A ${show(test.gaugeFullScalePsi)} psi gauge is the wrong range for ${show(test.testPressurePsig)} psig: use a full scale between ${show(lowestScale)} and ${show(highestScale)} psi, about twice the test pressure (ASME BPVC Section V, Article 10).`,
+    );
+  }
+
+  const today = parseCalendarDate(context.today);
+  const calibratedOn = parseCalendarDate(test.gaugeCalibratedOn);
+  if (calibratedOn > today) {
+    warn(
+      "gauge_calibration_future",
+      `The gauge calibration date ${test.gaugeCalibratedOn} is after today (${context.today}); check the date on the gauge's tag.`,
+    );
+  } else if (formatCalendarDate(addYears(calibratedOn, GAUGE_CALIBRATION_YEARS)) < context.today) {
+    warn(
+      "gauge_calibration_old",
+      `The gauge was last calibrated ${test.gaugeCalibratedOn}, more than a year ago; have it checked (common practice, no published source).`,
+    );
+  }
+
+  // Trade reference, leak test: flat walls flex with pressure, so the volume is not constant and
+  // the P/T correction does not hold.
+  if (usesDecay && context.partShape === "box") {
+    warn(
+      "decay_on_box_tank",
+      "Pressure decay is not a valid leak test for a box tank: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution (trade reference, leak test).",
+    );
+  }
+
+  if (!usesDecay && dropTooLarge) {
+    warn(
+      "soap_only_drop_exceeds_allowed",
+      `No seam showed bubbles, but the corrected pressure fell ${show(correctedDropPsi)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed (common practice, no published source).`,
+    );
+  }
+
+  return { correctedDropPsi, rawDropPsi, result, warnings };
+}
+
+/** Shown on the leak-test form before the tank is pressurised. */
+export const pneumaticTestCautions: readonly { key: string; text: string }[] = [
+  { key: "lowest_pressure", text: "Use the lowest pressure that does the job." },
+  {
+    key: "regulator_relief",
+    text: "Fill through a regulator, with a relief valve on the tank side set just above the test pressure.",
+  },
+  { key: "low_range_gauge", text: "Read a low-range gauge, about twice the test pressure at full scale." },
+  {
+    key: "stand_clear",
+    text: "Nobody stands in front of flat panels, plugs or caps: 3 psi on a 20 × 30 in wall pushes 1,800 lbf.",
+  },
+  { key: "air_only", text: "Never use oxygen or a flammable gas: shop air or nitrogen only." },
+  { key: "codes", text: "Follow local codes and the makers' instructions for the tank, fittings and gauge." },
+];

@@ -1,0 +1,76 @@
+import "server-only";
+import { randomUUID } from "node:crypto";
+import type { z } from "zod";
+import type { DB } from "@/db";
+import { hashPassword } from "@/server/auth/password";
+import { ApiError } from "@/server/http/errors";
+import { findStaff } from "./queries";
+import type { firstRunSchema, newStaffSchema, staffPatchSchema } from "./schemas";
+
+async function assertEmailFree(db: DB, email: string, exceptId?: string) {
+  const taken = await db.selectFrom("staff").select("id").where("email", "=", email).executeTakeFirst();
+  if (taken && taken.id !== exceptId) {
+    throw new ApiError("conflict", "Someone on the staff already uses that e-mail.", { fields: { email: ["Someone on the staff already uses that e-mail."] } });
+  }
+}
+
+export async function createStaff(db: DB, input: z.infer<typeof newStaffSchema>) {
+  await assertEmailFree(db, input.email);
+  // Hash outside any transaction: argon2 is slow and SQLite has one connection.
+  const password_hash = await hashPassword(input.password);
+  const id = randomUUID();
+  await db
+    .insertInto("staff")
+    .values({ id, name: input.name, email: input.email, role: input.role, password_hash, active: 1, created_at: new Date().toISOString() })
+    .execute();
+  return (await findStaff(db, id))!;
+}
+
+export async function updateStaff(db: DB, actorId: string, id: string, patch: z.infer<typeof staffPatchSchema>) {
+  const existing = await findStaff(db, id);
+  if (!existing) throw new ApiError("not_found", "That staff member was not found.");
+  if (id === actorId && (patch.active === false || (patch.role && patch.role !== "owner"))) {
+    throw new ApiError("conflict", "You cannot demote or deactivate yourself; ask another owner.");
+  }
+  const password_hash = patch.password ? await hashPassword(patch.password) : undefined;
+  await db.transaction().execute(async (trx) => {
+    if ((patch.active === false || (patch.role && patch.role !== "owner")) && existing.role === "owner") {
+      const owners = await trx.selectFrom("staff").select("id").where("role", "=", "owner").where("active", "=", 1).where("id", "!=", id).execute();
+      if (owners.length === 0) throw new ApiError("conflict", "The shop needs at least one active owner.");
+    }
+    await trx
+      .updateTable("staff")
+      .set({
+        ...(patch.name !== undefined ? { name: patch.name } : {}),
+        ...(patch.role !== undefined ? { role: patch.role } : {}),
+        ...(patch.active !== undefined ? { active: patch.active ? 1 : 0 } : {}),
+        ...(password_hash ? { password_hash } : {}),
+      })
+      .where("id", "=", id)
+      .execute();
+    // A deactivated member or a reset password ends every session of theirs at once.
+    if (patch.active === false || password_hash || patch.role !== undefined) {
+      await trx.deleteFrom("session").where("staff_id", "=", id).execute();
+    }
+  });
+  return (await findStaff(db, id))!;
+}
+
+export async function createFirstOwner(db: DB, input: z.infer<typeof firstRunSchema>) {
+  const password_hash = await hashPassword(input.password);
+  const id = randomUUID();
+  await db.transaction().execute(async (trx) => {
+    const any = await trx.selectFrom("staff").select("id").limit(1).executeTakeFirst();
+    if (any) throw new ApiError("conflict", "This shop is already set up. Sign in instead.");
+    await trx
+      .insertInto("staff")
+      .values({ id, name: input.name, email: input.email, role: "owner", password_hash, active: 1, created_at: new Date().toISOString() })
+      .execute();
+    await trx
+      .insertInto("shop")
+      .values({ id: 1, name: input.shopName, phone: input.shopPhone })
+      .onConflict((oc) => oc.column("id").doUpdateSet({ name: input.shopName, phone: input.shopPhone }))
+      .execute();
+  });
+  return id;
+}

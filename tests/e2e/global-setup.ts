@@ -1,0 +1,84 @@
+import { type ChildProcess, spawn } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync } from "node:fs";
+import { createServer } from "node:net";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import type { TestProject } from "vitest/node";
+import { chromiumPath } from "./browser";
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, "127.0.0.1", () => {
+      const { port } = srv.address() as { port: number };
+      srv.close(() => resolve(port));
+    });
+    srv.on("error", reject);
+  });
+}
+
+async function waitFor(url: string, ms: number) {
+  const until = Date.now() + ms;
+  while (Date.now() < until) {
+    try {
+      const res = await fetch(url);
+      if (res.ok) return;
+    } catch {
+      // not up yet
+    }
+    await new Promise((r) => setTimeout(r, 300));
+  }
+  throw new Error(`${url} did not answer within ${ms} ms`);
+}
+
+function run(cmd: string, args: string[], env: NodeJS.ProcessEnv) {
+  return new Promise<void>((resolve, reject) => {
+    const child = spawn(cmd, args, { env, stdio: "inherit" });
+    child.on("exit", (code) => (code === 0 ? resolve() : reject(new Error(`${cmd} ${args.join(" ")} exited ${code}`))));
+  });
+}
+
+export default async function setup(project: TestProject) {
+  const browser = chromiumPath();
+  if (!browser) {
+    const banner = "\n!!! Chromium was not found (set CHROMIUM_PATH or apt-get install chromium): BROWSER TESTS ARE SKIPPED !!!\n";
+    if (process.env.REQUIRE_BROWSER === "1") throw new Error(banner + "REQUIRE_BROWSER=1, so this is a failure.");
+    console.warn(banner);
+    project.provide("baseUrl", "");
+    return;
+  }
+  if (!existsSync(".next/BUILD_ID")) throw new Error("Build first: npm run build (npm test does this for you).");
+
+  const dir = mkdtempSync(join(tmpdir(), "baywright-e2e-"));
+  const port = await freePort();
+  const env = {
+    ...process.env,
+    DATABASE_PATH: join(dir, "e2e.db"),
+    PORT: String(port),
+    NODE_ENV: "production" as const,
+    DEMO_PASSWORD: "upfit-demo-2026",
+  };
+  await run("npx", ["tsx", "scripts/seed.ts"], env);
+  const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env, stdio: ["ignore", "inherit", "inherit"], detached: true });
+  const baseUrl = `http://127.0.0.1:${port}`;
+  await waitFor(`${baseUrl}/api/health`, 60_000);
+  project.provide("baseUrl", baseUrl);
+  project.provide("databasePath", env.DATABASE_PATH);
+
+  return async () => {
+    // next start forks a next-server child: end the whole process group so the port and database are freed.
+    try {
+      if (server.pid) process.kill(-server.pid, "SIGTERM");
+    } catch {
+      // already gone
+    }
+    rmSync(dir, { recursive: true, force: true });
+  };
+}
+
+declare module "vitest" {
+  export interface ProvidedContext {
+    baseUrl: string;
+    databasePath: string;
+  }
+}

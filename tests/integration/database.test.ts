@@ -1,0 +1,51 @@
+import { describe, expect, it } from "vitest";
+import * as health from "@/app/api/health/route";
+import { createDb, openSqlite } from "@/db";
+import { seedDemo } from "@/db/seed";
+import { migrateToLatest, migrations, migrator } from "@/migrations";
+import { vinProblem } from "@/server/vehicles/vin";
+import { useFreshDatabase } from "../support/db";
+import { readBody } from "../support/http";
+
+const { db } = useFreshDatabase();
+
+describe("the database", () => {
+  it("holds its pragmas on every open: WAL, foreign keys, busy timeout, synchronous FULL", () => {
+    const sqlite = openSqlite(process.env.DATABASE_PATH!);
+    expect(sqlite.pragma("journal_mode", { simple: true })).toBe("wal");
+    expect(sqlite.pragma("foreign_keys", { simple: true })).toBe(1);
+    expect(sqlite.pragma("busy_timeout", { simple: true })).toBe(5000);
+    expect(sqlite.pragma("synchronous", { simple: true })).toBe(2);
+    sqlite.close();
+  });
+
+  it("reports healthy once migrated", async () => {
+    const res = await health.GET();
+    expect(res.status).toBe(200);
+    expect(await readBody(res)).toEqual({ ok: true, database: "migrated" });
+  });
+
+  it("migrates down to nothing and up again", async () => {
+    const other = createDb(`${process.env.DATABASE_PATH}-roundtrip`);
+    await migrateToLatest(other);
+    const m = migrator(other);
+    for (let i = 0; i < Object.keys(migrations).length; i++) {
+      const { error } = await m.migrateDown();
+      expect(error).toBeUndefined();
+    }
+    await migrateToLatest(other);
+    await other.destroy();
+  });
+
+  it("seeds the demo shop once, with VINs that pass the check digit, and refuses a second time", async () => {
+    await seedDemo(db(), "demo-password-for-tests");
+    const staff = await db().selectFrom("staff").select(["email", "role"]).execute();
+    expect(staff).toHaveLength(6);
+    expect(staff.filter((s) => s.role === "tech")).toHaveLength(4);
+    const trucks = await db().selectFrom("truck").select("vin").execute();
+    for (const t of trucks) expect(vinProblem(t.vin)).toBeNull();
+    const stages = new Set((await db().selectFrom("job").select("stage").execute()).map((j) => j.stage));
+    expect([...stages].sort()).toEqual(["coating", "delivered", "fabricate", "install", "pressure_test", "queued", "ready", "wire"]);
+    await expect(seedDemo(db(), "x")).rejects.toThrow(/not empty/);
+  });
+});

@@ -1,0 +1,242 @@
+import { unit } from "mathjs";
+import { describe, expect, it } from "vitest";
+import {
+  evaluateLeakTest,
+  expectedEndPressurePsig,
+  pneumaticTestCautions,
+  pressureDrop,
+  type LeakTestContext,
+} from "@/server/records/leak-test";
+import type { LeakTestInput } from "@/server/records/schemas";
+
+const context: LeakTestContext = { partShape: "round", allowedDropPsi: 0.05, today: "2025-06-02" };
+
+// A clean 4 psig, 20 min decay-and-soap test of a round tank with a 0–10 psi gauge: no warnings.
+function leakTest(overrides: Partial<LeakTestInput> = {}): LeakTestInput {
+  return {
+    method: "both",
+    testPressurePsig: 4,
+    gaugeFullScalePsi: 10,
+    gaugeCalibratedOn: "2025-01-15",
+    holdMinutes: 20,
+    startPressurePsig: 4,
+    endPressurePsig: 4,
+    startTempF: 70,
+    endTempF: 70,
+    barometricPsia: 14.696,
+    seams: [
+      { location: "Sump to shell, suction end", result: "pass" },
+      { location: "Fill neck", result: "pass" },
+    ],
+    tester: "Wren Castellano",
+    ...overrides,
+  };
+}
+
+const codes = (outcome: { warnings: { code: string }[] }) => outcome.warnings.map((w) => w.code);
+
+// Independent oracle: absolute temperatures from mathjs units (°F → K), pressures as given.
+function oracleCorrectedDrop(startPsig: number, endPsig: number, startF: number, endF: number, baro = 14.696) {
+  const startK = unit(startF, "degF").toNumber("K");
+  const endK = unit(endF, "degF").toNumber("K");
+  return startPsig + baro - (endPsig + baro) * (startK / endK);
+}
+
+describe("temperature-corrected pressure drop (ideal gas law, constant volume, absolute units)", () => {
+  it("shows 1 °F of cooling at 5 psig as about 0.037 psi (trade reference, leak test)", () => {
+    const end = expectedEndPressurePsig({ startPressurePsig: 5, startTempF: 70, endTempF: 69, barometricPsia: 14.696 });
+    expect(5 - end).toBeCloseTo(0.037, 3);
+    // (5 + 14.696) psia / (70 + 459.67) °R per °F, from the gas law directly.
+    expect(5 - end).toBeCloseTo(19.696 / 529.67, 10);
+  });
+
+  it("reads a drop that is only cooling as no drop at all", () => {
+    const end = expectedEndPressurePsig({ startPressurePsig: 5, startTempF: 70, endTempF: 69, barometricPsia: 14.696 });
+    const drop = pressureDrop({ startPressurePsig: 5, endPressurePsig: end, startTempF: 70, endTempF: 69, barometricPsia: 14.696 });
+    expect(drop.rawDropPsi).toBeCloseTo(0.0372, 4);
+    expect(drop.correctedDropPsi).toBe(0);
+  });
+
+  it("agrees with a mathjs kelvin oracle for a leak hidden by warming", () => {
+    const drop = pressureDrop({ startPressurePsig: 3, endPressurePsig: 3.1, startTempF: 55, endTempF: 85, barometricPsia: 14.696 });
+    expect(drop.rawDropPsi).toBeCloseTo(-0.1, 10);
+    expect(drop.correctedDropPsi).toBeCloseTo(oracleCorrectedDrop(3, 3.1, 55, 85), 4);
+    expect(drop.correctedDropPsi).toBeGreaterThan(0.8);
+  });
+
+  it("uses the local barometric pressure: a high-altitude shop sees less cooling drop", () => {
+    const sea = expectedEndPressurePsig({ startPressurePsig: 5, startTempF: 70, endTempF: 60, barometricPsia: 14.696 });
+    const high = expectedEndPressurePsig({ startPressurePsig: 5, startTempF: 70, endTempF: 60, barometricPsia: 12.0 });
+    // Gas law: the drop is P_abs × ΔT / T, so 17.0 psia instead of 19.696 psia.
+    expect(5 - high).toBeCloseTo(17.0 * (10 / 529.67), 10);
+    expect(5 - sea).toBeCloseTo(19.696 * (10 / 529.67), 10);
+  });
+});
+
+describe("evaluateLeakTest: pass or fail", () => {
+  it("passes a decay test whose drop is only cooling, though the raw drop is over the allowance", () => {
+    const end = expectedEndPressurePsig({ startPressurePsig: 4, startTempF: 80, endTempF: 60, barometricPsia: 14.696 });
+    const outcome = evaluateLeakTest(leakTest({ method: "decay", seams: [], startTempF: 80, endTempF: 60, endPressurePsig: end }), context);
+    // 18.696 psia × 20 °F / 539.67 °R ≈ 0.69 psi of cooling, far over the 0.05 psi allowance.
+    expect(outcome.rawDropPsi).toBeCloseTo((18.696 * 20) / 539.67, 4);
+    expect(outcome.correctedDropPsi).toBe(0);
+    expect(outcome.result).toBe("pass");
+  });
+
+  it("fails a decay test with a real drop beyond cooling", () => {
+    const end = expectedEndPressurePsig({ startPressurePsig: 4, startTempF: 80, endTempF: 60, barometricPsia: 14.696 }) - 0.2;
+    const outcome = evaluateLeakTest(leakTest({ method: "decay", seams: [], startTempF: 80, endTempF: 60, endPressurePsig: end }), context);
+    // 0.2 psi lost at 60 °F is 0.2 × 539.67 / 519.67 psi at the start temperature (gas law).
+    expect(outcome.correctedDropPsi).toBeCloseTo((0.2 * 539.67) / 519.67, 4);
+    expect(outcome.result).toBe("fail");
+  });
+
+  it("fails a leak that warming hid from the raw gauge readings", () => {
+    const outcome = evaluateLeakTest(
+      leakTest({ method: "decay", seams: [], startPressurePsig: 3, endPressurePsig: 3.1, startTempF: 55, endTempF: 85 }),
+      context,
+    );
+    expect(outcome.rawDropPsi).toBeLessThan(0);
+    expect(outcome.result).toBe("fail");
+  });
+
+  it("passes a drop exactly at the shop's allowance and fails one just over it", () => {
+    const at = evaluateLeakTest(leakTest({ method: "decay", seams: [], endPressurePsig: 3.95 }), context);
+    expect(at.correctedDropPsi).toBe(0.05);
+    expect(at.result).toBe("pass");
+    const over = evaluateLeakTest(leakTest({ method: "decay", seams: [], endPressurePsig: 3.9499 }), context);
+    expect(over.result).toBe("fail");
+  });
+
+  it("fails a soap test when any seam leaked", () => {
+    const outcome = evaluateLeakTest(
+      leakTest({ method: "soap", seams: [{ location: "Baffle weld", result: "pass" }, { location: "Return port", result: "leak" }] }),
+      context,
+    );
+    expect(outcome.result).toBe("fail");
+  });
+
+  it("fails a decay test with a seam seen leaking, even with no pressure drop", () => {
+    const outcome = evaluateLeakTest(leakTest({ method: "decay", seams: [{ location: "Drain plug", result: "leak" }] }), context);
+    expect(outcome.correctedDropPsi).toBe(0);
+    expect(outcome.result).toBe("fail");
+  });
+
+  it("lets a soap-only test pass on its seams but flags a corrected drop over the allowance", () => {
+    const outcome = evaluateLeakTest(leakTest({ method: "soap", endPressurePsig: 3.5 }), context);
+    expect(outcome.result).toBe("pass");
+    expect(codes(outcome)).toEqual(["soap_only_drop_exceeds_allowed"]);
+  });
+
+  it("fails a 'both' test on the drop alone when every seam passed", () => {
+    const outcome = evaluateLeakTest(leakTest({ method: "both", endPressurePsig: 3.5 }), context);
+    expect(outcome.result).toBe("fail");
+    expect(codes(outcome)).toEqual([]);
+  });
+
+  it("refuses a soap test with no seams examined, and a negative allowance", () => {
+    expect(() => evaluateLeakTest(leakTest({ method: "soap", seams: [] }), context)).toThrow(RangeError);
+    expect(() => evaluateLeakTest(leakTest(), { ...context, allowedDropPsi: -0.1 })).toThrow(RangeError);
+  });
+});
+
+describe("evaluateLeakTest: warnings", () => {
+  it("raises no warning for a test done by the book", () => {
+    expect(evaluateLeakTest(leakTest(), context).warnings).toEqual([]);
+  });
+
+  it("flags a round tank tested outside 3–5 psig (UL 142 §42.2.1)", () => {
+    for (const psig of [3, 5]) {
+      const ok = evaluateLeakTest(leakTest({ testPressurePsig: psig, startPressurePsig: psig, endPressurePsig: psig }), context);
+      expect(codes(ok)).not.toContain("test_pressure_outside_band");
+    }
+    for (const psig of [2.9, 5.1]) {
+      const outcome = evaluateLeakTest(leakTest({ testPressurePsig: psig, startPressurePsig: psig, endPressurePsig: psig }), context);
+      expect(codes(outcome)).toContain("test_pressure_outside_band");
+      expect(outcome.warnings[0].message).toContain("UL 142 §42.2.1");
+      expect(outcome.warnings[0].message).toContain("3–5 psig");
+    }
+  });
+
+  it("flags a box tank tested outside 1.5–3 psig (UL 142 §42.2.1)", () => {
+    const box = { ...context, partShape: "box" as const };
+    const soap = { method: "soap" as const, gaugeFullScalePsi: 5 };
+    for (const psig of [1.5, 2, 3]) {
+      const ok = evaluateLeakTest(leakTest({ ...soap, testPressurePsig: psig, startPressurePsig: psig, endPressurePsig: psig }), box);
+      expect(codes(ok)).not.toContain("test_pressure_outside_band");
+    }
+    // 4 psig suits a round tank but is over the band for flat walls.
+    for (const psig of [1.4, 4]) {
+      const outcome = evaluateLeakTest(
+        leakTest({ ...soap, gaugeFullScalePsi: 2.5 * psig, testPressurePsig: psig, startPressurePsig: psig, endPressurePsig: psig }),
+        box,
+      );
+      expect(codes(outcome)).toEqual(["test_pressure_outside_band"]);
+      expect(outcome.warnings[0].message).toContain("1.5–3 psig");
+    }
+  });
+
+  it("has no published band for other shapes", () => {
+    const outcome = evaluateLeakTest(leakTest({ testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), {
+      ...context,
+      partShape: "other",
+    });
+    expect(codes(outcome)).not.toContain("test_pressure_outside_band");
+  });
+
+  it("flags a hold shorter than 15 minutes (ASME BPVC Section V, Article 10)", () => {
+    expect(codes(evaluateLeakTest(leakTest({ holdMinutes: 15 }), context))).not.toContain("hold_too_short");
+    const short = evaluateLeakTest(leakTest({ holdMinutes: 14 }), context);
+    expect(codes(short)).toEqual(["hold_too_short"]);
+    expect(short.warnings[0].message).toContain("ASME BPVC Section V, Article 10");
+  });
+
+  it("flags a gauge outside 1.5–4 × the test pressure (ASME BPVC Section V, Article 10)", () => {
+    // 4 psig test: the gauge's full scale may run from 6 to 16 psi.
+    for (const fullScale of [6, 8, 16]) {
+      expect(codes(evaluateLeakTest(leakTest({ gaugeFullScalePsi: fullScale }), context))).not.toContain("gauge_range");
+    }
+    for (const fullScale of [5.9, 16.1, 30, 100]) {
+      const outcome = evaluateLeakTest(leakTest({ gaugeFullScalePsi: fullScale }), context);
+      expect(codes(outcome)).toEqual(["gauge_range"]);
+      expect(outcome.warnings[0].message).toContain("ASME BPVC Section V, Article 10");
+    }
+  });
+
+  it("flags a gauge calibrated more than a year ago (common practice, no published source)", () => {
+    expect(codes(evaluateLeakTest(leakTest({ gaugeCalibratedOn: "2024-06-02" }), context))).toEqual([]);
+    const old = evaluateLeakTest(leakTest({ gaugeCalibratedOn: "2024-06-01" }), context);
+    expect(codes(old)).toEqual(["gauge_calibration_old"]);
+    expect(old.warnings[0].message).toContain("common practice");
+  });
+
+  it("flags a calibration date after today", () => {
+    expect(codes(evaluateLeakTest(leakTest({ gaugeCalibratedOn: "2025-06-03" }), context))).toEqual(["gauge_calibration_future"]);
+  });
+
+  it("flags pressure decay on a box tank, whose flat walls flex (trade reference, leak test)", () => {
+    const box = { ...context, partShape: "box" as const };
+    const boxTest = { testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 };
+    expect(codes(evaluateLeakTest(leakTest({ ...boxTest, method: "decay" }), box))).toEqual(["decay_on_box_tank"]);
+    expect(codes(evaluateLeakTest(leakTest({ ...boxTest, method: "both" }), box))).toEqual(["decay_on_box_tank"]);
+    expect(codes(evaluateLeakTest(leakTest({ ...boxTest, method: "soap" }), box))).toEqual([]);
+    expect(codes(evaluateLeakTest(leakTest({ method: "decay" }), context))).toEqual([]);
+  });
+
+  it("keeps warnings as flags: a flagged test still passes on its readings", () => {
+    const outcome = evaluateLeakTest(leakTest({ holdMinutes: 5, gaugeFullScalePsi: 100 }), context);
+    expect(outcome.result).toBe("pass");
+    expect(codes(outcome)).toEqual(["hold_too_short", "gauge_range"]);
+  });
+});
+
+describe("pneumatic test cautions", () => {
+  it("states the force on a flat wall correctly: 3 psi × 20 in × 30 in", () => {
+    const text = pneumaticTestCautions.map((c) => c.text).join(" ");
+    expect(text).toContain(`${(3 * 20 * 30).toLocaleString("en-US")} lbf`);
+    expect(text).toMatch(/oxygen/);
+    expect(text).toMatch(/relief valve/);
+    expect(text).toMatch(/local codes/);
+    expect(new Set(pneumaticTestCautions.map((c) => c.key)).size).toBe(pneumaticTestCautions.length);
+  });
+});
