@@ -1,0 +1,10 @@
+export { computeKitSpec } from "./calc";
+export type { KitSpec, KitWarning, KitWarningCode, LineCheck, LineStatus } from "./calc";
+export { kitCalcInputSchema, kitCalcLimits } from "./schema";
+export type { KitCalcInput } from "./schema";
+export { PRESSURE_BAND_FROM_PSI, pressureLineBand, velocityBandSources, velocityBands } from "./bands";
+export type { VelocityBand } from "./bands";
+export { formulaForResult, formulaList, formulas } from "./formulas";
+export type { KitFormula, KitFormulaId } from "./formulas";
+export { kitCalcDefaults } from "./practice";
+export { demoKitCalcInput } from "./demo";

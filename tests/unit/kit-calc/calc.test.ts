@@ -1,0 +1,234 @@
+import { unit } from "mathjs";
+import { describe, expect, it } from "vitest";
+import {
+  computeKitSpec,
+  demoKitCalcInput,
+  formulaForResult,
+  formulaList,
+  velocityBandSources,
+  velocityBands,
+  type KitCalcInput,
+  type KitWarningCode,
+} from "@/server/kit-calc";
+
+const ORACLE_RELATIVE = 1e-9; // mathjs units agree with exact values to about 1e-10
+const expectRelative = (actual: number, expected: number, relative: number) =>
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(Math.abs(expected) * relative);
+
+const demo: KitCalcInput = demoKitCalcInput;
+const withChanges = (changes: Partial<KitCalcInput>): KitCalcInput => ({ ...demo, ...changes });
+const codes = (input: KitCalcInput): KitWarningCode[] => computeKitSpec(input).warnings.map((warning) => warning.code);
+
+describe("pump, power and torque chain (fluid-power textbook formulas; mathjs oracle for units)", () => {
+  it("shaft speed, flow and power follow engine rpm × PTO %, D × N / 231 × ηv and gpm × psi / 1714.29", () => {
+    const spec = computeKitSpec(demo);
+    const shaftRpm = (demo.engineRpm * demo.ptoRatioPercent) / 100;
+    const theoretical = unit(demo.pumpDisplacementCuIn * shaftRpm, "cuin/minute").toNumber("gallon/minute");
+    expectRelative(spec.pumpShaftRpm, shaftRpm, 1e-15);
+    expectRelative(spec.theoreticalFlowGpm, theoretical, ORACLE_RELATIVE);
+    expectRelative(spec.flowGpm, theoretical * 0.9, ORACLE_RELATIVE);
+    const hydraulicHp = unit(spec.flowGpm, "gallon/minute").multiply(unit(demo.workingPressurePsi, "psi")).toNumber("hp");
+    expectRelative(spec.hydraulicHp, hydraulicHp, ORACLE_RELATIVE);
+    expectRelative(spec.inputHp, hydraulicHp / (0.9 * 0.9), ORACLE_RELATIVE);
+  });
+
+  it("PTO torque equals input hp × 5252 / shaft rpm (textbook; 5252 rounded from 5252.11, so within 3e-5)", () => {
+    const spec = computeKitSpec(demo);
+    expectRelative(spec.pumpTorqueLbFt, (spec.inputHp * 5252) / spec.pumpShaftRpm, 3e-5);
+  });
+
+  it("efficiencies default to 0.90 each when left out", () => {
+    const { volumetricEfficiency: _v, mechanicalEfficiency: _m, ...withoutEfficiencies } = demo;
+    const spec = computeKitSpec({ ...withoutEfficiencies, workingPressurePsi: 2000 });
+    expectRelative(spec.flowGpm, spec.theoreticalFlowGpm * 0.9, 1e-15);
+    expectRelative(spec.inputHp, spec.hydraulicHp / 0.81, 1e-14);
+  });
+
+  it("a worn pump (ηv 0.7) delivers less oil but the same torque; a poor ηm raises torque", () => {
+    const worn = computeKitSpec(withChanges({ volumetricEfficiency: 0.7 }));
+    const base = computeKitSpec(demo);
+    expectRelative(worn.flowGpm / base.flowGpm, 0.7 / 0.9, 1e-14);
+    expectRelative(worn.pumpTorqueLbFt, base.pumpTorqueLbFt, 1e-15);
+    const stiff = computeKitSpec(withChanges({ mechanicalEfficiency: 0.6 }));
+    expectRelative(stiff.pumpTorqueLbFt / base.pumpTorqueLbFt, 0.9 / 0.6, 1e-14);
+  });
+});
+
+describe("reservoir (geometry handbook; NIST HB 44 App. C for gallons)", () => {
+  const tubeGallons = (Math.PI * 10 * 10 * 30) / 231;
+
+  it("a round tube with a sump: capacity π r² L / 231 plus the sump; default fill keeps 10 % of the tube as air", () => {
+    const spec = computeKitSpec(withChanges({ tank: { shape: "round", insideDiameterIn: 20, lengthIn: 30 }, sumpGal: 1.5 }));
+    expectRelative(spec.tank.totalGal, tubeGallons + 1.5, 1e-12);
+    expectRelative(spec.tank.oilGal, 0.9 * tubeGallons + 1.5, 1e-12);
+    expectRelative(spec.tank.airSpacePercent, ((0.1 * tubeGallons) / (tubeGallons + 1.5)) * 100, 1e-9);
+  });
+
+  it("without a sump the default air space is exactly 10 % (from memory: about 10 %)", () => {
+    const { sumpGal: _sump, ...noSump } = demo;
+    expectRelative(computeKitSpec(noSump).tank.airSpacePercent, 10, 1e-9);
+  });
+
+  it("an explicit fill depth is used as given: half a tube holds half its volume", () => {
+    const spec = computeKitSpec(withChanges({ tank: { shape: "round", insideDiameterIn: 20, lengthIn: 30 }, sumpGal: 0, fillDepthIn: 10 }));
+    expectRelative(spec.tank.oilGal, tubeGallons / 2, 1e-12);
+    expectRelative(spec.tank.airSpacePercent, 50, 1e-12);
+  });
+
+  it("oil weight is oil gallons × 7.26 lb/gal (from memory; 0.87 kg/L) and mathjs gives the same from kg/L within 0.1 %", () => {
+    const spec = computeKitSpec(demo);
+    expectRelative(spec.tank.oilWeightLb, spec.tank.oilGal * 7.26, 1e-15);
+    const fromDensity = unit(spec.tank.oilGal, "gallon").multiply(unit(0.87, "kg/L")).toNumber("lbm");
+    expectRelative(spec.tank.oilWeightLb, fromDensity, 1e-3);
+  });
+
+  it("minutes of flow is oil gallons / pump gpm (reservoir sizing guidance)", () => {
+    const spec = computeKitSpec(demo);
+    expectRelative(spec.reservoirMinutesOfFlow, spec.tank.oilGal / spec.flowGpm, 1e-15);
+  });
+});
+
+describe("heat estimate (vendor rule of thumb, 2.0 Btu/h·ft²·°F, the low end of 2.0–2.5; 1 hp = 2544 Btu/h)", () => {
+  const box = { shape: "box", lengthIn: 36, widthIn: 18, heightIn: 20 } as const;
+  const wettedSqFt = (36 * 18 + 2 * 15 * (36 + 18)) / 144;
+
+  it("Btu/h = wetted ft² × 2.0 × ΔT and hp = Btu/h / 2544", () => {
+    const spec = computeKitSpec(withChanges({ tank: box, fillDepthIn: 15, oilToAirDeltaF: 60 }));
+    expectRelative(spec.tank.wettedAreaSqFt, wettedSqFt, 1e-15);
+    expectRelative(spec.heat.dissipationBtuPerHr, wettedSqFt * 2.0 * 60, 1e-15);
+    expectRelative(spec.heat.dissipationHp, (wettedSqFt * 2.0 * 60) / 2544, 1e-15);
+  });
+
+  it("the oil-to-air difference defaults to 40 °F", () => {
+    const { oilToAirDeltaF: _delta, ...noDelta } = withChanges({ tank: box, fillDepthIn: 15 });
+    expectRelative(computeKitSpec(noDelta).heat.dissipationBtuPerHr, wettedSqFt * 2.0 * 40, 1e-15);
+  });
+});
+
+describe("metric values beside the US ones (NIST HB 44 App. C; kW = L/min × bar / 600)", () => {
+  it("flow, pressure and capacity match mathjs conversions", () => {
+    const spec = computeKitSpec(demo);
+    expectRelative(spec.metric.flowLpm, unit(spec.flowGpm, "gallon/minute").toNumber("L/minute"), ORACLE_RELATIVE);
+    expectRelative(spec.metric.pressureBar, unit(demo.workingPressurePsi, "psi").toNumber("bar"), ORACLE_RELATIVE);
+    expectRelative(spec.metric.tankL, unit(spec.tank.totalGal, "gallon").toNumber("L"), ORACLE_RELATIVE);
+  });
+
+  it("hydraulic kW by the metric formula equals hydraulic hp × 0.745699872 kW (two routes, one answer)", () => {
+    const spec = computeKitSpec(demo);
+    expectRelative(spec.metric.hydraulicKw, spec.hydraulicHp * 0.745699872, 1e-9);
+    expectRelative(spec.metric.hydraulicKw, unit(spec.hydraulicHp, "hp").toNumber("kW"), ORACLE_RELATIVE);
+  });
+});
+
+describe("line checks against the configured velocity bands (guidance, not a standard)", () => {
+  it("each band names its source, and the bands are the trade's 2–4, 10–15 and 15–20 ft/s", () => {
+    expect([velocityBands.suction.minFps, velocityBands.suction.maxFps]).toEqual([2, 4]);
+    expect([velocityBands.return.minFps, velocityBands.return.maxFps]).toEqual([10, 15]);
+    expect([velocityBands.pressure.minFps, velocityBands.pressure.maxFps]).toEqual([15, 20]);
+    for (const band of Object.values(velocityBands)) expect(band.source.length).toBeGreaterThan(20);
+    expect(velocityBandSources.lowPressure).toMatch(/common practice/i);
+    expect(velocityBandSources.suction).toMatch(/not a standard/);
+  });
+
+  it("status is low, ok or high by where the velocity falls in the band", () => {
+    const flowGpm = computeKitSpec(demo).flowGpm;
+    // Diameter for a chosen velocity: d = √(0.4085 × gpm / v) (textbook).
+    const diameterFor = (fps: number) => Math.sqrt((((231 / 720) * 4) / Math.PI) * (flowGpm / fps));
+    const at = (fps: number) => computeKitSpec(withChanges({ suctionLine: { insideDiameterIn: diameterFor(fps), lengthFt: 4 } })).lines.suction;
+    expect(at(1.5).status).toBe("low");
+    expect(at(3).status).toBe("ok");
+    expect(at(5).status).toBe("high");
+    expectRelative(at(3).velocityFps, 3, 1e-12);
+  });
+
+  it("the pressure line uses 15–20 ft/s from 500 psi up and 10–15 ft/s below (common practice)", () => {
+    const bandAt = (psi: number) => computeKitSpec(withChanges({ workingPressurePsi: psi, reliefPressurePsi: undefined })).lines.pressure?.bandFps;
+    expect(bandAt(499)).toEqual([10, 15]);
+    expect(bandAt(500)).toEqual([15, 20]);
+    expect(bandAt(3000)).toEqual([15, 20]);
+    expect(bandAt(5000)).toEqual([15, 20]);
+  });
+
+  it("without a pressure line there is no pressure check", () => {
+    const { pressureLine: _line, ...noPressureLine } = demo;
+    expect(computeKitSpec(noPressureLine).lines.pressure).toBeUndefined();
+  });
+
+  it("the smallest suction diameter carries the flow at exactly the band's top speed", () => {
+    const spec = computeKitSpec(demo);
+    const atMinimum = computeKitSpec(withChanges({ suctionLine: { insideDiameterIn: spec.lines.suction.minInsideDiameterIn, lengthFt: 4 } }));
+    expectRelative(atMinimum.lines.suction.velocityFps, 4, 1e-12);
+    expect(atMinimum.lines.suction.status).toBe("ok");
+  });
+});
+
+describe("warnings in plain words", () => {
+  it("the demo kit is calm: only the heat-estimate note", () => {
+    expect(codes(demo)).toEqual(["heat_is_estimate"]);
+  });
+
+  const cases: [string, Partial<KitCalcInput>, KitWarningCode][] = [
+    ["a 3/4 in suction line (about 14 ft/s)", { suctionLine: { insideDiameterIn: 0.75, lengthFt: 4 } }, "suction_velocity_high"],
+    ["an 8 ft suction line (over 6 ft, common practice)", { suctionLine: { insideDiameterIn: 1.75, lengthFt: 8 } }, "suction_line_long"],
+    ["a 12 in cube of a tank (7.5 gal against about 19 gpm)", { tank: { shape: "box", lengthIn: 12, widthIn: 12, heightIn: 12 } }, "reservoir_under_one_minute"],
+    ["a 24 × 36 in tube (about 70 gal)", { tank: { shape: "round", insideDiameterIn: 24, lengthIn: 36 } }, "reservoir_outside_common_range"],
+    ["a trailer that draws 40 gal from 38 gal of oil", { trailerOilNeedGal: 40 }, "oil_below_trailer_need"],
+    ["a PTO rated 100 lb·ft against about 129 lb·ft", { ptoTorqueRatingLbFt: 100 }, "pump_torque_above_pto_rating"],
+    ["relief set below working pressure", { reliefPressurePsi: 2400 }, "relief_not_above_working"],
+    ["relief set at working pressure", { reliefPressurePsi: 2500 }, "relief_not_above_working"],
+    ["a 1/2 in return line (about 31 ft/s)", { returnLine: { insideDiameterIn: 0.5, lengthFt: 14 } }, "return_velocity_high"],
+    ["a 1/2 in pressure line (about 31 ft/s)", { pressureLine: { insideDiameterIn: 0.5, lengthFt: 14 } }, "pressure_velocity_high"],
+  ];
+
+  it.each(cases)("%s raises its warning", (_what, changes, code) => {
+    const spec = computeKitSpec(withChanges(changes));
+    const warning = spec.warnings.find((candidate) => candidate.code === code);
+    expect(warning).toBeDefined();
+    expect(warning?.message).not.toMatch(/NaN|undefined|Infinity/);
+    expect(new Set(spec.warnings.map((candidate) => candidate.code)).size).toBe(spec.warnings.length);
+  });
+
+  it("the tank-size and suction-length notes say they are common practice", () => {
+    const spec = computeKitSpec(
+      withChanges({ tank: { shape: "round", insideDiameterIn: 24, lengthIn: 36 }, suctionLine: { insideDiameterIn: 1.75, lengthFt: 8 } }),
+    );
+    for (const code of ["reservoir_outside_common_range", "suction_line_long"]) {
+      expect(spec.warnings.find((warning) => warning.code === code)?.message).toMatch(/common practice, no published source/);
+    }
+  });
+
+  it("the suction warning names the cavitation risk and the diameter that cures it", () => {
+    const spec = computeKitSpec(withChanges({ suctionLine: { insideDiameterIn: 0.75, lengthFt: 4 } }));
+    const message = spec.warnings.find((warning) => warning.code === "suction_velocity_high")?.message ?? "";
+    expect(message).toMatch(/cavitate/);
+    expect(message).toContain(spec.lines.suction.minInsideDiameterIn.toFixed(2));
+  });
+});
+
+describe("formula and source beside every result", () => {
+  const numericPaths = (value: unknown, prefix = ""): string[] => {
+    if (typeof value === "number") return [prefix];
+    if (value === null || typeof value !== "object") return [];
+    return Object.entries(value).flatMap(([key, child]) => numericPaths(child, prefix ? `${prefix}.${key}` : key));
+  };
+
+  it("every number computeKitSpec returns has a formula with a label and a named source", () => {
+    const { warnings: _warnings, ...results } = computeKitSpec(demo);
+    const paths = numericPaths(results);
+    expect(paths.length).toBeGreaterThan(20);
+    for (const path of paths) {
+      const formula = formulaForResult(path);
+      expect(formula, path).toBeDefined();
+      expect(formula?.label.length).toBeGreaterThan(0);
+      expect(formula?.formula.length).toBeGreaterThan(0);
+      expect(formula?.source.length).toBeGreaterThan(0);
+    }
+  });
+
+  it("no formula is left over for a result that no longer exists", () => {
+    const { warnings: _warnings, ...results } = computeKitSpec(demo);
+    const shown = new Set(numericPaths(results).map((path) => formulaForResult(path)?.id));
+    shown.add("lines.status");
+    expect(formulaList.map((formula) => formula.id).filter((id) => !shown.has(id))).toEqual([]);
+  });
+});
