@@ -1,0 +1,107 @@
+import "server-only";
+import { addDays, formatISO } from "date-fns";
+import { sql } from "kysely";
+import type { DB } from "@/db";
+import type { JobScope, Priority, Stage } from "@/db/schema";
+import { shopToday } from "@/server/records/turnaround";
+import { shopSettings } from "@/server/shop/queries";
+import { loadGateRecords } from "./gate-records";
+import { nextGateState } from "./gates";
+import type { BoardFilter } from "./schemas";
+import { BOARD_STAGES, STAGE_LABELS } from "./stages";
+
+export interface BoardCard {
+  id: number;
+  workOrder: string;
+  stage: Stage;
+  position: number;
+  version: number;
+  scope: JobScope;
+  priority: Priority;
+  description: string;
+  customerId: number;
+  customerName: string;
+  unitNumber: string;
+  vinLast6: string;
+  truckDescription: string;
+  dueOn: string | null;
+  overdue: boolean;
+  techId: string | null;
+  techName: string | null;
+  /** The next gate ahead of the card and what it still needs; null when none is ahead. */
+  gate: { stage: Stage; label: string; unmet: string[] } | null;
+}
+
+export interface Board {
+  today: string;
+  columns: { stage: Stage; label: string }[];
+  cards: BoardCard[];
+  techs: { id: string; name: string }[];
+  customers: { id: number; name: string }[];
+}
+
+/** Every job on the board (all stages but delivered), ordered by column position, filtered as asked. */
+export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): Promise<Board> {
+  const shop = await shopSettings(db);
+  const today = shopToday({ now, timeZone: shop.timeZone });
+  let query = db
+    .selectFrom("job")
+    .innerJoin("customer", "customer.id", "job.customer_id")
+    .innerJoin("truck", "truck.id", "job.truck_id")
+    .leftJoin("staff", "staff.id", "job.assigned_tech_id")
+    .select([
+      "job.id", "job.work_order", "job.stage", "job.position", "job.version", "job.scope", "job.priority", "job.description",
+      "job.due_on", "job.assigned_tech_id", "customer.id as customer_id", "customer.name as customer_name",
+      "truck.unit_number", "truck.vin", "truck.description as truck_description", "staff.name as tech_name",
+    ])
+    .where("job.stage", "!=", "delivered");
+  if (filter.tech === "none") query = query.where("job.assigned_tech_id", "is", null);
+  else if (filter.tech) query = query.where("job.assigned_tech_id", "=", filter.tech);
+  if (filter.customer) query = query.where("job.customer_id", "=", filter.customer);
+  if (filter.due === "overdue") query = query.where("job.due_on", "<", today);
+  else if (filter.due) {
+    const until = formatISO(addDays(new Date(`${today}T12:00:00Z`), filter.due === "week" ? 7 : 14), { representation: "date" });
+    query = query.where("job.due_on", "<=", until);
+  }
+  if (filter.q) {
+    // Search by work order, unit number, or the last six of the VIN, as the shop reads them off a truck.
+    const q = `%${filter.q.replace(/[%_\\]/g, (c) => `\\${c}`).toUpperCase()}%`;
+    query = query.where((eb) =>
+      eb.or([
+        eb(sql`upper(job.work_order)`, "like", sql`${q} escape '\\'`),
+        eb(sql`upper(truck.unit_number)`, "like", sql`${q} escape '\\'`),
+        eb(sql`substr(truck.vin, 12, 6)`, "like", sql`${q} escape '\\'`),
+      ]),
+    );
+  }
+  const rows = await query.orderBy("job.stage").orderBy("job.position").execute();
+  const records = await loadGateRecords(db, rows.map((r) => r.id));
+  const [techs, customers] = await Promise.all([
+    db.selectFrom("staff").select(["id", "name"]).where("active", "=", 1).orderBy("name").execute(),
+    db.selectFrom("customer").select(["id", "name"]).orderBy("name").execute(),
+  ]);
+  const cards: BoardCard[] = rows.map((r) => {
+    const gate = nextGateState(r.stage, r.scope, records.get(r.id)!);
+    return {
+      id: r.id,
+      workOrder: r.work_order,
+      stage: r.stage,
+      position: r.position,
+      version: r.version,
+      scope: r.scope,
+      priority: r.priority,
+      description: r.description,
+      customerId: r.customer_id,
+      customerName: r.customer_name,
+      unitNumber: r.unit_number,
+      vinLast6: r.vin.slice(-6),
+      truckDescription: r.truck_description,
+      dueOn: r.due_on,
+      overdue: r.due_on !== null && r.due_on < today,
+      techId: r.assigned_tech_id,
+      techName: r.tech_name ? r.tech_name.split(" ")[0] : null,
+      gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
+    };
+  });
+  return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers };
+}

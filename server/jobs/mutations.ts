@@ -1,0 +1,166 @@
+import "server-only";
+import { randomUUID } from "node:crypto";
+import type { Transaction } from "kysely";
+import type { DB } from "@/db";
+import type { Database, Stage } from "@/db/schema";
+import type { StaffUser } from "@/server/auth/session";
+import { ApiError } from "@/server/http/errors";
+import { loadGateRecords } from "./gate-records";
+import { checkMove } from "./gates";
+import { findJob } from "./queries";
+import type { JobPatch, MoveInput, NewJobInput } from "./schemas";
+import { STAGE_LABELS, stagesFor } from "./stages";
+import { formatWorkOrder } from "./work-order";
+
+type Trx = Transaction<Database>;
+
+function fieldError(field: string, message: string) {
+  return new ApiError("validation", message, { fields: { [field]: [message] } });
+}
+
+async function assertTruckOfCustomer(trx: Trx, truckId: number, customerId: number) {
+  const truck = await trx.selectFrom("truck").select(["id", "customer_id"]).where("id", "=", truckId).executeTakeFirst();
+  if (!truck) throw fieldError("truckId", "That truck is not on file.");
+  if (truck.customer_id !== customerId) throw fieldError("truckId", "That truck belongs to another customer.");
+}
+
+async function assertTech(trx: Trx, staffId: string | null | undefined) {
+  if (!staffId) return;
+  const staff = await trx.selectFrom("staff").select("id").where("id", "=", staffId).where("active", "=", 1).executeTakeFirst();
+  if (!staff) throw fieldError("assignedTechId", "Choose an active staff member.");
+}
+
+/** Columns are kept dense (0, 1, 2…) so no two cards share a place and none is lost. */
+async function renumber(trx: Trx, stage: Stage, orderedIds: number[]) {
+  for (let i = 0; i < orderedIds.length; i++) {
+    await trx.updateTable("job").set({ position: i }).where("id", "=", orderedIds[i]).where("position", "!=", i).execute();
+  }
+}
+
+async function columnIds(trx: Trx, stage: Stage, exceptId?: number) {
+  let q = trx.selectFrom("job").select("id").where("stage", "=", stage);
+  if (exceptId) q = q.where("id", "!=", exceptId);
+  return (await q.orderBy("position").orderBy("id").execute()).map((r) => r.id);
+}
+
+function outboxRow(jobId: number, from: Stage | null, to: Stage, at: string) {
+  return { id: randomUUID(), job_id: jobId, kind: "stage_changed" as const, payload: JSON.stringify({ from, to }), status: "pending" as const, attempts: 0, next_attempt_at: at, last_error: null, created_at: at, sent_at: null };
+}
+
+export async function createJob(db: DB, actor: StaffUser, input: NewJobInput) {
+  const id = await db.transaction().execute(async (trx) => {
+    const customer = await trx.selectFrom("customer").select("id").where("id", "=", input.customerId).executeTakeFirst();
+    if (!customer) throw fieldError("customerId", "That customer is not on file.");
+    await assertTruckOfCustomer(trx, input.truckId, input.customerId);
+    await assertTech(trx, input.assignedTechId);
+    const shop = await trx.selectFrom("shop").select(["work_order_prefix", "next_work_order"]).where("id", "=", 1).executeTakeFirst();
+    const seq = shop?.next_work_order ?? 1;
+    const at = new Date().toISOString();
+    const position = (await columnIds(trx, "queued")).length;
+    const job = await trx
+      .insertInto("job")
+      .values({
+        work_order: formatWorkOrder(shop?.work_order_prefix ?? "WO", new Date().getFullYear(), seq),
+        customer_id: input.customerId, truck_id: input.truckId, scope: input.scope, description: input.description,
+        stage: "queued", position, due_on: input.dueOn ?? null, assigned_tech_id: input.assignedTechId ?? null,
+        priority: input.priority, notes: input.notes, version: 1, created_at: at, updated_at: at,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    if (shop) await trx.updateTable("shop").set({ next_work_order: seq + 1 }).where("id", "=", 1).execute();
+    else await trx.insertInto("shop").values({ id: 1, name: "Your shop", next_work_order: seq + 1 }).execute();
+    await trx.insertInto("stage_event").values({ job_id: job.id, from_stage: null, to_stage: "queued", actor_id: actor.id, at, note: "Work order opened.", override_reason: null }).execute();
+    return job.id;
+  });
+  return (await findJob(db, id))!;
+}
+
+export async function patchJob(db: DB, actor: StaffUser, id: number, patch: JobPatch) {
+  if (actor.role === "tech") {
+    const other = Object.keys(patch).filter((k) => k !== "version" && k !== "notes");
+    if (other.length) throw new ApiError("forbidden", `A tech can change a job's notes only; ask the office to change ${other.join(", ")}.`);
+  }
+  await db.transaction().execute(async (trx) => {
+    const job = await trx.selectFrom("job").select(["id", "version", "customer_id", "stage"]).where("id", "=", id).executeTakeFirst();
+    if (!job) throw new ApiError("not_found", "That job was not found.");
+    if (job.version !== patch.version) throw new ApiError("stale", "Someone else changed this job first. Here is the current job; make your change again.", { job: await findJob(trx, id) });
+    if (patch.truckId) await assertTruckOfCustomer(trx, patch.truckId, job.customer_id);
+    await assertTech(trx, patch.assignedTechId);
+    if (patch.scope === "install_only" && !stagesFor("install_only").includes(job.stage)) {
+      throw fieldError("scope", `The job is in ${STAGE_LABELS[job.stage]}; move it out of the fabrication stages before making it install only.`);
+    }
+    const { version, truckId, dueOn, assignedTechId, ...rest } = patch;
+    await trx
+      .updateTable("job")
+      .set({
+        ...rest,
+        ...(truckId !== undefined ? { truck_id: truckId } : {}),
+        ...(dueOn !== undefined ? { due_on: dueOn } : {}),
+        ...(assignedTechId !== undefined ? { assigned_tech_id: assignedTechId } : {}),
+        version: version + 1,
+        updated_at: new Date().toISOString(),
+      })
+      .where("id", "=", id)
+      .where("version", "=", version)
+      .execute();
+  });
+  return (await findJob(db, id))!;
+}
+
+export interface MoveResult {
+  job: NonNullable<Awaited<ReturnType<typeof findJob>>>;
+  eventId: number;
+}
+
+/**
+ * Moves a card: checks the version (someone may have moved it first), the gates it crosses, and
+ * an owner's override; then places it, keeps both columns dense, and writes the stage event and
+ * the customer's outbox row in the same transaction.
+ */
+export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveInput): Promise<MoveResult> {
+  const eventId = await db.transaction().execute(async (trx) => {
+    const job = await trx.selectFrom("job").select(["id", "stage", "scope", "version"]).where("id", "=", id).executeTakeFirst();
+    if (!job) throw new ApiError("not_found", "That job was not found.");
+    if (job.version !== move.version) {
+      throw new ApiError("stale", "Someone else moved or changed this card first. The board now shows where it is.", { job: await findJob(trx, id) });
+    }
+    const records = (await loadGateRecords(trx, [id])).get(id)!;
+    const check = checkMove(job.stage, move.toStage, job.scope, records);
+    if (check.unmet.length) {
+      if (check.impossible) throw new ApiError("gate_unmet", check.unmet[0], { unmet: check.unmet, canOverride: false });
+      if (!move.override) {
+        throw new ApiError("gate_unmet", `Not moved to ${STAGE_LABELS[move.toStage]}: ${check.unmet.length === 1 ? check.unmet[0] : `${check.unmet.length} things are missing.`}`, { unmet: check.unmet, canOverride: actor.role === "owner" });
+      }
+      if (actor.role !== "owner") throw new ApiError("forbidden", "Only the owner can override a gate.");
+    }
+    const overrideReason = check.unmet.length && move.override ? move.override.reason : null;
+
+    const target = await columnIds(trx, move.toStage, id);
+    let index = target.length;
+    if (move.beforeJobId) {
+      index = target.indexOf(move.beforeJobId);
+      if (index < 0) throw new ApiError("validation", "beforeJobId must be a card in the stage the card moves to.", { fields: { beforeJobId: ["Not a card in that stage."] } });
+    }
+    target.splice(index, 0, id);
+    const at = new Date().toISOString();
+    const updated = await trx
+      .updateTable("job")
+      .set({ stage: move.toStage, version: job.version + 1, updated_at: at })
+      .where("id", "=", id)
+      .where("version", "=", move.version)
+      .executeTakeFirst();
+    if (Number(updated.numUpdatedRows) !== 1) throw new ApiError("stale", "Someone else moved this card first.");
+    await renumber(trx, move.toStage, target);
+    if (job.stage !== move.toStage) await renumber(trx, job.stage, await columnIds(trx, job.stage, id));
+
+    const event = await trx
+      .insertInto("stage_event")
+      .values({ job_id: id, from_stage: job.stage, to_stage: move.toStage, actor_id: actor.id, at, note: move.note ?? "", override_reason: overrideReason })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    // The customer hears about stage changes only; a reorder inside a column is kept as an event but sends nothing.
+    if (job.stage !== move.toStage) await trx.insertInto("outbox").values(outboxRow(id, job.stage, move.toStage, at)).execute();
+    return event.id;
+  });
+  return { job: (await findJob(db, id))!, eventId };
+}

@@ -1,0 +1,61 @@
+import "server-only";
+import type { DB } from "@/db";
+import type { Stage } from "@/db/schema";
+
+/** The job as staff see it, with names resolved. */
+export async function findJob(db: DB, id: number) {
+  return db
+    .selectFrom("job")
+    .innerJoin("customer", "customer.id", "job.customer_id")
+    .innerJoin("truck", "truck.id", "job.truck_id")
+    .leftJoin("staff", "staff.id", "job.assigned_tech_id")
+    .select([
+      "job.id", "job.work_order as workOrder", "job.stage", "job.position", "job.version", "job.scope", "job.description",
+      "job.due_on as dueOn", "job.assigned_tech_id as assignedTechId", "job.priority", "job.notes", "job.created_at as createdAt",
+      "job.updated_at as updatedAt", "customer.id as customerId", "customer.name as customerName", "truck.id as truckId",
+      "truck.unit_number as unitNumber", "truck.vin", "truck.year as truckYear", "truck.description as truckDescription",
+      "truck.transmission", "staff.name as techName",
+    ])
+    .where("job.id", "=", id)
+    .executeTakeFirst();
+}
+export type JobDetail = NonNullable<Awaited<ReturnType<typeof findJob>>>;
+
+export async function stageEvents(db: DB, jobId: number) {
+  return db
+    .selectFrom("stage_event")
+    .leftJoin("staff", "staff.id", "stage_event.actor_id")
+    .select(["stage_event.id", "stage_event.from_stage as fromStage", "stage_event.to_stage as toStage", "stage_event.at", "stage_event.note", "stage_event.override_reason as overrideReason", "staff.name as actorName"])
+    .where("stage_event.job_id", "=", jobId)
+    .orderBy("stage_event.id", "desc")
+    .execute();
+}
+
+export interface JobListFilter {
+  stage?: Stage;
+  customerId?: number;
+  truckId?: number;
+  q?: string;
+  limit?: number;
+}
+
+export async function listJobs(db: DB, filter: JobListFilter = {}) {
+  let query = db
+    .selectFrom("job")
+    .innerJoin("customer", "customer.id", "job.customer_id")
+    .innerJoin("truck", "truck.id", "job.truck_id")
+    .leftJoin("staff", "staff.id", "job.assigned_tech_id")
+    .select([
+      "job.id", "job.work_order as workOrder", "job.stage", "job.scope", "job.description", "job.due_on as dueOn", "job.priority",
+      "job.updated_at as updatedAt", "customer.id as customerId", "customer.name as customerName", "truck.id as truckId",
+      "truck.unit_number as unitNumber", "staff.name as techName",
+    ]);
+  if (filter.stage) query = query.where("job.stage", "=", filter.stage);
+  if (filter.customerId) query = query.where("job.customer_id", "=", filter.customerId);
+  if (filter.truckId) query = query.where("job.truck_id", "=", filter.truckId);
+  if (filter.q) {
+    const q = `%${filter.q.toUpperCase()}%`;
+    query = query.where((eb) => eb.or([eb(eb.fn("upper", ["job.work_order"]), "like", q), eb(eb.fn("upper", ["truck.unit_number"]), "like", q), eb(eb.fn("upper", ["customer.name"]), "like", q)]));
+  }
+  return query.orderBy("job.id", "desc").limit(filter.limit ?? 500).execute();
+}
