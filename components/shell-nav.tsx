@@ -12,7 +12,7 @@ export interface NavItem {
 export function ShellNav({ items }: { items: NavItem[] }) {
   const path = usePathname();
   return (
-    <nav aria-label="Main" className="-mx-4 overflow-x-auto px-4 md:mx-0 md:px-0">
+    <nav aria-label="Main" className="relative -mx-4 overflow-x-auto px-4 md:mx-0 md:px-0">
       <ul className="flex gap-1">
         {items.map((item) => {
           const active = path === item.href || path.startsWith(`${item.href}/`);

@@ -1,0 +1,128 @@
+"use client";
+
+import { useSortable } from "@dnd-kit/sortable";
+import { CSS } from "@dnd-kit/utilities";
+import { format, parseISO } from "date-fns";
+import Link from "next/link";
+import { IconCheck, IconClock, IconPerson, IconStop, IconWarn } from "@/components/icons";
+import type { MoveRefusal } from "@/components/move-job";
+import { RefusalNote } from "@/components/refusal-note";
+import type { Stage } from "@/db/schema";
+import { STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
+import type { BoardCard } from "./board-types";
+
+export interface CardActions {
+  moveTo: (card: BoardCard, stage: Stage) => void;
+  override: (card: BoardCard, reason: string) => void;
+  dismiss: (card: BoardCard) => void;
+}
+
+export function SortableCard({ card, refusal, pending, actions }: { card: BoardCard; refusal?: MoveRefusal; pending: boolean; actions: CardActions }) {
+  const { attributes, listeners, setNodeRef, setActivatorNodeRef, transform, transition, isDragging } = useSortable({ id: card.id, data: { stage: card.stage } });
+  return (
+    <li ref={setNodeRef} style={{ transform: CSS.Translate.toString(transform), transition }} className={isDragging ? "opacity-40" : undefined} data-card={card.workOrder}>
+      <CardBody
+        card={card}
+        refusal={refusal}
+        pending={pending}
+        actions={actions}
+        handle={
+          <button
+            type="button"
+            ref={setActivatorNodeRef}
+            {...attributes}
+            {...listeners}
+            // touch-action must be set inline: the class alone is not honoured by every touch browser.
+            style={{ touchAction: "none" }}
+            aria-label={`Drag ${card.workOrder} to another stage or place`}
+            className="grid h-11 w-9 shrink-0 cursor-grab place-items-center rounded-md text-ink-soft hover:bg-bay-50 active:cursor-grabbing"
+          >
+            <svg viewBox="0 0 12 20" className="h-5 w-3" aria-hidden="true">
+              {[3, 9].map((x) => [4, 10, 16].map((y) => <circle key={`${x}-${y}`} cx={x} cy={y} r="1.6" fill="currentColor" />))}
+            </svg>
+          </button>
+        }
+      />
+    </li>
+  );
+}
+
+export function CardBody({ card, refusal, pending, actions, handle }: { card: BoardCard; refusal?: MoveRefusal; pending?: boolean; actions?: CardActions; handle?: React.ReactNode }) {
+  const route = stagesFor(card.scope).filter((s) => s !== card.stage);
+  const gateMet = card.gate && card.gate.unmet.length === 0;
+  return (
+    <article
+      aria-label={`${card.workOrder}, ${card.customerName}, unit ${card.unitNumber}`}
+      className={`relative rounded-lg border bg-panel p-2 shadow-sm ${refusal ? "border-stop-700" : card.overdue ? "border-spark-500" : "border-line"} ${pending ? "opacity-70" : ""}`}
+    >
+      <div className="flex items-start gap-1">
+        {handle}
+        <div className="min-w-0 flex-1">
+          <div className="flex items-center justify-between gap-1">
+            <Link href={`/jobs/${card.id}`} className="font-bold text-bay-900 underline-offset-2 hover:underline">
+              {card.workOrder}
+            </Link>
+            {card.priority === "rush" && <span className="rounded bg-spark-100 px-1.5 text-xs font-bold text-spark-700">▲ Rush</span>}
+          </div>
+          <p className="truncate text-sm font-semibold">{card.customerName}</p>
+          <p className="truncate text-sm text-ink-soft">
+            Unit {card.unitNumber} · …{card.vinLast6}
+          </p>
+        </div>
+      </div>
+      <dl className="mt-1 space-y-0.5 text-sm">
+        <div className="flex gap-1">
+          <dt className="sr-only">Due</dt>
+          <dd className={card.overdue ? "font-bold text-stop-700" : "text-ink-soft"}>
+            {card.overdue ? <IconWarn /> : <IconClock />} {card.dueOn ? `${card.overdue ? "Overdue · due " : "Due "}${format(parseISO(card.dueOn), "EEE d MMM")}` : "No due date"}
+          </dd>
+        </div>
+        <div className="flex gap-1">
+          <dt className="sr-only">Assigned</dt>
+          <dd className="text-ink-soft"><IconPerson /> {card.techName ?? "Unassigned"}</dd>
+        </div>
+        {card.scope === "install_only" && <dd className="text-xs font-semibold uppercase tracking-wide text-ink-soft">Install only</dd>}
+        {card.gate && (
+          <div>
+            <dt className="sr-only">Next gate</dt>
+            <dd className={gateMet ? "text-ok-700" : "text-warn-700"}>
+              {gateMet ? <IconCheck /> : <IconStop />} Gate to {card.gate.label}: {gateMet ? "met" : `${card.gate.unmet.length} missing`}
+              {!gateMet && (
+                <details className="text-xs text-ink">
+                  <summary className="cursor-pointer text-warn-700 underline">What is missing</summary>
+                  <ul className="mt-1 list-disc pl-4">
+                    {card.gate.unmet.map((u) => (
+                      <li key={u}>{u}</li>
+                    ))}
+                  </ul>
+                </details>
+              )}
+            </dd>
+          </div>
+        )}
+      </dl>
+      {actions && (
+        <label className="mt-1 block">
+          <span className="sr-only">Move {card.workOrder} to</span>
+          <select
+            value=""
+            onChange={(e) => e.target.value && actions.moveTo(card, e.target.value as Stage)}
+            className="min-h-11 w-full rounded-md border border-line bg-paper px-2 text-sm font-semibold text-bay-900"
+          >
+            <option value="">Move to…</option>
+            {route.map((s) => (
+              <option key={s} value={s}>
+                {STAGE_LABELS[s]}
+              </option>
+            ))}
+          </select>
+        </label>
+      )}
+      {refusal && actions && (
+        <div className="mt-2">
+          <RefusalNote refusal={refusal} onOverride={(reason) => actions.override(card, reason)} onDismiss={() => actions.dismiss(card)} />
+        </div>
+      )}
+    </article>
+  );
+}

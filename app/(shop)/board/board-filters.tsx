@@ -1,0 +1,65 @@
+"use client";
+
+import { useEffect, useState } from "react";
+import { inputClass } from "@/components/form";
+import type { Board, BoardFilter } from "./board-types";
+
+/** Filters live in the URL so a view can be shared or bookmarked at the desk. */
+export function BoardFilters({ filter, board, onChange }: { filter: BoardFilter; board: Board; onChange: (f: BoardFilter) => void }) {
+  const [q, setQ] = useState(filter.q ?? "");
+  useEffect(() => {
+    const t = setTimeout(() => {
+      if ((filter.q ?? "") !== q) onChange({ ...filter, q: q || undefined });
+    }, 300);
+    return () => clearTimeout(t);
+  }, [q, filter, onChange]);
+  const active = Boolean(filter.q || filter.tech || filter.customer || filter.due);
+  return (
+    <form role="search" className="grid grid-cols-3 items-end gap-2 md:flex md:flex-wrap" onSubmit={(e) => e.preventDefault()}>
+      <label className="col-span-3 min-w-56 flex-1 text-sm font-semibold">
+        Search
+        <input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Work order, unit number or last 6 of VIN" className={`${inputClass} mt-1`} />
+      </label>
+      <label className="text-sm font-semibold">
+        Tech
+        <select value={filter.tech ?? ""} onChange={(e) => onChange({ ...filter, tech: e.target.value || undefined })} className={`${inputClass} mt-1`}>
+          <option value="">Everyone</option>
+          <option value="none">Not assigned</option>
+          {board.techs.map((t) => (
+            <option key={t.id} value={t.id}>{t.name}</option>
+          ))}
+        </select>
+      </label>
+      <label className="text-sm font-semibold">
+        Customer
+        <select value={filter.customer ?? ""} onChange={(e) => onChange({ ...filter, customer: e.target.value ? Number(e.target.value) : undefined })} className={`${inputClass} mt-1`}>
+          <option value="">All customers</option>
+          {board.customers.map((c) => (
+            <option key={c.id} value={c.id}>{c.name}</option>
+          ))}
+        </select>
+      </label>
+      <label className="text-sm font-semibold">
+        Due
+        <select value={filter.due ?? ""} onChange={(e) => onChange({ ...filter, due: (e.target.value || undefined) as BoardFilter["due"] })} className={`${inputClass} mt-1`}>
+          <option value="">Any time</option>
+          <option value="overdue">Overdue</option>
+          <option value="week">Within 7 days</option>
+          <option value="two_weeks">Within 14 days</option>
+        </select>
+      </label>
+      {active && (
+        <button
+          type="button"
+          className="min-h-11 rounded-md px-3 font-semibold text-bay-800 underline"
+          onClick={() => {
+            setQ("");
+            onChange({});
+          }}
+        >
+          Clear filters
+        </button>
+      )}
+    </form>
+  );
+}

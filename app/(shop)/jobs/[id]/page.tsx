@@ -1,0 +1,103 @@
+import { format, parseISO } from "date-fns";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { PrintButton } from "@/components/print-button";
+import { Section } from "@/components/section";
+import { StageBadge } from "@/components/stage-badge";
+import { getDb } from "@/db";
+import { requirePageStaff } from "@/server/auth/session";
+import { findJob, stageEvents } from "@/server/jobs/queries";
+import { SCOPE_LABELS, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
+import { listTechs } from "@/server/staff/queries";
+import { JobEditor, MoveControl } from "./job-controls";
+import { KitSpecSection } from "./kit-spec-section";
+import { MessagesSection } from "./messages-section";
+import { PhotosSection } from "./photos-section";
+import { RecordsSection } from "./records-section";
+
+export const metadata = { title: "Job" };
+
+export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requirePageStaff();
+  const raw = (await params).id;
+  if (!/^[1-9]\d{0,9}$/.test(raw)) notFound();
+  const db = getDb();
+  const job = await findJob(db, Number(raw));
+  if (!job) notFound();
+  const [events, techs] = await Promise.all([stageEvents(db, job.id), listTechs(db)]);
+  const route = stagesFor(job.scope);
+
+  return (
+    <div className="space-y-4">
+      <header className="flex flex-wrap items-start justify-between gap-3">
+        <div>
+          <p className="text-sm text-ink-soft">
+            <Link href="/board" className="underline">Board</Link> / <Link href="/jobs" className="underline">Jobs</Link>
+          </p>
+          <h1 className="text-2xl font-bold">
+            {job.workOrder} <span className="font-normal text-ink-soft">· {job.customerName}</span>
+          </h1>
+          <p className="mt-1 flex flex-wrap items-center gap-2">
+            <StageBadge stage={job.stage} />
+            {job.priority === "rush" && <span className="rounded-full bg-spark-100 px-2.5 py-0.5 text-sm font-bold text-spark-700">▲ Rush</span>}
+            <span className="text-ink-soft">Unit {job.unitNumber} · VIN {job.vin} · {job.truckYear} {job.truckDescription}</span>
+          </p>
+        </div>
+        <PrintButton />
+      </header>
+
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_380px]">
+        <div className="space-y-4">
+          <Section title="The job">
+            <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-2">
+              <dt className="font-semibold">Work</dt>
+              <dd>{job.description}</dd>
+              <dt className="font-semibold">Scope</dt>
+              <dd>{SCOPE_LABELS[job.scope]} — route: {route.filter((s) => s !== "delivered").map((s) => STAGE_LABELS[s]).join(" → ")}</dd>
+              <dt className="font-semibold">Due</dt>
+              <dd>{job.dueOn ? format(parseISO(job.dueOn), "EEE d MMM yyyy") : "No date set"}</dd>
+              <dt className="font-semibold">Assigned</dt>
+              <dd>{job.techName ?? "Nobody yet"}</dd>
+              <dt className="font-semibold">Truck</dt>
+              <dd>
+                <Link className="underline" href={`/trucks/${job.truckId}`}>Unit {job.unitNumber}</Link> · {job.transmission || "transmission not recorded"}
+              </dd>
+              <dt className="font-semibold">Customer</dt>
+              <dd>
+                <Link className="underline" href={`/customers/${job.customerId}`}>{job.customerName}</Link>
+              </dd>
+            </dl>
+          </Section>
+          <RecordsSection job={job} user={user} />
+          <KitSpecSection job={job} user={user} />
+          <PhotosSection job={job} user={user} />
+          <MessagesSection job={job} user={user} />
+        </div>
+        <div className="space-y-4">
+          <Section title="Move this job">
+            <MoveControl job={{ id: job.id, stage: job.stage, version: job.version, scope: job.scope }} role={user.role} />
+          </Section>
+          <Section title={user.role === "tech" ? "Notes" : "Edit the job"}>
+            <JobEditor job={job} techs={techs} role={user.role} />
+          </Section>
+          <Section title="Stage timeline" id="timeline">
+            <ol className="space-y-3">
+              {events.map((e) => (
+                <li key={e.id} className="border-l-4 border-bay-600 pl-3">
+                  <p className="font-semibold">
+                    {e.fromStage === null ? `Opened in ${STAGE_LABELS[e.toStage]}` : e.fromStage === e.toStage ? `Reordered in ${STAGE_LABELS[e.toStage]}` : `${STAGE_LABELS[e.fromStage]} → ${STAGE_LABELS[e.toStage]}`}
+                  </p>
+                  <p className="text-sm text-ink-soft">
+                    {format(parseISO(e.at), "d MMM yyyy, HH:mm")} · {e.actorName ?? "system"}
+                  </p>
+                  {e.note && <p className="text-sm">“{e.note}”</p>}
+                  {e.overrideReason && <p className="mt-1 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">⚑ Gate overridden by the owner: {e.overrideReason}</p>}
+                </li>
+              ))}
+            </ol>
+          </Section>
+        </div>
+      </div>
+    </div>
+  );
+}

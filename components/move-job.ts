@@ -1,0 +1,32 @@
+import { ApiRequestError, api } from "./api";
+import type { Stage } from "@/db/schema";
+
+export interface MoveBody {
+  toStage: Stage;
+  beforeJobId?: number | null;
+  version: number;
+  note?: string;
+  override?: { reason: string };
+}
+
+/** Why a move was refused, in the shape both the board and the job page show. */
+export interface MoveRefusal {
+  kind: "gate" | "stale" | "forbidden" | "other";
+  message: string;
+  unmet: string[];
+  canOverride: boolean;
+}
+
+export async function sendMove(jobId: number, body: MoveBody) {
+  return api<{ job: { id: number; stage: Stage; version: number } }>(`/api/jobs/${jobId}/moves`, { method: "POST", body });
+}
+
+export function refusalOf(err: unknown): MoveRefusal {
+  if (!(err instanceof ApiRequestError)) return { kind: "other", message: "The move did not go through. Try again.", unmet: [], canOverride: false };
+  const f = err.failure;
+  const unmet = Array.isArray(f.details?.unmet) ? (f.details.unmet as string[]) : [];
+  if (f.code === "gate_unmet") return { kind: "gate", message: f.message, unmet, canOverride: Boolean(f.details?.canOverride) };
+  if (f.code === "stale") return { kind: "stale", message: f.message, unmet: [], canOverride: false };
+  if (f.code === "forbidden") return { kind: "forbidden", message: f.message, unmet: [], canOverride: false };
+  return { kind: "other", message: f.message, unmet, canOverride: false };
+}

@@ -1,0 +1,44 @@
+"use client";
+
+import { useState } from "react";
+import { IconStop } from "./icons";
+import type { MoveRefusal } from "./move-job";
+
+/** A refused move says why, and offers the owner an override with a written reason. */
+export function RefusalNote({ refusal, onOverride, onDismiss }: { refusal: MoveRefusal; onOverride?: (reason: string) => void; onDismiss?: () => void }) {
+  const [reason, setReason] = useState("");
+  return (
+    <div role="alert" className="space-y-2 rounded-md border border-stop-700/40 bg-stop-100 p-2 text-sm text-stop-700">
+      <p className="font-semibold"><IconStop /> {refusal.kind === "gate" ? "Not moved — the gate is not met:" : refusal.message}</p>
+      {refusal.unmet.length > 0 && (
+        <ul className="list-disc space-y-0.5 pl-5">
+          {refusal.unmet.map((u) => (
+            <li key={u}>{u}</li>
+          ))}
+        </ul>
+      )}
+      {refusal.canOverride && onOverride && (
+        <form
+          className="space-y-1"
+          onSubmit={(e) => {
+            e.preventDefault();
+            onOverride(reason);
+          }}
+        >
+          <label className="block font-semibold text-ink">
+            Override as owner — write the reason (kept on the job's timeline)
+            <textarea value={reason} onChange={(e) => setReason(e.target.value)} rows={2} className="mt-1 block w-full rounded border border-line bg-panel p-2 text-ink" />
+          </label>
+          <button type="submit" className="min-h-11 rounded-md bg-warn-700 px-3 font-semibold text-white disabled:opacity-50" disabled={reason.trim().length < 5}>
+            Override and move
+          </button>
+        </form>
+      )}
+      {onDismiss && (
+        <button type="button" className="min-h-11 font-semibold underline" onClick={onDismiss}>
+          Dismiss
+        </button>
+      )}
+    </div>
+  );
+}

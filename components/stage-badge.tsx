@@ -1,0 +1,14 @@
+import type { Stage } from "@/db/schema";
+import { STAGE_LABELS } from "@/server/jobs/stages";
+
+/** Each stage has a word and a small numbered step, never colour alone. */
+const STEP: Record<Stage, string> = { queued: "0", fabricate: "1", pressure_test: "2", coating: "3", install: "4", wire: "5", ready: "6", delivered: "✓" };
+
+export function StageBadge({ stage }: { stage: Stage }) {
+  return (
+    <span className="inline-flex items-center gap-1.5 rounded-full border border-bay-600/40 bg-bay-50 px-2.5 py-0.5 text-sm font-semibold text-bay-900">
+      <span aria-hidden="true" className="grid h-4 w-4 place-items-center rounded-full bg-bay-700 text-[10px] text-white">{STEP[stage]}</span>
+      {STAGE_LABELS[stage]}
+    </span>
+  );
+}
