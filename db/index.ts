@@ -1,7 +1,7 @@
 import { mkdirSync } from "node:fs";
 import { dirname, resolve } from "node:path";
 import SQLite from "better-sqlite3";
-import { Kysely, SqliteDialect } from "kysely";
+import { Kysely, type KyselyPlugin, SqliteDialect } from "kysely";
 import type { Database } from "./schema";
 
 export type DB = Kysely<Database>;
@@ -51,19 +51,43 @@ function checkPragmas(sqlite: SQLite.Database, path: string) {
   }
 }
 
+/**
+ * Counts statements that write, so read caches (the board) know when anything changed. Writes by
+ * other processes (scripts, a second server) show in SQLite's data_version instead.
+ */
+let writes = 0;
+const writeCounter: KyselyPlugin = {
+  transformQuery(args) {
+    const kind = args.node.kind;
+    if (kind !== "SelectQueryNode") writes++;
+    return args.node;
+  },
+  async transformResult(args) {
+    return args.result;
+  },
+};
+
 export function createDb(path = databasePath()): DB {
-  return new Kysely<Database>({ dialect: new SqliteDialect({ database: openSqlite(path) }) });
+  return new Kysely<Database>({ dialect: new SqliteDialect({ database: openSqlite(path) }), plugins: [writeCounter] });
 }
 
-const holder = globalThis as unknown as { __baywrightDb?: { path: string; db: DB } };
+const holder = globalThis as unknown as { __baywrightDb?: { path: string; db: DB; sqlite: SQLite.Database } };
 
 /** One connection per process (per database path), kept across dev-server reloads. */
 export function getDb(): DB {
   const path = databasePath();
   if (!holder.__baywrightDb || holder.__baywrightDb.path !== path) {
-    holder.__baywrightDb = { path, db: createDb(path) };
+    const sqlite = openSqlite(path);
+    holder.__baywrightDb = { path, sqlite, db: new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }), plugins: [writeCounter] }) };
   }
   return holder.__baywrightDb.db;
+}
+
+/** Changes whenever any data may have changed, in this process or another. */
+export function dataGeneration(): string {
+  const sqlite = holder.__baywrightDb?.sqlite;
+  const external = sqlite ? String(sqlite.pragma("data_version", { simple: true })) : "-";
+  return `${writes}:${external}`;
 }
 
 export async function closeDb() {

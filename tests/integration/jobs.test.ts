@@ -246,6 +246,19 @@ describe("the board", () => {
     expect(searched.cards.map((c: { id: number }) => c.id)).toEqual([wire.id]);
   });
 
+  it("shows a move at once, even though the board's answer is kept between reads", async () => {
+    const { cookie } = await as("tech");
+    const job = await makeJob(db(), { stage: "queued" });
+    const stageOf = async () => (await readBody(await board.GET(request("/api/board", { cookie })))).cards.find((c: { id: number }) => c.id === job.id).stage;
+    expect(await stageOf()).toBe("queued");
+    expect(await stageOf()).toBe("queued");
+    expect((await move(cookie, job.id, { toStage: "fabricate", version: job.version })).status).toBe(200);
+    expect(await stageOf()).toBe("fabricate");
+    await db().updateTable("job").set({ priority: "rush" }).where("id", "=", job.id).execute();
+    const card = (await readBody(await board.GET(request("/api/board", { cookie })))).cards.find((c: { id: number }) => c.id === job.id);
+    expect(card.priority).toBe("rush");
+  });
+
   it("answers 400 to a filter of the wrong shape", async () => {
     const { cookie } = await as("tech");
     expect((await board.GET(request("/api/board?due=someday", { cookie }))).status).toBe(400);

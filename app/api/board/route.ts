@@ -1,7 +1,8 @@
 import { getDb } from "@/db";
 import { requireStaff } from "@/server/auth/session";
-import { json, respond } from "@/server/http/respond";
+import { respond } from "@/server/http/respond";
 import { loadBoard } from "@/server/jobs/board";
+import { cachedBoardJson } from "@/server/jobs/board-cache";
 import { boardFilterSchema } from "@/server/jobs/schemas";
 
 export const dynamic = "force-dynamic";
@@ -11,6 +12,10 @@ export async function GET(req: Request) {
     await requireStaff(req);
     const params = Object.fromEntries(new URL(req.url).searchParams.entries());
     const filter = boardFilterSchema.parse(Object.fromEntries(Object.entries(params).filter(([, v]) => v !== "")));
-    return json(await loadBoard(getDb(), filter));
+    const now = new Date();
+    // The minute is part of the key: "overdue" flips at the shop's midnight even when nothing is written.
+    const key = `${now.toISOString().slice(0, 16)}|${JSON.stringify(filter)}`;
+    const body = await cachedBoardJson(key, () => loadBoard(getDb(), filter, now));
+    return new Response(body, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
   });
 }
