@@ -85,7 +85,9 @@ async function measureMoves(base: string, cookie: string, cards: { id: number; v
 /** First-load JavaScript of the board page: every script the page's HTML loads, gzipped. */
 async function boardFirstLoadJs(base: string, cookie: string) {
   const html = await (await fetch(`${base}/board`, { headers: { cookie } })).text();
-  const srcs = [...new Set([...html.matchAll(/<script[^>]+src="([^"]+)"/g)].map((m) => m[1]))];
+  // Scripts marked noModule are legacy polyfills that modern browsers never download.
+  const tags = [...html.matchAll(/<script[^>]*>/g)].map((m) => m[0]).filter((t) => !/nomodule/i.test(t));
+  const srcs = [...new Set(tags.map((t) => /src="([^"]+)"/.exec(t)?.[1]).filter((s): s is string => Boolean(s)))];
   let raw = 0;
   let gz = 0;
   for (const src of srcs) {

@@ -46,7 +46,7 @@ export function validationError(error: z.ZodError): ApiError {
   const fields = fieldErrors(error);
   const names = Object.keys(fields).filter((k) => k !== "_");
   const message = names.length
-    ? `Check ${names.slice(0, 4).join(", ")}${names.length > 4 ? " and more" : ""}: ${fields[names[0]][0]}`
+    ? `${fields[names[0]][0]}${names.length > 1 ? ` (and ${names.length - 1} more field${names.length > 2 ? "s" : ""} to fix)` : ""}`
     : (fields._?.[0] ?? "The request is not valid.");
   return new ApiError("validation", message, { fields });
 }

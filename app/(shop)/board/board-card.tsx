@@ -2,8 +2,8 @@
 
 import { useSortable } from "@dnd-kit/sortable";
 import { CSS } from "@dnd-kit/utilities";
-import { format, parseISO } from "date-fns";
 import Link from "next/link";
+import { formatDay } from "@/components/dates";
 import { IconCheck, IconClock, IconPerson, IconStop, IconWarn } from "@/components/icons";
 import type { MoveRefusal } from "@/components/move-job";
 import { RefusalNote } from "@/components/refusal-note";
@@ -74,7 +74,7 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
         <div className="flex gap-1">
           <dt className="sr-only">Due</dt>
           <dd className={card.overdue ? "font-bold text-stop-700" : "text-ink-soft"}>
-            {card.overdue ? <IconWarn /> : <IconClock />} {card.dueOn ? `${card.overdue ? "Overdue · due " : "Due "}${format(parseISO(card.dueOn), "EEE d MMM")}` : "No due date"}
+            {card.overdue ? <IconWarn /> : <IconClock />} {card.dueOn ? `${card.overdue ? "Overdue · due " : "Due "}${formatDay(card.dueOn)}` : "No due date"}
           </dd>
         </div>
         <div className="flex gap-1">

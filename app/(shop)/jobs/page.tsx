@@ -1,6 +1,6 @@
 import { format, parseISO } from "date-fns";
 import Link from "next/link";
-import { buttonClass, inputClass } from "@/components/form";
+import { buttonClass, inputClass } from "@/components/styles";
 import { StageBadge } from "@/components/stage-badge";
 import { getDb } from "@/db";
 import { STAGES, type Stage } from "@/db/schema";
