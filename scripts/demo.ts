@@ -21,8 +21,8 @@ if (!existsSync(".next/BUILD_ID")) {
 }
 
 const children = [
-  spawn("node", ["fakes/server.mjs"], { stdio: "inherit", env: process.env }),
-  spawn("npx", ["next", "start", "-p", port], { stdio: "inherit", env: process.env }),
+  spawn("node", ["fakes/server.mjs"], { stdio: "inherit", env: process.env, detached: true }),
+  spawn("npx", ["next", "start", "-p", port], { stdio: "inherit", env: process.env, detached: true }),
 ];
 
 const password = process.env.DEMO_PASSWORD || DEMO_PASSWORD_DEFAULT;
@@ -30,8 +30,16 @@ console.log(`\nBaywright is starting on http://localhost:${port}\nDemo sign-ins 
 for (const s of DEMO_STAFF.slice(0, 3)) console.log(`  ${s.role.padEnd(6)} ${s.email}`);
 console.log("Press Ctrl+C to stop.\n");
 
+// `next start` forks a next-server child: end each whole process group so the port and the
+// database file are let go.
 const stop = () => {
-  for (const child of children) child.kill("SIGTERM");
+  for (const child of children) {
+    try {
+      if (child.pid) process.kill(-child.pid, "SIGTERM");
+    } catch {
+      // already gone
+    }
+  }
   process.exit(0);
 };
 process.on("SIGINT", stop);
