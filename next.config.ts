@@ -6,6 +6,19 @@ const nextConfig: NextConfig = {
   images: { unoptimized: true },
   // `npm test` type-checks the whole project (tests included) before it builds; no need twice.
   typescript: { ignoreBuildErrors: true },
+  // The truck owner's status page: its link is a secret, so it must not leak through Referer or
+  // land in a search index.
+  async headers() {
+    return [
+      {
+        source: "/status/:path*",
+        headers: [
+          { key: "Referrer-Policy", value: "no-referrer" },
+          { key: "X-Robots-Tag", value: "noindex, nofollow" },
+        ],
+      },
+    ];
+  },
 };
 
 export default nextConfig;

@@ -55,11 +55,12 @@ function checkPragmas(sqlite: SQLite.Database, path: string) {
  * Counts statements that write, so read caches (the board) know when anything changed. Writes by
  * other processes (scripts, a second server) show in SQLite's data_version instead.
  */
-let writes = 0;
+// Kept on globalThis: the production build can hold several copies of this module, and they
+// must all count into (and read) the same number.
+const writes = ((globalThis as unknown as { __baywrightWrites?: { n: number } }).__baywrightWrites ??= { n: 0 });
 const writeCounter: KyselyPlugin = {
   transformQuery(args) {
-    const kind = args.node.kind;
-    if (kind !== "SelectQueryNode") writes++;
+    if (args.node.kind !== "SelectQueryNode") writes.n++;
     return args.node;
   },
   async transformResult(args) {
@@ -87,7 +88,7 @@ export function getDb(): DB {
 export function dataGeneration(): string {
   const sqlite = holder.__baywrightDb?.sqlite;
   const external = sqlite ? String(sqlite.pragma("data_version", { simple: true })) : "-";
-  return `${writes}:${external}`;
+  return `${writes.n}:${external}`;
 }
 
 export async function closeDb() {

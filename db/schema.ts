@@ -1,4 +1,7 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type { KitSpecTables } from "./tables/kit-spec";
+import type { MessagingTables } from "./tables/messaging";
+import type { RecordsTables } from "./tables/records";
 
 export const ROLES = ["owner", "office", "tech"] as const;
 export type Role = (typeof ROLES)[number];
@@ -40,6 +43,8 @@ export interface ShopTable {
   time_zone: ColumnType<string, string | undefined, string>;
   work_order_prefix: ColumnType<string, string | undefined, string>;
   next_work_order: ColumnType<number, number | undefined, number>;
+  /** Leak-test pressure drop the shop allows, psi (added by the records migration). */
+  leak_allowed_drop_psi: ColumnType<number, number | undefined, number>;
 }
 
 export interface CustomerTable {
@@ -118,7 +123,7 @@ export interface OutboxTable {
   sent_at: string | null;
 }
 
-export interface Database {
+export interface Database extends RecordsTables, KitSpecTables, MessagingTables {
   staff: StaffTable;
   session: SessionTable;
   shop: ShopTable;

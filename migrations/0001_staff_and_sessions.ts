@@ -26,7 +26,7 @@ export async function up(db: Kysely<unknown>) {
     .addColumn("id", "integer", (c) => c.primaryKey().check(sql`id = 1`))
     .addColumn("name", "text", (c) => c.notNull())
     .addColumn("phone", "text", (c) => c.notNull().defaultTo(""))
-    .addColumn("time_zone", "text", (c) => c.notNull().defaultTo("America/Chicago"))
+    .addColumn("time_zone", "text", (c) => c.notNull().defaultTo("US/Central"))
     .addColumn("work_order_prefix", "text", (c) => c.notNull().defaultTo("WO"))
     .addColumn("next_work_order", "integer", (c) => c.notNull().defaultTo(1))
     .execute();

@@ -1,11 +1,17 @@
 import { type Kysely, type Migration, type MigrationProvider, Migrator } from "kysely";
 import * as m0001 from "./0001_staff_and_sessions";
 import * as m0002 from "./0002_customers_trucks_jobs";
+import * as m0003 from "./0003_records";
+import * as m0004 from "./0004_kit_spec";
+import * as m0005 from "./0005_photos_and_messages";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
   "0001_staff_and_sessions": m0001,
   "0002_customers_trucks_jobs": m0002,
+  "0003_records": m0003,
+  "0004_kit_spec": m0004,
+  "0005_photos_and_messages": m0005,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

@@ -8,6 +8,7 @@ import autocannon from "autocannon";
 import { createDb, openSqlite } from "@/db";
 import { migrateToLatest } from "@/migrations";
 import { generateShop } from "./bench-shop";
+import { benchStatusAndPhotos } from "./bench-status";
 
 const JOBS = 5000;
 const ON_BOARD = 600;
@@ -149,6 +150,7 @@ async function main() {
     const board = await measureGet(`${base}/api/board`, cookie);
     const moves = await measureMoves(base, cookie, movers);
     const js = await boardFirstLoadJs(base, cookie);
+    const statusAndPhotos = await benchStatusAndPhotos({ baseUrl: base, databasePath: dbPath });
 
     const results = {
       at: new Date().toISOString(),
@@ -160,6 +162,8 @@ async function main() {
       board: { p50Ms: Math.round(board.p50), p95Ms: Math.round(board.p95), rps: Math.round(board.rps), p95RatioToTrivial: Math.round((board.p95 / Math.max(trivial.p95, 1)) * 100) / 100 },
       moves: { perSecond: Math.round(moves.perSecond), p95Ms: Math.round(moves.p95), failures: moves.failures },
       boardFirstLoadJs: { scripts: js.scripts, gzipKb: Math.round(js.gzipKb), rawKb: Math.round(js.rawKb) },
+      statusPage: statusAndPhotos.statusPage,
+      photo5MB: statusAndPhotos.photo5MB,
     };
     mkdirSync("bench", { recursive: true });
     writeFileSync("bench/results.json", `${JSON.stringify(results, null, 2)}\n`);
@@ -170,6 +174,8 @@ async function main() {
     });
     console.log(`board p95 / trivial p95 = ${results.board.p95RatioToTrivial} (goal ≤ 2, and board p95 < 30 ms)`);
     console.log(`board page first-load JS: ${results.boardFirstLoadJs.gzipKb} kB gzipped in ${js.scripts} scripts (goal < 200 kB)`);
+    if (statusAndPhotos.statusPage) console.log(`status page: p50 ${Math.round(statusAndPhotos.statusPage.p50Ms)} ms, p95 ${Math.round(statusAndPhotos.statusPage.p95Ms)} ms at ${statusAndPhotos.statusPage.concurrency} concurrent`);
+    if (statusAndPhotos.photo5MB) console.log(`5 MB photo, upload check to thumbnail: median ${Math.round(statusAndPhotos.photo5MB.medianMs)} ms over ${statusAndPhotos.photo5MB.runsMs.length} runs`);
     console.log("written to bench/results.json");
   } finally {
     stop();

@@ -20,14 +20,29 @@ if (!existsSync(".next/BUILD_ID")) {
   if (build.status !== 0) process.exit(build.status ?? 1);
 }
 
+// Without real keys the app talks to the local fake of the e-mail and upload services (fakes/README.md).
+const fakesUrl = `http://127.0.0.1:${process.env.FAKES_PORT ?? "4010"}`;
+const fakeEmail = process.env.RESEND_API_KEY ? {} : { RESEND_API_KEY: "re_local_fake", RESEND_BASE_URL: `${fakesUrl}/resend` };
+const fakeUploads = process.env.UPLOADTHING_TOKEN
+  ? {}
+  : {
+      UPLOADTHING_TOKEN: Buffer.from(JSON.stringify({ apiKey: "sk_local_coldcreek_fake", appId: "coldcreekdev", regions: ["local1"] })).toString("base64"),
+      UPLOADTHING_INGEST_URL: fakesUrl,
+      UPLOADTHING_API_URL: fakesUrl,
+      UPLOADTHING_UFS_HOST: `localhost:${new URL(fakesUrl).port}`,
+      UPLOADTHING_UFS_APP_ID_LOCATION: "path",
+    };
+const appEnv = { ...process.env, APP_URL: process.env.APP_URL ?? `http://localhost:${port}`, ...fakeEmail, ...fakeUploads };
+
 const children = [
-  spawn("node", ["fakes/server.mjs"], { stdio: "inherit", env: process.env, detached: true }),
-  spawn("npx", ["next", "start", "-p", port], { stdio: "inherit", env: process.env, detached: true }),
+  spawn("node", ["fakes/server.mjs"], { stdio: "inherit", env: { ...process.env, ...fakeUploads }, detached: true }),
+  spawn("npx", ["next", "start", "-p", port], { stdio: "inherit", env: appEnv, detached: true }),
 ];
 
 const password = process.env.DEMO_PASSWORD || DEMO_PASSWORD_DEFAULT;
 console.log(`\nBaywright is starting on http://localhost:${port}\nDemo sign-ins (password ${password}):`);
 for (const s of DEMO_STAFF.slice(0, 3)) console.log(`  ${s.role.padEnd(6)} ${s.email}`);
+if (!process.env.RESEND_API_KEY) console.log(`Customer e-mail goes to the local fake: see what was sent at ${fakesUrl}/__fake/emails`);
 console.log("Press Ctrl+C to stop.\n");
 
 // `next start` forks a next-server child: end each whole process group so the port and the

@@ -1,6 +1,7 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import { z } from "zod";
+import { quoteBareNonFiniteNumbers } from "./bare-numbers";
 import { ApiError, validationError } from "./errors";
 
 export function json<T>(body: T, init?: ResponseInit) {
@@ -45,7 +46,14 @@ export async function readJson<S extends z.ZodType>(req: Request, schema: S): Pr
   try {
     raw = JSON.parse(text);
   } catch {
-    throw new ApiError("validation", "The request body is not valid JSON.");
+    // A bare NaN or Infinity is not JSON; quoted, the schema names the field that carried it.
+    const quoted = quoteBareNonFiniteNumbers(text);
+    try {
+      if (quoted === null) throw new Error("not JSON");
+      raw = JSON.parse(quoted);
+    } catch {
+      throw new ApiError("validation", "The request body is not valid JSON.");
+    }
   }
   const parsed = schema.safeParse(raw);
   if (!parsed.success) throw validationError(parsed.error);

@@ -3,6 +3,7 @@ import { addDays, formatISO } from "date-fns";
 import { sql } from "kysely";
 import type { DB } from "@/db";
 import type { JobScope, Priority, Stage } from "@/db/schema";
+import { coatingFlags } from "@/server/records/queries";
 import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
 import { loadGateRecords } from "./gate-records";
@@ -30,6 +31,8 @@ export interface BoardCard {
   techName: string | null;
   /** The next gate ahead of the card and what it still needs; null when none is ahead. */
   gate: { stage: Stage; label: string; unmet: string[] } | null;
+  /** Parts out at the coater: where, when promised, and whether the promise has passed. */
+  coating: { overdue: boolean; vendorName: string; promisedOn: string } | null;
 }
 
 export interface Board {
@@ -75,7 +78,8 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
     );
   }
   const rows = await query.orderBy("job.stage").orderBy("job.position").execute();
-  const records = await loadGateRecords(db, rows.map((r) => r.id));
+  const ids = rows.map((r) => r.id);
+  const [records, coating] = await Promise.all([loadGateRecords(db, ids), coatingFlags(db, ids, now)]);
   const [techs, customers] = await Promise.all([
     db.selectFrom("staff").select(["id", "name"]).where("active", "=", 1).orderBy("name").execute(),
     db.selectFrom("customer").select(["id", "name"]).orderBy("name").execute(),
@@ -101,6 +105,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       techId: r.assigned_tech_id,
       techName: r.tech_name ? r.tech_name.split(" ")[0] : null,
       gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
+      coating: coating.get(r.id) ?? null,
     };
   });
   return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers };

@@ -1,11 +1,36 @@
 import "server-only";
 import type { DB } from "@/db";
-import { type GateRecords, NO_RECORDS } from "./gates";
+import { partStatuses, signOffStates } from "@/server/records/queries";
+import type { GateRecords } from "./gates";
 
 /**
- * The records each job's gates read, for many jobs at once (the board asks for hundreds).
- * Until parts, leak tests, coating runs and the sign-off are recorded, every job has none.
+ * The records each job's gates read, for many jobs at once (the board asks for hundreds): one
+ * statement for the parts with their leak-test and coating state, one for the sign-offs, whatever
+ * the number of jobs. Takes a transaction too, so a move decides on what it will commit against.
  */
-export async function loadGateRecords(_db: DB, jobIds: readonly number[]): Promise<Map<number, GateRecords>> {
-  return new Map(jobIds.map((id) => [id, NO_RECORDS]));
+export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promise<Map<number, GateRecords>> {
+  const records = new Map<number, GateRecords>(jobIds.map((id) => [id, { leakTestParts: [], coatedParts: [], signOff: null }]));
+  if (jobIds.length === 0) return records;
+  const parts = await partStatuses(db, { jobIds, onlyGated: true });
+  const signOffs = await signOffStates(db, jobIds);
+  for (const part of parts) {
+    const job = records.get(part.job_id);
+    if (!job) continue;
+    if (part.needs_leak_test === 1) {
+      job.leakTestParts.push({ name: part.name, passedSinceRework: part.passed === 1, lastResult: part.last_result });
+    }
+    if (part.needs_coating === 1) {
+      // The newest run carrying the part decides: a part sent again for a recoat is out until that run is back.
+      job.coatedParts.push({
+        name: part.name,
+        received: part.coating_state === "back" || part.coating_state === "inspected",
+        inspected: part.coating_state === "inspected",
+      });
+    }
+  }
+  for (const [jobId, signOff] of signOffs) {
+    const job = records.get(jobId);
+    if (job) job.signOff = signOff;
+  }
+  return records;
 }

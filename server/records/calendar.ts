@@ -29,3 +29,8 @@ export function assertTimeZone(timeZone: string): void {
     throw new RangeError(`Unknown shop time zone "${timeZone}"; use an IANA name such as US/Central`);
   }
 }
+
+/** An instant (ISO timestamp) as the shop's wall clock shows it, the same on the server and in the browser. */
+export function formatShopTime(instant: string, timeZone: string, pattern: string): string {
+  return format(new Date(instant), pattern, { in: tz(timeZone) });
+}

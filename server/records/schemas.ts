@@ -200,3 +200,174 @@ export const wiringSignOffSchema = z.object({
 });
 export type WiringSignOff = z.output<typeof wiringSignOffSchema>;
 export type WiringSignOffFormInput = z.input<typeof wiringSignOffSchema>;
+
+export const PART_KINDS = ["reservoir", "box", "bracket", "other"] as const;
+export type PartKind = (typeof PART_KINDS)[number];
+export const PART_MATERIALS = ["aluminum", "stainless", "carbon_steel"] as const;
+export type PartMaterial = (typeof PART_MATERIALS)[number];
+export const PART_SHAPES = ["round", "box", "other"] as const;
+
+export const partKindLabels: Record<PartKind, string> = { reservoir: "Reservoir", box: "Box", bracket: "Bracket", other: "Other" };
+export const partMaterialLabels: Record<PartMaterial, string> = { aluminum: "Aluminum", stainless: "Stainless", carbon_steel: "Carbon steel" };
+export const partShapeLabels: Record<(typeof PART_SHAPES)[number], string> = {
+  round: "Round (horizontal tube)",
+  box: "Box (flat walls)",
+  other: "Other shape",
+};
+export const glossLabels: Record<(typeof GLOSS_LEVELS)[number], string> = {
+  flat: "Flat",
+  matte: "Matte",
+  satin: "Satin",
+  semi_gloss: "Semi-gloss",
+  gloss: "Gloss",
+  high_gloss: "High gloss",
+};
+
+// An unknown key in a body gets the schema's own plain-word message; other object errors keep zod's.
+const strictError = (message: string) => (issue: { code?: string }) =>
+  issue.code === "unrecognized_keys" ? message : issue.code === "invalid_type" ? "Send the changes as a JSON object." : undefined;
+
+// Same sane range as the calculator's tank dimensions: 1 to 240 in.
+const tankInches = (what: string) =>
+  z
+    .number({ error: `Enter the tank's ${what} in inches.` })
+    .min(1, { error: `The tank's ${what} is 1 to 240 in.` })
+    .max(240, { error: `The tank's ${what} is 1 to 240 in.` });
+
+export const partGeometrySchema = z.discriminatedUnion(
+  "shape",
+  [
+    z.object({ shape: z.literal("round"), insideDiameterIn: tankInches("inside diameter"), lengthIn: tankInches("length") }),
+    z.object({
+      shape: z.literal("box"),
+      lengthIn: tankInches("length"),
+      widthIn: tankInches("width"),
+      heightIn: tankInches("height"),
+    }),
+  ],
+  { error: "Tank geometry is round (inside diameter and length) or box (length, width and height)." },
+);
+export type PartGeometry = z.infer<typeof partGeometrySchema>;
+
+const partFields = {
+  name: name("the part's name"),
+  kind: z.enum(PART_KINDS, { error: "Choose the kind of part: reservoir, box, bracket or other." }),
+  material: z.enum(PART_MATERIALS, { error: "Choose the material: aluminum, stainless or carbon steel." }),
+  shape: z.enum(PART_SHAPES, { error: "Choose the shape: round, box or other." }),
+  geometry: partGeometrySchema.nullable(),
+  needsLeakTest: z.boolean({ error: "Say whether the part gets a leak test." }),
+  needsCoating: z.boolean({ error: "Say whether the part goes out for coating." }),
+  notes: z.string({ error: "Notes are text." }).trim().max(2000, { error: "Keep the notes to 2000 characters." }),
+};
+
+export type PartRecord = {
+  kind: PartKind;
+  shape: (typeof PART_SHAPES)[number];
+  geometry: PartGeometry | null;
+  needsLeakTest: boolean;
+};
+
+/** Rules that tie a part's fields together; checked on create and again on every edit, after merging. */
+export function partProblems(part: PartRecord): { path: string; message: string }[] {
+  const problems: { path: string; message: string }[] = [];
+  if (part.geometry && part.kind !== "reservoir") {
+    problems.push({ path: "geometry", message: "Only a reservoir carries tank geometry; clear it or make the part a reservoir." });
+  }
+  if (part.geometry && part.geometry.shape !== part.shape) {
+    problems.push({ path: "shape", message: `The geometry is for a ${part.geometry.shape} tank; set the shape to match.` });
+  }
+  // Trade reference: fabricated tanks are leak-tested with low air before they are finished.
+  if (part.kind === "reservoir" && !part.needsLeakTest) {
+    problems.push({ path: "needsLeakTest", message: "A fabricated reservoir is always leak-tested before coating." });
+  }
+  return problems;
+}
+
+function addPartProblems(part: PartRecord, ctx: z.RefinementCtx) {
+  for (const problem of partProblems(part)) ctx.addIssue({ code: "custom", path: [problem.path], message: problem.message });
+}
+
+export const partInputSchema = z
+  .object({
+    ...partFields,
+    // A tank's shape follows its geometry; anything else is "other" unless the form says.
+    shape: partFields.shape.optional(),
+    geometry: partFields.geometry.optional(),
+    needsLeakTest: partFields.needsLeakTest,
+    notes: partFields.notes.default(""),
+  })
+  .transform((part) => ({
+    ...part,
+    geometry: part.geometry ?? null,
+    shape: part.shape ?? part.geometry?.shape ?? (part.kind === "box" ? ("box" as const) : ("other" as const)),
+  }))
+  .superRefine(addPartProblems);
+export type PartInput = z.output<typeof partInputSchema>;
+
+export const partPatchSchema = z
+  .strictObject(
+    {
+    name: partFields.name.optional(),
+    kind: partFields.kind.optional(),
+    material: partFields.material.optional(),
+    shape: partFields.shape.optional(),
+    geometry: partFields.geometry.optional(),
+    needsLeakTest: partFields.needsLeakTest.optional(),
+    needsCoating: partFields.needsCoating.optional(),
+    notes: partFields.notes.optional(),
+    // Marking a part reworked voids every earlier test of it: a repaired seam is an untested seam.
+    reworked: z.literal(true, { error: "Send reworked: true to mark the part reworked." }).optional(),
+    reworkNote: z.string({ error: "Say what was reworked." }).trim().max(500, { error: "Keep the rework note to 500 characters." }).optional(),
+    },
+    { error: strictError("Only a part's name, kind, material, shape, geometry, test and coating flags, notes and rework can be changed.") },
+  )
+  .refine((patch) => Object.keys(patch).length > 0, { error: "Send at least one change." });
+export type PartPatch = z.infer<typeof partPatchSchema>;
+
+// The job page's form names the job it was opened from, so a leak test is never filed on another job's tank.
+export const leakTestRequestSchema = z.object({ jobId: recordId("The job id must be a positive whole number.").optional() }).and(leakTestInputSchema);
+export type LeakTestRequest = z.output<typeof leakTestRequestSchema>;
+
+const optionalText = (what: string, max: number) =>
+  z.string({ error: `${what} is text.` }).trim().max(max, { error: `Keep ${what.toLowerCase()} to ${max} characters.` }).default("");
+
+export const vendorInputSchema = z.object({
+  name: name("the coater's name"),
+  contact: optionalText("The contact's name", 120),
+  phone: optionalText("The phone number", 40),
+  email: optionalText("The e-mail address", 200).refine((email) => email === "" || z.email().safeParse(email).success, {
+    error: "Enter an e-mail address like office@coater.example, or leave it empty.",
+  }),
+  usualTurnaroundDays: z
+    .number({ error: "Enter the usual turnaround in business days." })
+    .int({ error: "Enter the usual turnaround as whole business days." })
+    .min(1, { error: "The usual turnaround is 1 to 60 business days." })
+    .max(60, { error: "The usual turnaround is 1 to 60 business days." }),
+  notes: optionalText("The notes", 1000),
+});
+export type VendorInput = z.infer<typeof vendorInputSchema>;
+
+export const coatingRunPatchSchema = z
+  .strictObject(
+    {
+      receivedOn: isoDate("the date the parts came back").optional(),
+      promisedOn: isoDate("the date the coater promised").optional(),
+      inspection: receivingInspectionSchema.optional(),
+    },
+    { error: strictError("Only the received date, the promised date and the receiving inspection can be changed.") },
+  )
+  .refine((patch) => Object.keys(patch).length > 0, { error: "Send the received date, the promised date or the inspection." });
+export type CoatingRunPatch = z.infer<typeof coatingRunPatchSchema>;
+
+// Past half a psi over a hold at 1.5–5 psig a tank is plainly leaking (common practice, no published source).
+export const MAX_ALLOWED_DROP_PSI = 0.5;
+
+export const recordsSettingsPatchSchema = z.strictObject(
+  {
+    leakAllowedDropPsi: z
+      .number({ error: "Enter the allowed drop in psi." })
+      .min(0, { error: `The allowed drop is 0 to ${MAX_ALLOWED_DROP_PSI} psi.` })
+      .max(MAX_ALLOWED_DROP_PSI, { error: `The allowed drop is 0 to ${MAX_ALLOWED_DROP_PSI} psi.` }),
+  },
+  { error: strictError("Only the leak test's allowed drop can be changed here.") },
+);

@@ -1,5 +1,5 @@
 import { TZDate } from "@date-fns/tz";
-import { differenceInBusinessDays, format, subDays } from "date-fns";
+import { addBusinessDays, differenceInBusinessDays, format, subDays } from "date-fns";
 import { assertTimeZone, calendarZone, formatCalendarDate, parseCalendarDate } from "./calendar";
 
 /** The dates of a coating run that turnaround needs; ISO calendar dates (YYYY-MM-DD). */
@@ -46,6 +46,16 @@ export function shopToday(clock: ShopClock): string {
  */
 export function businessDaysBetween(fromDate: string, toDate: string): number {
   return differenceInBusinessDays(parseCalendarDate(toDate), parseCalendarDate(fromDate), { in: calendarZone });
+}
+
+/** The calendar date `businessDays` weekdays after `fromDate` (a Friday plus 1 is the Monday): the coater's usual promise. */
+export function addBusinessDaysTo(fromDate: string, businessDays: number): string {
+  return formatCalendarDate(addBusinessDays(parseCalendarDate(fromDate), businessDays, { in: calendarZone }));
+}
+
+/** Business days a run has been out: sent → received, or sent → the shop's today while it is still out. */
+export function businessDaysOut(run: CoatingRunDates, clock: ShopClock): number {
+  return businessDaysBetween(run.sentOn, run.receivedOn ?? shopToday(clock));
 }
 
 /** Business days the coater kept the run (sent → received); null while the run is still out. */

@@ -4,6 +4,7 @@ import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { TestProject } from "vitest/node";
+import { startFakes } from "../../fakes/server.mjs";
 import { chromiumPath } from "./browser";
 
 async function freePort(): Promise<number> {
@@ -51,12 +52,26 @@ export default async function setup(project: TestProject) {
 
   const dir = mkdtempSync(join(tmpdir(), "baywright-e2e-"));
   const port = await freePort();
+  // The e-mail and upload services' local fake, in this process; the app reaches it through env (fakes/README.md).
+  const fakes = await startFakes({ port: 0, dataDir: join(dir, "fakes") });
+  const fakesPort = new URL(fakes.url).port;
   const env = {
     ...process.env,
     DATABASE_PATH: join(dir, "e2e.db"),
     PORT: String(port),
     NODE_ENV: "production" as const,
     DEMO_PASSWORD: "upfit-demo-2026",
+    APP_URL: `http://127.0.0.1:${port}`,
+    PHOTOS_DIR: join(dir, "photos"),
+    OUTBOX_POLL_MS: "1000",
+    RESEND_API_KEY: "re_local_fake",
+    RESEND_BASE_URL: `${fakes.url}/resend`,
+    UPLOADTHING_TOKEN: Buffer.from(JSON.stringify({ apiKey: "sk_local_coldcreek_fake", appId: "coldcreekdev", regions: ["local1"] })).toString("base64"),
+    UPLOADTHING_INGEST_URL: fakes.url,
+    UPLOADTHING_API_URL: fakes.url,
+    UPLOADTHING_UFS_HOST: `localhost:${fakesPort}`,
+    UPLOADTHING_UFS_APP_ID_LOCATION: "path",
+    UPLOADTHING_LOG_LEVEL: "Error",
   };
   await run("npx", ["tsx", "scripts/seed.ts"], env);
   const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env, stdio: ["ignore", "inherit", "inherit"], detached: true });
@@ -64,6 +79,7 @@ export default async function setup(project: TestProject) {
   await waitFor(`${baseUrl}/api/health`, 60_000);
   project.provide("baseUrl", baseUrl);
   project.provide("databasePath", env.DATABASE_PATH);
+  project.provide("fakesUrl", fakes.url);
 
   return async () => {
     // next start forks a next-server child: end the whole process group so the port and database are freed.
@@ -72,6 +88,7 @@ export default async function setup(project: TestProject) {
     } catch {
       // already gone
     }
+    await fakes.close();
     rmSync(dir, { recursive: true, force: true });
   };
 }
@@ -80,5 +97,6 @@ declare module "vitest" {
   export interface ProvidedContext {
     baseUrl: string;
     databasePath: string;
+    fakesUrl: string;
   }
 }

@@ -81,6 +81,14 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
           <dt className="sr-only">Assigned</dt>
           <dd className="text-ink-soft"><IconPerson /> {card.techName ?? "Unassigned"}</dd>
         </div>
+        {card.coating && (
+          <div>
+            <dt className="sr-only">Out for coating</dt>
+            <dd className={card.coating.overdue ? "font-bold text-stop-700" : "text-ink-soft"}>
+              {card.coating.overdue ? <IconWarn /> : <IconClock />} {card.coating.overdue ? "Coating overdue" : "At the coater"} · {card.coating.vendorName}, promised {formatDay(card.coating.promisedOn)}
+            </dd>
+          </div>
+        )}
         {card.scope === "install_only" && <dd className="text-xs font-semibold uppercase tracking-wide text-ink-soft">Install only</dd>}
         {card.gate && (
           <div>

@@ -1,6 +1,8 @@
 import { afterEach, describe, expect, it } from "vitest";
 import {
+  addBusinessDaysTo,
   businessDaysBetween,
+  businessDaysOut,
   businessDaysOverdue,
   isOverdue,
   shopToday,
@@ -152,5 +154,33 @@ describe("vendorRecord over the last 90 days", () => {
     expect(record.medianTurnaroundBusinessDays).toBeNull();
     expect(record.onTimeShare).toBeNull();
     expect(vendorRecord([], clock).runs).toBe(0);
+  });
+});
+
+describe("addBusinessDaysTo (the coater's usual promise)", () => {
+  it.each([
+    ["Fri + 1 = Mon", "2025-03-07", 1, "2025-03-10"],
+    ["Mon + 5 = next Mon", "2025-03-03", 5, "2025-03-10"],
+    ["Thu + 8 = Tue week after next", "2025-03-06", 8, "2025-03-18"],
+    ["Wed − 4 = Thu before", "2025-03-12", -4, "2025-03-06"],
+    ["Sat + 1 = Mon", "2025-03-08", 1, "2025-03-10"],
+  ])("%s", (_, from, n, expected) => {
+    expect(addBusinessDaysTo(from, n)).toBe(expected);
+  });
+
+  it("is undone by businessDaysBetween from a weekday", () => {
+    for (const from of ["2025-03-03", "2025-03-05", "2025-03-07"]) {
+      for (const n of [1, 5, 8, 13]) expect(businessDaysBetween(from, addBusinessDaysTo(from, n))).toBe(n);
+    }
+  });
+});
+
+describe("businessDaysOut", () => {
+  it("counts to the received date once back, and to the shop's today while out", () => {
+    const run = { sentOn: "2025-03-07", promisedOn: "2025-03-14" };
+    expect(businessDaysOut({ ...run, receivedOn: "2025-03-12" }, at("2025-03-20T18:00:00Z"))).toBe(3);
+    // 23:30 CDT Monday 10 March is already Tuesday in UTC: still one business day out.
+    expect(businessDaysOut(run, at("2025-03-11T04:30:00Z"))).toBe(1);
+    expect(businessDaysOut(run, at("2025-03-11T05:30:00Z"))).toBe(2);
   });
 });

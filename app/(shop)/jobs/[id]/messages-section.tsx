@@ -1,11 +1,28 @@
-import { NotBuiltNote, Section } from "@/components/section";
+import { Section } from "@/components/section";
+import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
+import { emailConfigured } from "@/server/email/env";
+import { listMessages } from "@/server/email/messages";
+import { jobEmailSettings } from "@/server/email/recipients";
+import { notifySettings } from "@/server/email/settings";
 import type { JobDetail } from "@/server/jobs/queries";
+import { listStatusLinks } from "@/server/status/links";
+import { MessagesPanel } from "./messages-panel";
 
-export async function MessagesSection(_props: { job: JobDetail; user: StaffUser }) {
+export async function MessagesSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  const db = getDb();
+  const [messages, settings, links, shop] = await Promise.all([listMessages(db, job.id), jobEmailSettings(db, job.id), listStatusLinks(db, job.id), notifySettings(db)]);
   return (
-    <Section title="Customer e-mail and status link">
-      <NotBuiltNote>Every e-mail sent to the customer, with delivery state, and the status link will be managed here.</NotBuiltNote>
+    <Section title="Customer e-mail and status link" id="messages">
+      <MessagesPanel
+        jobId={job.id}
+        role={user.role}
+        emailConfigured={emailConfigured()}
+        initialMessages={messages}
+        initialSettings={settings}
+        initialLinks={links}
+        initialShop={shop}
+      />
     </Section>
   );
 }

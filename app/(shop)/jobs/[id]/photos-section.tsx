@@ -1,11 +1,17 @@
-import { NotBuiltNote, Section } from "@/components/section";
+import { Section } from "@/components/section";
+import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
 import type { JobDetail } from "@/server/jobs/queries";
+import { stagesFor } from "@/server/jobs/stages";
+import { jobParts, listJobPhotos } from "@/server/photos/queries";
+import { PhotosPanel } from "./photos-panel";
 
-export async function PhotosSection(_props: { job: JobDetail; user: StaffUser }) {
+export async function PhotosSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  const db = getDb();
+  const [photos, parts] = await Promise.all([listJobPhotos(db, job.id), jobParts(db, job.id)]);
   return (
-    <Section title="Photos">
-      <NotBuiltNote>Photos by stage and part, with captions and a customer-visible flag, will be uploaded here.</NotBuiltNote>
+    <Section title="Photos" id="photos">
+      <PhotosPanel jobId={job.id} jobStage={job.stage} stages={stagesFor(job.scope)} parts={parts} role={user.role} initialPhotos={photos} />
     </Section>
   );
 }

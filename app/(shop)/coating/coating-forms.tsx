@@ -1,0 +1,272 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useId, useState } from "react";
+import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
+import { IconStop } from "@/components/icons";
+import type { CoatingCandidate, VendorView } from "@/server/records/queries";
+import { GLOSS_LEVELS, glossLabels } from "@/server/records/schemas";
+import { addBusinessDaysTo } from "@/server/records/turnaround";
+
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
+
+/** Sends parts from one or more jobs out to a coater on a new run. */
+export function SendRunForm({ vendors, candidates, today }: { vendors: VendorView[]; candidates: CoatingCandidate[]; today: string }) {
+  const router = useRouter();
+  const [vendorId, setVendorId] = useState<string>(vendors[0] ? String(vendors[0].id) : "");
+  const [sentOn, setSentOn] = useState(today);
+  const [promisedOn, setPromisedOn] = useState<string | null>(null);
+  const [chosen, setChosen] = useState<number[]>([]);
+  const [done, setDone] = useState<string | null>(null);
+  const vendor = vendors.find((v) => String(v.id) === vendorId);
+  // The promise follows the coater's usual turnaround until someone types the date they were actually given.
+  const suggested = vendor && ISO_DATE.test(sentOn) ? addBusinessDaysTo(sentOn, vendor.usualTurnaroundDays) : "";
+  const promised = promisedOn ?? suggested;
+
+  const form = useApiForm<{ run: { id: number; vendorName: string; parts: unknown[] } }>(
+    (v) => ({
+      path: "/api/coating-runs",
+      body: {
+        vendorId: num(vendorId),
+        finish: { colour: str(v.colour), gloss: str(v.gloss) || undefined },
+        sentOn,
+        promisedOn: promised,
+        partIds: chosen,
+      },
+    }),
+    ({ run }) => {
+      setDone(`Run ${run.id} is out to ${run.vendorName} with ${run.parts.length} ${run.parts.length === 1 ? "part" : "parts"}.`);
+      setChosen([]);
+      setPromisedOn(null);
+      router.refresh();
+    },
+  );
+
+  if (vendors.length === 0) return <p className="text-ink-soft">Add a coater to the vendors list first.</p>;
+
+  const partError = (partId: number) => {
+    const index = chosen.indexOf(partId);
+    return index < 0 ? undefined : form.fields[`partIds.${index}`];
+  };
+  const fresh = candidates.filter((c) => c.lastRunId === null);
+  const recoats = candidates.filter((c) => c.lastRunId !== null);
+  const groups = (parts: CoatingCandidate[]) => {
+    const byJob = new Map<number, CoatingCandidate[]>();
+    for (const c of parts) byJob.set(c.jobId, [...(byJob.get(c.jobId) ?? []), c]);
+    return [...byJob.values()].map((jobParts) => (
+      <div key={jobParts[0].jobId} className="rounded-md border border-line p-2">
+        <p className="text-sm font-semibold">
+          {jobParts[0].workOrder} · {jobParts[0].customerName} · unit {jobParts[0].unitNumber}
+        </p>
+        <ul>
+          {jobParts.map((part) => {
+            const blocked = part.needsLeakTest && !part.leakPassed;
+            const errors = partError(part.id);
+            return (
+              <li key={part.id}>
+                <label className={`flex min-h-11 items-center gap-3 ${blocked ? "cursor-not-allowed text-ink-soft" : "cursor-pointer"}`}>
+                  <input
+                    type="checkbox"
+                    checked={chosen.includes(part.id)}
+                    disabled={blocked}
+                    onChange={(e) => setChosen((ids) => (e.target.checked ? [...ids, part.id] : ids.filter((id) => id !== part.id)))}
+                    className="h-5 w-5 shrink-0 accent-bay-700"
+                  />
+                  <span>
+                    {part.name}
+                    {part.lastRunId !== null && <span className="block text-sm text-ink-soft">Coated on run {part.lastRunId}: sending it again recoats it.</span>}
+                    {blocked && (
+                      <span className="flex items-center gap-1 text-sm font-semibold text-stop-700">
+                        <IconStop /> No passing leak test yet: test it before coating.
+                      </span>
+                    )}
+                  </span>
+                </label>
+                {errors && <p className="ml-8 text-sm font-medium text-stop-700">⚠ {errors.join(" ")}</p>}
+              </li>
+            );
+          })}
+        </ul>
+      </div>
+    ));
+  };
+
+  return (
+    <form onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Send parts out for coating">
+      <FormAlert failure={form.failure} />
+      {done && (
+        <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">
+          ✓ {done}
+        </p>
+      )}
+      <Field label="Coater" name="vendorId" errors={form.fields.vendorId}>
+        {(p) => (
+          <select {...p} value={vendorId} onChange={(e) => setVendorId(e.target.value)} className={inputClass}>
+            {vendors.map((v) => (
+              <option key={v.id} value={v.id}>
+                {v.name} (usually {v.usualTurnaroundDays} business days)
+              </option>
+            ))}
+          </select>
+        )}
+      </Field>
+      <div className="grid grid-cols-2 gap-3">
+        <Field label="Colour" name="colour" errors={form.fields["finish.colour"]} hint="As the customer chose it.">
+          {(p) => <input {...p} className={inputClass} placeholder="e.g. Gloss black" />}
+        </Field>
+        <Field label="Gloss" name="gloss" errors={form.fields["finish.gloss"]}>
+          {(p) => (
+            <select {...p} defaultValue="gloss" className={inputClass}>
+              {GLOSS_LEVELS.map((g) => (
+                <option key={g} value={g}>{glossLabels[g]}</option>
+              ))}
+            </select>
+          )}
+        </Field>
+        <Field label="Sent on" name="sentOn" errors={form.fields.sentOn}>
+          {(p) => <input {...p} type="date" max={today} value={sentOn} onChange={(e) => setSentOn(e.target.value)} className={inputClass} />}
+        </Field>
+        <Field label="Promised by" name="promisedOn" errors={form.fields.promisedOn} hint={promisedOn === null && suggested ? "The coater's usual turnaround; change it to the date they gave." : undefined}>
+          {(p) => <input {...p} type="date" min={sentOn} value={promised} onChange={(e) => setPromisedOn(e.target.value)} className={inputClass} />}
+        </Field>
+      </div>
+      <fieldset className="space-y-2">
+        <legend className="text-sm font-semibold">Parts going out ({chosen.length} chosen)</legend>
+        {form.fields.partIds && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.partIds.join(" ")}</p>}
+        {fresh.length === 0 && <p className="text-ink-soft">No part is waiting for coating: parts marked for coating appear here until they go out.</p>}
+        {groups(fresh)}
+        {recoats.length > 0 && (
+          <details open={recoats.some((c) => chosen.includes(c.id))}>
+            <summary className="flex min-h-11 cursor-pointer items-center text-sm font-semibold text-bay-800">Send a coated part again, for a recoat ({recoats.length})</summary>
+            <div className="space-y-2">{groups(recoats)}</div>
+          </details>
+        )}
+      </fieldset>
+      <button type="submit" className={`${buttonClass.primary} w-full`} disabled={form.pending || chosen.length === 0}>
+        {form.pending ? "Sending…" : chosen.length ? `Send ${chosen.length} ${chosen.length === 1 ? "part" : "parts"} out` : "Choose the parts to send"}
+      </button>
+    </form>
+  );
+}
+
+/** Marks a run received: its parts are back in the shop. */
+export function ReceiveForm({ runId, sentOn, today }: { runId: number; sentOn: string; today: string }) {
+  const router = useRouter();
+  const form = useApiForm(
+    (v) => ({ path: `/api/coating-runs/${runId}`, method: "PATCH", body: { receivedOn: str(v.receivedOn) } }),
+    () => router.refresh(),
+  );
+  return (
+    <form onSubmit={form.onSubmit} noValidate className="flex flex-wrap items-end gap-2" aria-label={`Mark run ${runId} received`}>
+      <div className="min-w-40">
+        <Field label="Received on" name="receivedOn" errors={form.fields.receivedOn}>
+          {(p) => <input {...p} type="date" min={sentOn} max={today} defaultValue={today} className={inputClass} />}
+        </Field>
+      </div>
+      <button type="submit" className={`${buttonClass.primary} mb-6`} disabled={form.pending}>
+        {form.pending ? "Saving…" : "Mark received"}
+      </button>
+      {form.failure && !form.fields.receivedOn && (
+        <div className="w-full">
+          <FormAlert failure={form.failure} />
+        </div>
+      )}
+    </form>
+  );
+}
+
+/** The receiving inspection: film thickness in mils, adhesion, defects. */
+export function InspectionForm({ runId }: { runId: number }) {
+  const router = useRouter();
+  const id = useId();
+  const [readings, setReadings] = useState("");
+  const form = useApiForm(
+    (v) => {
+      const values = readings
+        .split(/[\s,;]+/)
+        .filter(Boolean)
+        .map((r) => (Number.isFinite(Number(r)) ? Number(r) : r));
+      return {
+        path: `/api/coating-runs/${runId}`,
+        method: "PATCH",
+        body: { inspection: { dftReadingsMils: values, adhesionOk: v.adhesion === "ok" ? true : v.adhesion === "failed" ? false : undefined, defects: str(v.defects) } },
+      };
+    },
+    () => router.refresh(),
+  );
+  const readingErrors = Object.entries(form.fields)
+    .filter(([key]) => key.startsWith("inspection.dftReadingsMils"))
+    .flatMap(([key, messages]) => {
+      const index = key.split(".")[2];
+      return messages.map((m) => (index === undefined ? m : `Reading ${Number(index) + 1}: ${m}`));
+    });
+  return (
+    <form onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label={`Receiving inspection of run ${runId}`}>
+      <FormAlert failure={form.failure} />
+      <Field
+        label="Dry film thickness readings (mils)"
+        name="dftReadings"
+        errors={readingErrors.length ? readingErrors : undefined}
+        hint="Separate readings with commas. Powder coat is commonly 2–3 mils; read with a magnetic or eddy-current gauge (ASTM D7091)."
+      >
+        {(p) => <input {...p} value={readings} onChange={(e) => setReadings(e.target.value)} inputMode="decimal" autoComplete="off" placeholder="2.4, 2.7, 3.0" className={inputClass} />}
+      </Field>
+      <fieldset>
+        <legend className="text-sm font-semibold">Adhesion check</legend>
+        <div className="flex flex-wrap gap-2">
+          {[
+            ["ok", "Passed"],
+            ["failed", "Failed"],
+          ].map(([value, label]) => (
+            <label key={value} className="flex min-h-11 cursor-pointer items-center gap-2 rounded-md border border-line px-3">
+              <input type="radio" name="adhesion" value={value} id={`${id}-${value}`} className="h-5 w-5 accent-bay-700" />
+              {label}
+            </label>
+          ))}
+        </div>
+        {form.fields["inspection.adhesionOk"] && <p className="text-sm font-medium text-stop-700">⚠ {form.fields["inspection.adhesionOk"].join(" ")}</p>}
+      </fieldset>
+      <Field label="Defects (runs, thin spots, damage), or leave empty" name="defects" errors={form.fields["inspection.defects"]}>
+        {(p) => <textarea {...p} rows={2} className={inputClass} />}
+      </Field>
+      <button type="submit" className={buttonClass.primary} disabled={form.pending}>
+        {form.pending ? "Saving…" : "Record the inspection"}
+      </button>
+    </form>
+  );
+}
+
+/** Adds a coater to the vendors list. */
+export function VendorForm() {
+  const router = useRouter();
+  const [added, setAdded] = useState<string | null>(null);
+  const form = useApiForm<{ vendor: VendorView }>(
+    (v) => ({
+      path: "/api/vendors",
+      body: { name: str(v.name), contact: str(v.contact), phone: str(v.phone), email: str(v.email), usualTurnaroundDays: num(v.usualTurnaroundDays), notes: str(v.notes) },
+    }),
+    ({ vendor }) => {
+      setAdded(vendor.name);
+      router.refresh();
+    },
+  );
+  return (
+    <form onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Add a coater" key={added ?? "new"}>
+      <FormAlert failure={form.failure} />
+      {added && <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">✓ {added} added.</p>}
+      <Field label="Coater" name="name" errors={form.fields.name}>{(p) => <input {...p} className={inputClass} />}</Field>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Contact" name="contact" errors={form.fields.contact}>{(p) => <input {...p} className={inputClass} />}</Field>
+        <Field label="Phone" name="phone" errors={form.fields.phone}>{(p) => <input {...p} type="tel" className={inputClass} />}</Field>
+        <Field label="E-mail" name="email" errors={form.fields.email}>{(p) => <input {...p} type="email" className={inputClass} />}</Field>
+        <Field label="Usual turnaround (business days)" name="usualTurnaroundDays" errors={form.fields.usualTurnaroundDays}>
+          {(p) => <input {...p} type="text" inputMode="numeric" className={inputClass} />}
+        </Field>
+      </div>
+      <Field label="Notes" name="notes" errors={form.fields.notes}>{(p) => <textarea {...p} rows={2} className={inputClass} />}</Field>
+      <button type="submit" className={buttonClass.secondary} disabled={form.pending}>
+        {form.pending ? "Adding…" : "Add the coater"}
+      </button>
+    </form>
+  );
+}

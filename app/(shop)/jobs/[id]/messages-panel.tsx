@@ -1,0 +1,349 @@
+"use client";
+
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { format, parseISO } from "date-fns";
+import { useId, useState } from "react";
+import { ApiRequestError, api } from "@/components/api";
+import { buttonClass, inputClass } from "@/components/form";
+import { type Role, STAGES, type Stage } from "@/db/schema";
+import type { MessageRow } from "@/server/email/messages";
+import type { JobEmailSettings } from "@/server/email/recipients";
+import type { NotifySettings } from "@/server/email/settings";
+import { STAGE_LABELS } from "@/server/jobs/stages";
+
+type Link = { id: number; createdAt: string; issuedBy: string | null; revokedAt: string | null; revokedBy: string | null; lastOpenedAt: string | null; state: "active" | "revoked" | "expired"; expiresAt: string | null };
+
+const keys = {
+  messages: (jobId: number) => ["job", jobId, "messages"] as const,
+  links: (jobId: number) => ["job", jobId, "status-links"] as const,
+};
+
+const when = (iso: string) => format(parseISO(iso), "d MMM, HH:mm");
+
+function failureText(err: unknown) {
+  return err instanceof ApiRequestError ? err.message : "Not saved; try again.";
+}
+
+export function MessagesPanel(props: {
+  jobId: number;
+  role: Role;
+  emailConfigured: boolean;
+  initialMessages: MessageRow[];
+  initialSettings: JobEmailSettings;
+  initialLinks: Link[];
+  initialShop: NotifySettings;
+}) {
+  const office = props.role === "office" || props.role === "owner";
+  return (
+    <div className="space-y-5">
+      <StatusLinkBox jobId={props.jobId} office={office} initialLinks={props.initialLinks} />
+      <EmailSettingsBox jobId={props.jobId} office={office} initial={props.initialSettings} />
+      <MessageList jobId={props.jobId} office={office} emailConfigured={props.emailConfigured} initial={props.initialMessages} />
+      {office && <ShopNotifyBox initial={props.initialShop} />}
+    </div>
+  );
+}
+
+function StatusLinkBox({ jobId, office, initialLinks }: { jobId: number; office: boolean; initialLinks: Link[] }) {
+  const queryClient = useQueryClient();
+  const links = useQuery({ queryKey: keys.links(jobId), queryFn: () => api<{ links: Link[] }>(`/api/jobs/${jobId}/status-links`).then((r) => r.links), initialData: initialLinks });
+  const [fresh, setFresh] = useState<string | null>(null);
+  const [copied, setCopied] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const [pending, setPending] = useState(false);
+  const live = links.data.find((l) => l.state === "active") ?? null;
+  const ids = useId();
+
+  async function run(work: () => Promise<void>) {
+    setPending(true);
+    setError(null);
+    try {
+      await work();
+    } catch (err) {
+      setError(failureText(err));
+    } finally {
+      setPending(false);
+      await queryClient.invalidateQueries({ queryKey: keys.links(jobId) });
+    }
+  }
+  const issue = () =>
+    run(async () => {
+      const { link } = await api<{ link: { url: string } }>(`/api/jobs/${jobId}/status-links`, { method: "POST" });
+      setFresh(link.url);
+      setCopied(false);
+    });
+  const revoke = (id: number) =>
+    run(async () => {
+      if (!window.confirm("Turn this status link off? Whoever has it will see that it no longer works.")) return;
+      await api(`/api/status-links/${id}`, { method: "DELETE" });
+      setFresh(null);
+    });
+
+  return (
+    <div className="space-y-2">
+      <h3 className="font-bold">Status link</h3>
+      {live ? (
+        <p>
+          <span className="font-semibold text-ok-700">✓ Working</span> · issued {when(live.createdAt)} {live.issuedBy ? `by ${live.issuedBy}` : "with a stage e-mail"} · {live.lastOpenedAt ? `last opened ${when(live.lastOpenedAt)}` : "not opened yet"}
+          {live.expiresAt && ` · ends ${format(parseISO(live.expiresAt), "d MMM yyyy")}`}
+        </p>
+      ) : (
+        <p className="text-ink-soft">– No working link. The next stage e-mail brings one{office ? ", or issue one now to send by hand" : ""}.</p>
+      )}
+      {fresh && (
+        <div className="space-y-1 rounded-md border border-bay-600 bg-bay-50 p-3">
+          <label htmlFor={`${ids}-url`} className="block text-sm font-semibold">
+            New link: copy it now, it is shown only once. The old link no longer works.
+          </label>
+          <div className="flex gap-2">
+            <input id={`${ids}-url`} readOnly value={fresh} className={`${inputClass} min-w-0 flex-1 font-mono text-sm`} onFocus={(e) => e.currentTarget.select()} data-testid="new-status-link" />
+            <button
+              type="button"
+              className={buttonClass.secondary}
+              onClick={async () => {
+                await navigator.clipboard?.writeText(fresh).catch(() => undefined);
+                setCopied(true);
+              }}
+            >
+              {copied ? "✓ Copied" : "Copy"}
+            </button>
+          </div>
+        </div>
+      )}
+      {office && (
+        <div className="flex flex-wrap gap-2">
+          <button type="button" className={buttonClass.secondary} disabled={pending} onClick={issue}>
+            {live ? "Issue a new link" : "Issue a link"}
+          </button>
+          {live && (
+            <button type="button" className={buttonClass.secondary} disabled={pending} onClick={() => revoke(live.id)}>
+              Turn link off
+            </button>
+          )}
+        </div>
+      )}
+      {error && (
+        <p role="alert" className="text-sm font-medium text-stop-700">
+          ⚠ {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function EmailSettingsBox({ jobId, office, initial }: { jobId: number; office: boolean; initial: JobEmailSettings }) {
+  const [settings, setSettings] = useState(initial);
+  const [emailOn, setEmailOn] = useState(!initial.emailOff);
+  const [chosen, setChosen] = useState<number[]>(initial.contacts.filter((c) => c.gets).map((c) => c.id));
+  const [state, setState] = useState<{ kind: "idle" | "saving" | "saved" } | { kind: "error"; message: string }>({ kind: "idle" });
+  const ids = useId();
+  const dirty = emailOn === settings.emailOff || chosen.slice().sort().join() !== settings.contacts.filter((c) => c.gets).map((c) => c.id).sort().join();
+
+  async function save() {
+    setState({ kind: "saving" });
+    try {
+      const { settings: next } = await api<{ settings: JobEmailSettings }>(`/api/jobs/${jobId}/email-settings`, { method: "PUT", body: { emailOff: !emailOn, contactIds: chosen } });
+      setSettings(next);
+      setState({ kind: "saved" });
+    } catch (err) {
+      setState({ kind: "error", message: failureText(err) });
+    }
+  }
+
+  return (
+    <fieldset className="space-y-2" disabled={!office}>
+      <legend className="font-bold">Who gets e-mail about this job</legend>
+      {!office && <p className="text-sm text-ink-soft">The office chooses who gets e-mail.</p>}
+      <label className="flex min-h-11 items-center gap-3 font-semibold">
+        <input type="checkbox" className="h-5 w-5 accent-bay-700" checked={emailOn} onChange={(e) => setEmailOn(e.target.checked)} />
+        E-mail the customer at each stage
+      </label>
+      {!emailOn && <p className="rounded-md bg-warn-100 px-3 py-2 text-sm text-warn-700">⚑ E-mail is off for this job: stage updates are recorded as not sent.</p>}
+      {settings.contacts.length === 0 ? (
+        <p className="text-sm text-ink-soft">The customer has no contacts yet; add one with an e-mail address on the customer page.</p>
+      ) : (
+        <ul className="space-y-1">
+          {settings.contacts.map((c) => (
+            <li key={c.id}>
+              <label className="flex min-h-11 items-center gap-3" htmlFor={`${ids}-${c.id}`}>
+                <input
+                  id={`${ids}-${c.id}`}
+                  type="checkbox"
+                  className="h-5 w-5 accent-bay-700"
+                  disabled={!c.email || !emailOn}
+                  checked={chosen.includes(c.id)}
+                  onChange={(e) => setChosen((list) => (e.target.checked ? [...list, c.id] : list.filter((id) => id !== c.id)))}
+                />
+                <span>
+                  {c.name} <span className="text-ink-soft">· {c.email || "no e-mail address"}</span>
+                </span>
+              </label>
+            </li>
+          ))}
+        </ul>
+      )}
+      {!settings.recipientsChosen && <p className="text-sm text-ink-soft">Until the office saves a choice, e-mail goes to the contacts marked “receives e-mail” on the customer page.</p>}
+      {office && (
+        <div className="flex items-center gap-3">
+          <button type="button" className={buttonClass.primary} disabled={!dirty || state.kind === "saving"} onClick={save}>
+            {state.kind === "saving" ? "Saving…" : "Save e-mail choices"}
+          </button>
+          {state.kind === "saved" && !dirty && <span role="status" className="text-sm font-medium text-ok-700">✓ Saved</span>}
+          {state.kind === "error" && (
+            <span role="alert" className="text-sm font-medium text-stop-700">
+              ⚠ {state.message}
+            </span>
+          )}
+        </div>
+      )}
+    </fieldset>
+  );
+}
+
+const STATE_WORDS: Record<MessageRow["state"], { icon: string; word: string; tone: string }> = {
+  sent: { icon: "✓", word: "Sent", tone: "bg-ok-100 text-ok-700" },
+  waiting: { icon: "…", word: "Waiting to send", tone: "bg-bay-50 text-bay-900" },
+  retrying: { icon: "↻", word: "Retrying", tone: "bg-warn-100 text-warn-700" },
+  failed: { icon: "⚠", word: "Failed", tone: "bg-stop-100 text-stop-700" },
+  skipped: { icon: "–", word: "Not sent", tone: "bg-paper text-ink-soft" },
+};
+
+function MessageList({ jobId, office, emailConfigured, initial }: { jobId: number; office: boolean; emailConfigured: boolean; initial: MessageRow[] }) {
+  const queryClient = useQueryClient();
+  const messages = useQuery({
+    queryKey: keys.messages(jobId),
+    queryFn: () => api<{ messages: MessageRow[] }>(`/api/jobs/${jobId}/messages`).then((r) => r.messages),
+    initialData: initial,
+    // While something is on its way, keep the list current without a reload.
+    refetchInterval: (q) => (q.state.data?.some((m) => m.state === "waiting" || m.state === "retrying") ? 3_000 : 30_000),
+  });
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState<string | null>(null);
+
+  async function resend(id: string) {
+    setBusy(id);
+    setError(null);
+    try {
+      await api(`/api/messages/${id}/resend`, { method: "POST" });
+    } catch (err) {
+      setError(failureText(err));
+    } finally {
+      setBusy(null);
+      await queryClient.invalidateQueries({ queryKey: keys.messages(jobId) });
+    }
+  }
+
+  return (
+    <div className="space-y-2">
+      <h3 className="font-bold">Messages to the customer</h3>
+      {!emailConfigured && <p className="rounded-md bg-warn-100 px-3 py-2 text-sm text-warn-700">⚑ E-mail is not set up on this server (RESEND_API_KEY): messages wait here until it is.</p>}
+      {error && (
+        <p role="alert" className="rounded-md bg-stop-100 px-3 py-2 text-sm font-medium text-stop-700">
+          ⚠ {error}
+        </p>
+      )}
+      {messages.data.length === 0 ? (
+        <p className="text-ink-soft">No messages yet: the customer is e-mailed when the job moves to a new stage.</p>
+      ) : (
+        <ul className="divide-y divide-line rounded-md border border-line" data-testid="message-list">
+          {messages.data.map((m) => {
+            const s = STATE_WORDS[m.state];
+            return (
+              <li key={m.id} className="space-y-1 p-3">
+                <div className="flex flex-wrap items-center justify-between gap-2">
+                  <p className="font-semibold">
+                    {m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
+                    {m.resendOf && <span className="font-normal text-ink-soft"> · sent again</span>}
+                  </p>
+                  <span className={`rounded-full px-2.5 py-0.5 text-sm font-semibold ${s.tone}`}>
+                    <span aria-hidden="true">{s.icon}</span> {s.word}
+                    {m.state === "sent" && m.sentAt ? ` ${when(m.sentAt)}` : ""}
+                  </span>
+                </div>
+                <p className="text-sm text-ink-soft">
+                  Queued {when(m.createdAt)}
+                  {m.recipients.length > 0 && ` · to ${m.recipients.join(", ")}`}
+                  {m.subject && ` · “${m.subject}”`}
+                </p>
+                {m.state === "retrying" && (
+                  <p className="text-sm text-warn-700">
+                    Attempt {m.attempts} did not go through: {m.reason}
+                    {m.nextAttemptAt && ` Next try about ${format(parseISO(m.nextAttemptAt), "HH:mm")}.`}
+                  </p>
+                )}
+                {(m.state === "failed" || m.state === "skipped") && m.reason && <p className={`text-sm ${m.state === "failed" ? "text-stop-700" : "text-ink-soft"}`}>{m.reason}</p>}
+                {m.state === "sent" && m.reason && <p className="text-sm text-ink-soft">{m.reason}</p>}
+                {office && m.state !== "waiting" && m.state !== "retrying" && (
+                  <button type="button" className={buttonClass.secondary} disabled={busy === m.id} onClick={() => resend(m.id)}>
+                    {busy === m.id ? "Queuing…" : "Send again"}
+                  </button>
+                )}
+              </li>
+            );
+          })}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+function ShopNotifyBox({ initial }: { initial: NotifySettings }) {
+  const [stages, setStages] = useState<Stage[]>(initial.notifyStages);
+  const [days, setDays] = useState(String(initial.statusLinkDays));
+  const [state, setState] = useState<{ kind: "idle" | "saving" | "saved" } | { kind: "error"; message: string; fields: Record<string, string[]> }>({ kind: "idle" });
+  const ids = useId();
+
+  async function save() {
+    setState({ kind: "saving" });
+    try {
+      const { settings } = await api<{ settings: NotifySettings }>("/api/notify-settings", { method: "PUT", body: { notifyStages: stages, statusLinkDays: Number(days) } });
+      setStages(settings.notifyStages);
+      setDays(String(settings.statusLinkDays));
+      setState({ kind: "saved" });
+    } catch (err) {
+      setState({ kind: "error", message: failureText(err), fields: err instanceof ApiRequestError ? err.failure.fields : {} });
+    }
+  }
+  const daysError = state.kind === "error" ? state.fields.statusLinkDays?.join(" ") : undefined;
+
+  return (
+    <details className="rounded-md border border-line p-3">
+      <summary className="min-h-11 cursor-pointer py-2 font-bold">Shop-wide e-mail settings</summary>
+      <div className="mt-2 space-y-3">
+        <fieldset>
+          <legend className="text-sm font-semibold">E-mail the customer when a job reaches</legend>
+          <ul className="mt-1 grid grid-cols-1 gap-1 sm:grid-cols-2">
+            {STAGES.map((s) => (
+              <li key={s}>
+                <label className="flex min-h-11 items-center gap-3">
+                  <input type="checkbox" className="h-5 w-5 accent-bay-700" checked={stages.includes(s)} onChange={(e) => setStages((list) => (e.target.checked ? [...list, s] : list.filter((x) => x !== s)))} />
+                  {STAGE_LABELS[s]}
+                </label>
+              </li>
+            ))}
+          </ul>
+        </fieldset>
+        <div className="space-y-1">
+          <label htmlFor={`${ids}-days`} className="block text-sm font-semibold">
+            Status links keep working after delivery for (days)
+          </label>
+          <input id={`${ids}-days`} type="number" inputMode="numeric" min={1} max={365} value={days} onChange={(e) => setDays(e.target.value)} aria-invalid={Boolean(daysError)} aria-describedby={`${ids}-days-msg`} className={`${inputClass} max-w-40`} />
+          <p id={`${ids}-days-msg`} aria-live="polite" className={daysError ? "text-sm font-medium text-stop-700" : "text-sm text-ink-soft"}>
+            {daysError ? `⚠ ${daysError}` : "Before delivery a link never ends."}
+          </p>
+        </div>
+        <div className="flex items-center gap-3">
+          <button type="button" className={buttonClass.primary} disabled={state.kind === "saving"} onClick={save}>
+            {state.kind === "saving" ? "Saving…" : "Save shop settings"}
+          </button>
+          {state.kind === "saved" && <span role="status" className="text-sm font-medium text-ok-700">✓ Saved for every job</span>}
+          {state.kind === "error" && !daysError && (
+            <span role="alert" className="text-sm font-medium text-stop-700">
+              ⚠ {state.message}
+            </span>
+          )}
+        </div>
+      </div>
+    </details>
+  );
+}

@@ -1,0 +1,148 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useId, useState } from "react";
+import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
+import type { PartKind, PartMaterial, PartShape } from "@/db/tables/records";
+import type { PartView } from "@/server/records/queries";
+import { PART_KINDS, PART_MATERIALS, PART_SHAPES, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/schemas";
+
+/** Adds a part to the job, or edits one. A reservoir may carry its geometry (inside dimensions, inches). */
+export function PartForm({ jobId, part, onDone, onCancel }: { jobId: number; part?: PartView; onDone: () => void; onCancel: () => void }) {
+  const router = useRouter();
+  const id = useId();
+  const [kind, setKind] = useState<PartKind>(part?.kind ?? "reservoir");
+  const [shape, setShape] = useState<PartShape>(part?.shape ?? "round");
+  const [needsLeakTest, setNeedsLeakTest] = useState(part?.needsLeakTest ?? true);
+  const geometry = part?.geometry;
+
+  const form = useApiForm(
+    (v) => {
+      const dims =
+        shape === "round"
+          ? { insideDiameterIn: num(v.insideDiameterIn), lengthIn: num(v.lengthIn) }
+          : { lengthIn: num(v.lengthIn), widthIn: num(v.widthIn), heightIn: num(v.heightIn) };
+      const anyDim = Object.values(dims).some((d) => d !== undefined);
+      const body = {
+        name: str(v.name),
+        kind,
+        material: str(v.material),
+        shape: kind === "reservoir" || kind === "box" ? shape : "other",
+        geometry: kind === "reservoir" && shape !== "other" && anyDim ? { shape, ...dims } : null,
+        needsLeakTest: kind === "reservoir" ? true : needsLeakTest,
+        needsCoating: v.needsCoating === "on",
+        notes: str(v.notes),
+      };
+      return part ? { path: `/api/parts/${part.id}`, method: "PATCH", body } : { path: `/api/jobs/${jobId}/parts`, body };
+    },
+    () => {
+      router.refresh();
+      onDone();
+    },
+  );
+
+  const dimension = (name: "insideDiameterIn" | "lengthIn" | "widthIn" | "heightIn", label: string) => (
+    <Field label={label} name={name} errors={form.fields[`geometry.${name}`]}>
+      {(p) => <input {...p} type="text" inputMode="decimal" autoComplete="off" defaultValue={geometry && name in geometry ? String((geometry as unknown as Record<string, number>)[name]) : ""} className={inputClass} />}
+    </Field>
+  );
+
+  return (
+    <form onSubmit={form.onSubmit} noValidate className="space-y-3 rounded-md border border-line bg-paper p-3" aria-label={part ? `Edit ${part.name}` : "Add a part"}>
+      <FormAlert failure={form.failure} />
+      <Field label="Part" name="name" errors={form.fields.name} hint="As the shop calls it, e.g. 40 gal round reservoir.">
+        {(p) => <input {...p} defaultValue={part?.name ?? ""} className={inputClass} />}
+      </Field>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Kind" name="kind" errors={form.fields.kind}>
+          {(p) => (
+            <select
+              {...p}
+              value={kind}
+              onChange={(e) => {
+                const next = e.target.value as PartKind;
+                setKind(next);
+                if (next === "box") setShape("box");
+              }}
+              className={inputClass}
+            >
+              {PART_KINDS.map((k) => (
+                <option key={k} value={k}>{partKindLabels[k]}</option>
+              ))}
+            </select>
+          )}
+        </Field>
+        <Field label="Material" name="material" errors={form.fields.material}>
+          {(p) => (
+            <select {...p} defaultValue={part?.material ?? "aluminum"} className={inputClass}>
+              {PART_MATERIALS.map((m: PartMaterial) => (
+                <option key={m} value={m}>{partMaterialLabels[m]}</option>
+              ))}
+            </select>
+          )}
+        </Field>
+      </div>
+      {(kind === "reservoir" || kind === "box") && (
+        <Field label="Shape" name="shape" errors={form.fields.shape} hint="Sets the usual test pressure and whether pressure decay is valid.">
+          {(p) => (
+            <select {...p} value={shape} onChange={(e) => setShape(e.target.value as PartShape)} className={inputClass}>
+              {PART_SHAPES.map((s) => (
+                <option key={s} value={s}>{partShapeLabels[s]}</option>
+              ))}
+            </select>
+          )}
+        </Field>
+      )}
+      {kind === "reservoir" && shape !== "other" && (
+        <fieldset className="grid gap-3 rounded-md border border-line p-3 sm:grid-cols-3">
+          <legend className="px-1 text-sm font-semibold">Tank geometry, inside dimensions (optional)</legend>
+          {form.fields.geometry && <p className="text-sm font-medium text-stop-700 sm:col-span-3">⚠ {form.fields.geometry.join(" ")}</p>}
+          {shape === "round" ? (
+            <>
+              {dimension("insideDiameterIn", "Inside diameter (in)")}
+              {dimension("lengthIn", "Length (in)")}
+            </>
+          ) : (
+            <>
+              {dimension("lengthIn", "Length (in)")}
+              {dimension("widthIn", "Width (in)")}
+              {dimension("heightIn", "Height (in)")}
+            </>
+          )}
+        </fieldset>
+      )}
+      <div className="space-y-2">
+        <label className="flex min-h-11 items-center gap-3">
+          <input
+            type="checkbox"
+            id={`${id}-leak`}
+            checked={kind === "reservoir" ? true : needsLeakTest}
+            disabled={kind === "reservoir"}
+            onChange={(e) => setNeedsLeakTest(e.target.checked)}
+            className="h-5 w-5 accent-bay-700"
+          />
+          <span>
+            Needs a leak test {kind === "reservoir" && <span className="text-sm text-ink-soft">(always, for a reservoir)</span>}
+          </span>
+        </label>
+        {form.fields.needsLeakTest && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.needsLeakTest.join(" ")}</p>}
+        <label className="flex min-h-11 items-center gap-3">
+          <input type="checkbox" name="needsCoating" defaultChecked={part?.needsCoating ?? true} className="h-5 w-5 accent-bay-700" />
+          <span>Goes out for coating</span>
+        </label>
+        {form.fields.needsCoating && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.needsCoating.join(" ")}</p>}
+      </div>
+      <Field label="Notes" name="notes" errors={form.fields.notes}>
+        {(p) => <textarea {...p} rows={2} defaultValue={part?.notes ?? ""} className={inputClass} />}
+      </Field>
+      <div className="flex flex-wrap gap-2">
+        <button type="submit" className={buttonClass.primary} disabled={form.pending}>
+          {form.pending ? "Saving…" : part ? "Save the part" : "Add the part"}
+        </button>
+        <button type="button" className={buttonClass.secondary} onClick={onCancel}>
+          Cancel
+        </button>
+      </div>
+    </form>
+  );
+}

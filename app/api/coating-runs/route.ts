@@ -1,0 +1,28 @@
+import { z } from "zod";
+import { getDb } from "@/db";
+import { requireStaff } from "@/server/auth/session";
+import { json, readJson, respond } from "@/server/http/respond";
+import { createCoatingRun } from "@/server/records/mutations";
+import { listCoatingRuns } from "@/server/records/queries";
+import { coatingRunSchema } from "@/server/records/schemas";
+
+const listFilter = z.object({
+  status: z.enum(["current", "open", "all"], { error: "status is current, open or all." }).default("current"),
+});
+
+export async function GET(req: Request) {
+  return respond(async () => {
+    await requireStaff(req);
+    const raw = Object.fromEntries([...new URL(req.url).searchParams.entries()].filter(([, v]) => v !== ""));
+    return json({ runs: await listCoatingRuns(getDb(), listFilter.parse(raw)) });
+  });
+}
+
+/** The office sends parts out to a coater. */
+export async function POST(req: Request) {
+  return respond(async () => {
+    const actor = await requireStaff(req, ["owner", "office"]);
+    const input = await readJson(req, coatingRunSchema);
+    return json({ run: await createCoatingRun(getDb(), actor, input) }, { status: 201 });
+  });
+}

@@ -1,0 +1,30 @@
+import { getDb } from "@/db";
+import { requireStaff } from "@/server/auth/session";
+import { notFound } from "@/server/http/errors";
+import { json, parseId, readJson, respond } from "@/server/http/respond";
+import { createPart } from "@/server/records/mutations";
+import { listParts } from "@/server/records/queries";
+import { partInputSchema } from "@/server/records/schemas";
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export async function GET(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    await requireStaff(req);
+    const jobId = parseId((await ctx.params).id, "Job");
+    const db = getDb();
+    const job = await db.selectFrom("job").select("id").where("id", "=", jobId).executeTakeFirst();
+    if (!job) throw notFound("That job");
+    return json({ parts: await listParts(db, { jobId }) });
+  });
+}
+
+/** Any staff member adds parts: the fabricator lists what they build, the office what the work order calls for. */
+export async function POST(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    await requireStaff(req);
+    const jobId = parseId((await ctx.params).id, "Job");
+    const input = await readJson(req, partInputSchema);
+    return json({ part: await createPart(getDb(), jobId, input) }, { status: 201 });
+  });
+}

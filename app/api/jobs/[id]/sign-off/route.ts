@@ -1,0 +1,30 @@
+import { getDb } from "@/db";
+import { requireStaff } from "@/server/auth/session";
+import { notFound } from "@/server/http/errors";
+import { json, parseId, readJson, respond } from "@/server/http/respond";
+import { saveSignOff } from "@/server/records/mutations";
+import { findSignOff } from "@/server/records/queries";
+import { wiringSignOffSchema } from "@/server/records/schemas";
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export async function GET(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    await requireStaff(req);
+    const jobId = parseId((await ctx.params).id, "Job");
+    const db = getDb();
+    const job = await db.selectFrom("job").select("id").where("id", "=", jobId).executeTakeFirst();
+    if (!job) throw notFound("That job");
+    return json({ signOff: await findSignOff(db, jobId) });
+  });
+}
+
+/** Any staff member saves the wiring & run-test sign-off: a draft until nothing is missing. */
+export async function PUT(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    const actor = await requireStaff(req);
+    const jobId = parseId((await ctx.params).id, "Job");
+    const input = await readJson(req, wiringSignOffSchema);
+    return json({ signOff: await saveSignOff(getDb(), actor, jobId, input) });
+  });
+}

@@ -1,0 +1,39 @@
+import { getDb } from "@/db";
+import { requireStaff } from "@/server/auth/session";
+import { notFound } from "@/server/http/errors";
+import { json, parseId, readJson, respond } from "@/server/http/respond";
+import { deletePart, patchPart } from "@/server/records/mutations";
+import { findPart, listLeakTests } from "@/server/records/queries";
+import { partPatchSchema } from "@/server/records/schemas";
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export async function GET(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    await requireStaff(req);
+    const id = parseId((await ctx.params).id, "Part");
+    const db = getDb();
+    const part = await findPart(db, id);
+    if (!part) throw notFound("That part");
+    return json({ part, leakTests: await listLeakTests(db, { partId: id }) });
+  });
+}
+
+/** Any staff member edits a part or marks it reworked (which voids its earlier passing tests). */
+export async function PATCH(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    await requireStaff(req);
+    const id = parseId((await ctx.params).id, "Part");
+    const patch = await readJson(req, partPatchSchema);
+    return json({ part: await patchPart(getDb(), id, patch) });
+  });
+}
+
+export async function DELETE(req: Request, ctx: Ctx) {
+  return respond(async () => {
+    await requireStaff(req);
+    const id = parseId((await ctx.params).id, "Part");
+    await deletePart(getDb(), id);
+    return new Response(null, { status: 204 });
+  });
+}

@@ -1,0 +1,114 @@
+import type { Generated } from "kysely";
+
+export type PartKind = "reservoir" | "box" | "bracket" | "other";
+export type PartMaterial = "aluminum" | "stainless" | "carbon_steel";
+export type PartShape = "round" | "box" | "other";
+
+export interface PartTable {
+  id: Generated<number>;
+  job_id: number;
+  name: string;
+  kind: PartKind;
+  material: PartMaterial;
+  shape: PartShape;
+  /** JSON of the reservoir's geometry ({ shape, insideDiameterIn, lengthIn } or { shape, lengthIn, widthIn, heightIn }). */
+  geometry: string | null;
+  needs_leak_test: number;
+  needs_coating: number;
+  notes: string;
+  /** Bumped by every rework; a leak test counts only for the generation it was recorded in. */
+  rework_count: number;
+  reworked_at: string | null;
+  rework_note: string;
+  created_at: string;
+  updated_at: string;
+}
+
+export interface LeakTestTable {
+  id: Generated<number>;
+  part_id: number;
+  rework_count: number;
+  method: "soap" | "decay" | "both";
+  part_shape: PartShape;
+  test_pressure_psig: number;
+  gauge_full_scale_psi: number;
+  gauge_calibrated_on: string;
+  hold_minutes: number;
+  start_pressure_psig: number;
+  end_pressure_psig: number;
+  start_temp_f: number;
+  end_temp_f: number;
+  barometric_psia: number;
+  /** JSON array of { location, result: "pass" | "leak" }. */
+  seams: string;
+  tester: string;
+  raw_drop_psi: number;
+  corrected_drop_psi: number;
+  allowed_drop_psi: number;
+  result: "pass" | "fail";
+  /** JSON array of { code, message }. */
+  warnings: string;
+  recorded_by: string | null;
+  tested_at: string;
+}
+
+export interface VendorTable {
+  id: Generated<number>;
+  name: string;
+  contact: string;
+  phone: string;
+  email: string;
+  usual_turnaround_days: number;
+  notes: string;
+  created_at: string;
+}
+
+export interface CoatingRunTable {
+  id: Generated<number>;
+  vendor_id: number;
+  finish_colour: string;
+  finish_gloss: string;
+  sent_on: string;
+  promised_on: string;
+  received_on: string | null;
+  /** JSON array of dry-film-thickness readings, mils. */
+  dft_readings_mils: string | null;
+  adhesion_ok: number | null;
+  defects: string | null;
+  inspected_at: string | null;
+  inspected_by: string | null;
+  created_by: string | null;
+  created_at: string;
+  updated_at: string;
+}
+
+export interface CoatingRunPartTable {
+  run_id: number;
+  part_id: number;
+  /** 1 while the run is out at the coater. */
+  open: number;
+}
+
+export interface SignOffTable {
+  id: Generated<number>;
+  job_id: number;
+  /** JSON of the saved sign-off fields (WiringSignOff). */
+  fields: string;
+  complete: number;
+  signed_by: string | null;
+  signed_by_staff_id: string | null;
+  signed_at: string | null;
+  updated_by: string | null;
+  created_at: string;
+  updated_at: string;
+}
+
+/** Tables of the shop's records (parts, leak tests, vendors, coating runs, sign-off). Filled by migration 0003. */
+export interface RecordsTables {
+  part: PartTable;
+  leak_test: LeakTestTable;
+  vendor: VendorTable;
+  coating_run: CoatingRunTable;
+  coating_run_part: CoatingRunPartTable;
+  sign_off: SignOffTable;
+}

@@ -1,0 +1,346 @@
+import "server-only";
+import { type Transaction, sql } from "kysely";
+import type { DB } from "@/db";
+import type { Database } from "@/db/schema";
+import type { StaffUser } from "@/server/auth/session";
+import { ApiError, notFound } from "@/server/http/errors";
+import { evaluateLeakTest, type LeakTestOutcome } from "./leak-test";
+import {
+  type CoatingRunView,
+  type LeakTestView,
+  type PartView,
+  type SignOffView,
+  type VendorView,
+  findCoatingRun,
+  findPart,
+  findSignOff,
+  findVendor,
+  listLeakTests,
+  recordsSettings,
+  signOffFields,
+} from "./queries";
+import {
+  type CoatingRunInput,
+  type CoatingRunPatch,
+  type LeakTestRequest,
+  type PartInput,
+  type PartPatch,
+  type VendorInput,
+  type WiringSignOff,
+  partProblems,
+} from "./schemas";
+import { signOffMissing } from "./sign-off";
+import { shopToday } from "./turnaround";
+
+type Trx = Transaction<Database>;
+
+function fieldErrors(fields: Record<string, string>, message?: string) {
+  const names = Object.keys(fields);
+  return new ApiError("validation", message ?? `Check ${names.slice(0, 4).join(", ")}: ${fields[names[0]]}`, {
+    fields: Object.fromEntries(names.map((name) => [name, [fields[name]]])),
+  });
+}
+
+async function todayIn(trx: Trx, now: Date) {
+  const settings = await recordsSettings(trx);
+  return { settings, today: shopToday({ now, timeZone: settings.timeZone }) };
+}
+
+async function assertJob(trx: Trx, jobId: number) {
+  const job = await trx.selectFrom("job").select(["id", "stage"]).where("id", "=", jobId).executeTakeFirst();
+  if (!job) throw notFound("That job");
+  return job;
+}
+
+export async function createPart(db: DB, jobId: number, input: PartInput): Promise<PartView> {
+  const id = await db.transaction().execute(async (trx) => {
+    await assertJob(trx, jobId);
+    const at = new Date().toISOString();
+    const row = await trx
+      .insertInto("part")
+      .values({
+        job_id: jobId, name: input.name, kind: input.kind, material: input.material, shape: input.shape,
+        geometry: input.geometry ? JSON.stringify(input.geometry) : null, needs_leak_test: input.needsLeakTest ? 1 : 0,
+        needs_coating: input.needsCoating ? 1 : 0, notes: input.notes, rework_count: 0, reworked_at: null, rework_note: "",
+        created_at: at, updated_at: at,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    return row.id;
+  });
+  return (await findPart(db, id))!;
+}
+
+async function openRunOf(trx: Trx, partIds: readonly number[]) {
+  if (partIds.length === 0) return new Map<number, { runId: number; vendorName: string }>();
+  const rows = await trx
+    .selectFrom("coating_run_part as c")
+    .innerJoin("coating_run as r", "r.id", "c.run_id")
+    .innerJoin("vendor as v", "v.id", "r.vendor_id")
+    .select(["c.part_id", "c.run_id", "v.name"])
+    .where("c.open", "=", 1)
+    .where("c.part_id", "in", partIds)
+    .execute();
+  return new Map(rows.map((r) => [r.part_id, { runId: r.run_id, vendorName: r.name }]));
+}
+
+/** Edits a part. `reworked: true` starts a new generation, so every earlier test of the part stops counting. */
+export async function patchPart(db: DB, partId: number, patch: PartPatch): Promise<PartView> {
+  await db.transaction().execute(async (trx) => {
+    const part = await trx.selectFrom("part").selectAll().where("id", "=", partId).executeTakeFirst();
+    if (!part) throw notFound("That part");
+    const merged = {
+      kind: patch.kind ?? part.kind,
+      shape: patch.shape ?? (patch.geometry ? patch.geometry.shape : part.shape),
+      geometry: patch.geometry !== undefined ? patch.geometry : part.geometry ? JSON.parse(part.geometry) : null,
+      needsLeakTest: patch.needsLeakTest ?? part.needs_leak_test === 1,
+    };
+    const problems = Object.fromEntries(partProblems(merged).map((p) => [p.path, p.message]));
+    if (patch.needsCoating === false && part.needs_coating === 1) {
+      const out = (await openRunOf(trx, [partId])).get(partId);
+      if (out) problems.needsCoating = `The part is out on coating run ${out.runId} with ${out.vendorName}; mark that run received first.`;
+    }
+    if (Object.keys(problems).length) throw fieldErrors(problems);
+    const at = new Date().toISOString();
+    await trx
+      .updateTable("part")
+      .set({
+        ...(patch.name !== undefined ? { name: patch.name } : {}),
+        ...(patch.material !== undefined ? { material: patch.material } : {}),
+        ...(patch.needsCoating !== undefined ? { needs_coating: patch.needsCoating ? 1 : 0 } : {}),
+        ...(patch.notes !== undefined ? { notes: patch.notes } : {}),
+        kind: merged.kind,
+        shape: merged.shape,
+        geometry: merged.geometry ? JSON.stringify(merged.geometry) : null,
+        needs_leak_test: merged.needsLeakTest ? 1 : 0,
+        ...(patch.reworked
+          ? { rework_count: part.rework_count + 1, reworked_at: at, rework_note: patch.reworkNote ?? "" }
+          : patch.reworkNote !== undefined
+            ? { rework_note: patch.reworkNote }
+            : {}),
+        updated_at: at,
+      })
+      .where("id", "=", partId)
+      .execute();
+  });
+  return (await findPart(db, partId))!;
+}
+
+/** A part added by mistake can go while nothing is recorded against it; tests and runs are kept for good. */
+export async function deletePart(db: DB, partId: number): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const part = await trx.selectFrom("part").select("id").where("id", "=", partId).executeTakeFirst();
+    if (!part) throw notFound("That part");
+    const test = await trx.selectFrom("leak_test").select("id").where("part_id", "=", partId).limit(1).executeTakeFirst();
+    const run = await trx.selectFrom("coating_run_part").select("run_id").where("part_id", "=", partId).limit(1).executeTakeFirst();
+    if (test || run) {
+      throw new ApiError("conflict", "This part has a leak test or coating run on record, and records are kept. Edit the part instead.");
+    }
+    await trx.deleteFrom("part").where("id", "=", partId).execute();
+  });
+}
+
+export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi" | "result" | "warnings"> {
+  test: LeakTestView;
+}
+
+/** Records a leak test: the server corrects the drop for temperature and decides it against the shop's allowance. */
+export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, input: LeakTestRequest, now = new Date()): Promise<LeakTestAnswer> {
+  const { testId, outcome } = await db.transaction().execute(async (trx) => {
+    const part = await trx
+      .selectFrom("part as p")
+      .innerJoin("job as j", "j.id", "p.job_id")
+      .select(["p.id", "p.job_id", "p.shape", "p.rework_count", "j.work_order"])
+      .where("p.id", "=", partId)
+      .executeTakeFirst();
+    if (!part) throw notFound("That part");
+    if (input.jobId !== undefined && input.jobId !== part.job_id) {
+      throw fieldErrors({ jobId: `This part belongs to work order ${part.work_order}, not the job the form was opened from; reload the job page.` });
+    }
+    const { settings, today } = await todayIn(trx, now);
+    const { jobId: _jobId, ...test } = input;
+    const outcome = evaluateLeakTest(test, { partShape: part.shape, allowedDropPsi: settings.allowedDropPsi, today });
+    const row = await trx
+      .insertInto("leak_test")
+      .values({
+        part_id: partId, rework_count: part.rework_count, method: test.method, part_shape: part.shape,
+        test_pressure_psig: test.testPressurePsig, gauge_full_scale_psi: test.gaugeFullScalePsi, gauge_calibrated_on: test.gaugeCalibratedOn,
+        hold_minutes: test.holdMinutes, start_pressure_psig: test.startPressurePsig, end_pressure_psig: test.endPressurePsig,
+        start_temp_f: test.startTempF, end_temp_f: test.endTempF, barometric_psia: test.barometricPsia, seams: JSON.stringify(test.seams),
+        tester: test.tester, raw_drop_psi: outcome.rawDropPsi, corrected_drop_psi: outcome.correctedDropPsi,
+        allowed_drop_psi: settings.allowedDropPsi, result: outcome.result, warnings: JSON.stringify(outcome.warnings),
+        recorded_by: actor.id, tested_at: now.toISOString(),
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    return { testId: row.id, outcome };
+  });
+  const [test] = await listLeakTests(db, { testId });
+  return { correctedDropPsi: outcome.correctedDropPsi, result: outcome.result, warnings: outcome.warnings, test };
+}
+
+export async function createVendor(db: DB, input: VendorInput): Promise<VendorView> {
+  const id = await db.transaction().execute(async (trx) => {
+    const same = await trx.selectFrom("vendor").select("id").where(sql<boolean>`name = ${input.name} collate nocase`).executeTakeFirst();
+    if (same) throw fieldErrors({ name: `A coater named “${input.name}” is already on the list.` });
+    const row = await trx
+      .insertInto("vendor")
+      .values({
+        name: input.name, contact: input.contact, phone: input.phone, email: input.email,
+        usual_turnaround_days: input.usualTurnaroundDays, notes: input.notes, created_at: new Date().toISOString(),
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    return row.id;
+  });
+  return (await findVendor(db, id))!;
+}
+
+const TEST_FIRST = "has no passing leak test since its last rework; a tank is tested before it is coated.";
+
+/** Sends parts out on a coating run. Every part is checked; each refusal names its place in the list. */
+export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingRunInput, now = new Date()): Promise<CoatingRunView> {
+  const id = await db.transaction().execute(async (trx) => {
+    const { today } = await todayIn(trx, now);
+    const problems: Record<string, string> = {};
+    if (input.sentOn > today) problems.sentOn = `The sent date cannot be after today (${today}).`;
+    if (input.receivedOn && input.receivedOn > today) problems.receivedOn = `The received date cannot be after today (${today}).`;
+    const vendor = await trx.selectFrom("vendor").select("id").where("id", "=", input.vendorId).executeTakeFirst();
+    if (!vendor) problems.vendorId = "That coater is not on the vendors list.";
+
+    const parts = await trx
+      .selectFrom("part as p")
+      .innerJoin("job as j", "j.id", "p.job_id")
+      .select((eb) => [
+        "p.id", "p.name", "p.needs_coating", "p.needs_leak_test", "j.work_order", "j.stage",
+        eb
+          .exists(
+            eb
+              .selectFrom("leak_test as t")
+              .select("t.id")
+              .whereRef("t.part_id", "=", "p.id")
+              .whereRef("t.rework_count", "=", "p.rework_count")
+              .where("t.result", "=", "pass"),
+          )
+          .$castTo<number>()
+          .as("passed"),
+      ])
+      .where("p.id", "in", input.partIds)
+      .execute();
+    const byId = new Map(parts.map((p) => [p.id, p]));
+    const out = await openRunOf(trx, input.partIds);
+    input.partIds.forEach((partId, index) => {
+      const part = byId.get(partId);
+      const field = `partIds.${index}`;
+      if (!part) problems[field] = `Part ${partId} is not on file.`;
+      else if (part.stage === "delivered") problems[field] = `${part.name} (${part.work_order}) is on a delivered job.`;
+      else if (part.needs_coating !== 1) problems[field] = `${part.name} (${part.work_order}) is not marked for outside coating.`;
+      else if (out.has(partId)) problems[field] = `${part.name} (${part.work_order}) is already out on coating run ${out.get(partId)!.runId} with ${out.get(partId)!.vendorName}.`;
+      else if (part.needs_leak_test === 1 && part.passed !== 1) problems[field] = `${part.name} (${part.work_order}) ${TEST_FIRST}`;
+    });
+    if (Object.keys(problems).length) throw fieldErrors(problems);
+
+    const at = now.toISOString();
+    const run = await trx
+      .insertInto("coating_run")
+      .values({
+        vendor_id: input.vendorId, finish_colour: input.finish.colour, finish_gloss: input.finish.gloss, sent_on: input.sentOn,
+        promised_on: input.promisedOn, received_on: input.receivedOn ?? null, dft_readings_mils: null, adhesion_ok: null, defects: null,
+        inspected_at: null, inspected_by: null, created_by: actor.id, created_at: at, updated_at: at,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await trx
+      .insertInto("coating_run_part")
+      .values(input.partIds.map((partId) => ({ run_id: run.id, part_id: partId, open: input.receivedOn ? 0 : 1 })))
+      .execute();
+    return run.id;
+  });
+  return (await findCoatingRun(db, id, now))!;
+}
+
+/**
+ * Marks a run received, moves its promise, or records the receiving inspection. Receiving closes
+ * the run for its parts; a received date can be corrected but not taken back.
+ */
+export async function patchCoatingRun(db: DB, actor: StaffUser, runId: number, patch: CoatingRunPatch, now = new Date()): Promise<CoatingRunView> {
+  if (patch.promisedOn !== undefined && actor.role === "tech") {
+    throw new ApiError("forbidden", "The office keeps the coater's promised date; a tech can mark a run received and record its inspection.");
+  }
+  await db.transaction().execute(async (trx) => {
+    const run = await trx.selectFrom("coating_run").select(["id", "sent_on", "received_on"]).where("id", "=", runId).executeTakeFirst();
+    if (!run) throw notFound("That coating run");
+    const { today } = await todayIn(trx, now);
+    const problems: Record<string, string> = {};
+    if (patch.receivedOn !== undefined) {
+      if (patch.receivedOn < run.sent_on) problems.receivedOn = `The received date cannot be before the sent date (${run.sent_on}).`;
+      else if (patch.receivedOn > today) problems.receivedOn = `The received date cannot be after today (${today}).`;
+    }
+    if (patch.promisedOn !== undefined && patch.promisedOn < run.sent_on) {
+      problems.promisedOn = `The promised date cannot be before the sent date (${run.sent_on}).`;
+    }
+    if (patch.inspection && !(patch.receivedOn ?? run.received_on)) {
+      problems.inspection = "Mark the run received before recording its receiving inspection.";
+    }
+    if (Object.keys(problems).length) throw fieldErrors(problems);
+
+    const at = now.toISOString();
+    await trx
+      .updateTable("coating_run")
+      .set({
+        ...(patch.receivedOn !== undefined ? { received_on: patch.receivedOn } : {}),
+        ...(patch.promisedOn !== undefined ? { promised_on: patch.promisedOn } : {}),
+        ...(patch.inspection
+          ? {
+              dft_readings_mils: JSON.stringify(patch.inspection.dftReadingsMils),
+              adhesion_ok: patch.inspection.adhesionOk ? 1 : 0,
+              defects: patch.inspection.defects,
+              inspected_at: at,
+              inspected_by: actor.id,
+            }
+          : {}),
+        updated_at: at,
+      })
+      .where("id", "=", runId)
+      .execute();
+    if (patch.receivedOn !== undefined) await trx.updateTable("coating_run_part").set({ open: 0 }).where("run_id", "=", runId).execute();
+  });
+  return (await findCoatingRun(db, runId, now))!;
+}
+
+/**
+ * Saves the wiring & run-test sign-off, complete or not. It is complete when nothing is missing;
+ * then the staff member who saved it and the time are kept with the signed name. Saving the same
+ * complete record again keeps the first signature.
+ */
+export async function saveSignOff(db: DB, actor: StaffUser, jobId: number, input: WiringSignOff, now = new Date()): Promise<SignOffView> {
+  await db.transaction().execute(async (trx) => {
+    await assertJob(trx, jobId);
+    const fields: WiringSignOff = { ...input, signedBy: input.signedBy?.trim() || null };
+    const text = JSON.stringify(fields);
+    const complete = signOffMissing(fields).length === 0;
+    const existing = await trx.selectFrom("sign_off").select(["fields", "complete", "signed_at", "signed_by_staff_id"]).where("job_id", "=", jobId).executeTakeFirst();
+    const at = now.toISOString();
+    const unchanged = existing?.complete === 1 && JSON.stringify(signOffFields(existing.fields)) === text;
+    const signature = complete
+      ? {
+          signed_by: fields.signedBy!,
+          signed_at: unchanged ? existing!.signed_at : at,
+          signed_by_staff_id: unchanged ? existing!.signed_by_staff_id : actor.id,
+        }
+      : { signed_by: null, signed_at: null, signed_by_staff_id: null };
+    const values = { fields: text, complete: complete ? 1 : 0, ...signature, updated_by: actor.id, updated_at: at };
+    if (existing) await trx.updateTable("sign_off").set(values).where("job_id", "=", jobId).execute();
+    else await trx.insertInto("sign_off").values({ job_id: jobId, created_at: at, ...values }).execute();
+  });
+  return (await findSignOff(db, jobId))!;
+}
+
+export async function updateLeakAllowance(db: DB, allowedDropPsi: number): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const shop = await trx.selectFrom("shop").select("id").where("id", "=", 1).executeTakeFirst();
+    if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
+    // The column is this area's own addition to the shop table (migration 0003), so it is written by name.
+    await sql`update shop set leak_allowed_drop_psi = ${allowedDropPsi} where id = 1`.execute(trx);
+  });
+}
