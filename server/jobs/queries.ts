@@ -1,6 +1,8 @@
 import "server-only";
 import type { DB } from "@/db";
 import type { Stage } from "@/db/schema";
+import { notFound } from "@/server/http/errors";
+import { parseId } from "@/server/http/respond";
 
 /** The job as staff see it, with names resolved. */
 export async function findJob(db: DB, id: number) {
@@ -58,4 +60,12 @@ export async function listJobs(db: DB, filter: JobListFilter = {}) {
     query = query.where((eb) => eb.or([eb(eb.fn("upper", ["job.work_order"]), "like", q), eb(eb.fn("upper", ["truck.unit_number"]), "like", q), eb(eb.fn("upper", ["customer.name"]), "like", q)]));
   }
   return query.orderBy("job.id", "desc").limit(filter.limit ?? 500).execute();
+}
+
+/** A job id from a route: 400 when it is not an id, 404 when no such job exists. */
+export async function existingJobId(db: DB, raw: string): Promise<number> {
+  const id = parseId(raw, "Job");
+  const job = await db.selectFrom("job").select("id").where("id", "=", id).executeTakeFirst();
+  if (!job) throw notFound("That job");
+  return id;
 }

@@ -1,10 +1,9 @@
 import { getDb } from "@/db";
+import { existingJobId } from "@/server/jobs/queries";
 import { requireStaff } from "@/server/auth/session";
-import { notFound } from "@/server/http/errors";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
 import { saveKitSpec } from "@/server/kit-spec/mutations";
 import { latestKitSpec } from "@/server/kit-spec/queries";
-
 import { kitSpecSaveSchema } from "@/server/kit-spec/schemas";
 
 export const dynamic = "force-dynamic";
@@ -12,10 +11,8 @@ export const dynamic = "force-dynamic";
 export async function GET(req: Request, ctx: { params: Promise<{ id: string }> }) {
   return respond(async () => {
     await requireStaff(req);
-    const id = parseId((await ctx.params).id, "Job");
     const db = getDb();
-    const job = await db.selectFrom("job").select("id").where("id", "=", id).executeTakeFirst();
-    if (!job) throw notFound("That job");
+    const id = await existingJobId(db, (await ctx.params).id);
     return json({ spec: await latestKitSpec(db, id) });
   });
 }

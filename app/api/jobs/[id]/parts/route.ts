@@ -1,6 +1,6 @@
 import { getDb } from "@/db";
+import { existingJobId } from "@/server/jobs/queries";
 import { requireStaff } from "@/server/auth/session";
-import { notFound } from "@/server/http/errors";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
 import { createPart } from "@/server/records/mutations";
 import { listParts } from "@/server/records/queries";
@@ -11,10 +11,8 @@ type Ctx = { params: Promise<{ id: string }> };
 export async function GET(req: Request, ctx: Ctx) {
   return respond(async () => {
     await requireStaff(req);
-    const jobId = parseId((await ctx.params).id, "Job");
     const db = getDb();
-    const job = await db.selectFrom("job").select("id").where("id", "=", jobId).executeTakeFirst();
-    if (!job) throw notFound("That job");
+    const jobId = await existingJobId(db, (await ctx.params).id);
     return json({ parts: await listParts(db, { jobId }) });
   });
 }
