@@ -40,8 +40,7 @@ export async function readJson<S extends z.ZodType>(req: Request, schema: S): Pr
   if (!type.toLowerCase().startsWith("application/json")) {
     throw new ApiError("unsupported_media_type", "Send the request as JSON (Content-Type: application/json).");
   }
-  const text = await req.text();
-  if (text.length > MAX_BODY_BYTES) throw new ApiError("validation", "The request is too large.");
+  const text = await readCapped(req, MAX_BODY_BYTES);
   let raw: unknown;
   try {
     raw = JSON.parse(text);
@@ -58,6 +57,28 @@ export async function readJson<S extends z.ZodType>(req: Request, schema: S): Pr
   const parsed = schema.safeParse(raw);
   if (!parsed.success) throw validationError(parsed.error);
   return parsed.data;
+}
+
+/** Reads a body but stops at the cap, so nobody can fill the server's memory with one request. */
+async function readCapped(req: Request, cap: number): Promise<string> {
+  const tooLarge = () => new ApiError("validation", `The request is too large (at most ${Math.round(cap / 1024)} kB).`);
+  const declared = Number(req.headers.get("content-length") ?? "0");
+  if (declared > cap) throw tooLarge();
+  if (!req.body) return "";
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > cap) {
+      await reader.cancel();
+      throw tooLarge();
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks).toString("utf8");
 }
 
 export function assertSameOrigin(req: Request) {

@@ -5,8 +5,8 @@ import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
 export interface GateRecords {
   /** Parts marked for a leak test, with whether a passing test is newer than their last rework. */
   leakTestParts: { name: string; passedSinceRework: boolean; lastResult: "pass" | "fail" | null }[];
-  /** Parts marked for outside coating, with whether they are back and inspected. */
-  coatedParts: { name: string; received: boolean; inspected: boolean }[];
+  /** Parts marked for outside coating: whether sent (absent means sent), back, and inspected. */
+  coatedParts: { name: string; sent?: boolean; received: boolean; inspected: boolean }[];
   /** The wiring & run-test sign-off: null when none has been started. */
   signOff: { complete: boolean; missing: string[] } | null;
 }
@@ -31,9 +31,11 @@ export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
       return records.coatedParts
         .filter((p) => !p.received || !p.inspected)
         .map((p) =>
-          !p.received
-            ? `${p.name}: still out for coating; mark the coating run received.`
-            : `${p.name}: back from coating; record the receiving inspection.`,
+          p.sent === false
+            ? `${p.name}: not sent for coating yet; send it out on a coating run.`
+            : !p.received
+              ? `${p.name}: still out for coating; mark the coating run received.`
+              : `${p.name}: back from coating; record the receiving inspection.`,
         );
     case "ready":
       if (!records.signOff) return ["Wiring & run-test sign-off: not started."];
@@ -53,8 +55,9 @@ export interface MoveCheck {
 
 /**
  * Decides whether a job may move. Backward moves and reordering are always allowed (a failed
- * leak test sends a job back to fabricate). A forward move must pass every gate it crosses,
- * so skipping a column does not skip its gate.
+ * leak test sends a job back to fabricate). A forward move must meet every gate on the job's
+ * route up to where it goes, not only those it crosses: skipping a column does not skip its
+ * gate, and a tank reworked after it passed must pass again before the job moves on.
  */
 export function checkMove(from: Stage, to: Stage, scope: JobScope, records: GateRecords): MoveCheck {
   const route = stagesFor(scope);
@@ -67,17 +70,23 @@ export function checkMove(from: Stage, to: Stage, scope: JobScope, records: Gate
   }
   if (from === to) return { kind: "reorder", unmet: [], impossible: false };
   if (stageIndex(to) < stageIndex(from)) return { kind: "backward", unmet: [], impossible: false };
-  const crossed = GATED_STAGES.filter(
-    (g) => route.includes(g) && stageIndex(g) > stageIndex(from) && stageIndex(g) <= stageIndex(to),
-  );
-  const unmet = crossed.flatMap((g) => gateUnmet(g, records).map((m) => `Into ${STAGE_LABELS[g]}: ${m}`));
+  const unmet = gatesUpTo(to, route, records);
   return { kind: "forward", unmet, impossible: false };
 }
 
-/** Which gates ahead of the job's current stage are still unmet: shown on the card. */
+function gatesUpTo(to: Stage, route: Stage[], records: GateRecords): string[] {
+  return GATED_STAGES.filter((g) => route.includes(g) && stageIndex(g) <= stageIndex(to)).flatMap((g) =>
+    gateUnmet(g, records).map((m) => `Into ${STAGE_LABELS[g]}: ${m}`),
+  );
+}
+
+/**
+ * The next gate ahead of the job's current stage, with everything that would stop the job
+ * reaching it (an earlier gate broken by rework counts too): shown on the card.
+ */
 export function nextGateState(stage: Stage, scope: JobScope, records: GateRecords): { gate: GatedStage; unmet: string[] } | null {
   const route = stagesFor(scope);
   const next = GATED_STAGES.find((g) => route.includes(g) && stageIndex(g) > stageIndex(stage));
   if (!next) return null;
-  return { gate: next, unmet: gateUnmet(next, records) };
+  return { gate: next, unmet: gatesUpTo(next, route, records) };
 }

@@ -86,8 +86,15 @@ export async function patchJob(db: DB, actor: StaffUser, id: number, patch: JobP
     if (job.version !== patch.version) throw new ApiError("stale", "Someone else changed this job first. Here is the current job; make your change again.", { job: await findJob(trx, id) });
     if (patch.truckId) await assertTruckOfCustomer(trx, patch.truckId, job.customer_id);
     await assertTech(trx, patch.assignedTechId);
-    if (patch.scope === "install_only" && !stagesFor("install_only").includes(job.stage)) {
-      throw fieldError("scope", `The job is in ${STAGE_LABELS[job.stage]}; move it out of the fabrication stages before making it install only.`);
+    if (patch.scope === "install_only") {
+      if (!stagesFor("install_only").includes(job.stage)) {
+        throw fieldError("scope", `The job is in ${STAGE_LABELS[job.stage]}; move it out of the fabrication stages before making it install only.`);
+      }
+      // Install-only jobs skip the leak-test and coating gates, so they may not carry parts that need them.
+      const gated = await trx.selectFrom("part").select("name").where("job_id", "=", id).where((eb) => eb.or([eb("needs_leak_test", "=", 1), eb("needs_coating", "=", 1)])).execute();
+      if (gated.length) {
+        throw fieldError("scope", `${gated.map((p) => p.name).join(", ")} ${gated.length === 1 ? "needs" : "need"} a leak test or outside coating; an install-only job skips those. Change or remove ${gated.length === 1 ? "that part" : "those parts"} first.`);
+      }
     }
     const { version, truckId, dueOn, assignedTechId, ...rest } = patch;
     await trx

@@ -1,6 +1,7 @@
 import "server-only";
 import type { DB } from "@/db";
-import type { Stage } from "@/db/schema";
+import { sql } from "kysely";
+import { STAGES, type Stage } from "@/db/schema";
 import { notFound } from "@/server/http/errors";
 import { parseId } from "@/server/http/respond";
 
@@ -38,6 +39,7 @@ export interface JobListFilter {
   customerId?: number;
   truckId?: number;
   q?: string;
+  sort?: "newest" | "due" | "customer" | "stage";
   limit?: number;
 }
 
@@ -59,7 +61,20 @@ export async function listJobs(db: DB, filter: JobListFilter = {}) {
     const q = `%${filter.q.toUpperCase()}%`;
     query = query.where((eb) => eb.or([eb(eb.fn("upper", ["job.work_order"]), "like", q), eb(eb.fn("upper", ["truck.unit_number"]), "like", q), eb(eb.fn("upper", ["customer.name"]), "like", q)]));
   }
-  return query.orderBy("job.id", "desc").limit(filter.limit ?? 500).execute();
+  switch (filter.sort ?? "newest") {
+    case "due":
+      query = query.orderBy(sql`job.due_on is null`).orderBy("job.due_on").orderBy("job.id", "desc");
+      break;
+    case "customer":
+      query = query.orderBy("customer.name").orderBy("job.id", "desc");
+      break;
+    case "stage":
+      query = query.orderBy(sql`case job.stage ${sql.join(STAGES.map((st, i) => sql`when ${st} then ${i}`), sql` `)} end`).orderBy("job.id", "desc");
+      break;
+    default:
+      query = query.orderBy("job.id", "desc");
+  }
+  return query.limit(filter.limit ?? 500).execute();
 }
 
 /** A job id from a route: 400 when it is not an id, 404 when no such job exists. */

@@ -74,6 +74,13 @@ describe("signing in", () => {
     expect(form.status).toBe(415);
   });
 
+  it("refuses a body over the size cap without reading it all", async () => {
+    const huge = JSON.stringify({ email: "a@b.example", password: "x".repeat(300 * 1024) });
+    const res = await session.POST(request("/api/session", { rawBody: huge, method: "POST", headers: { "content-type": "application/json", origin: "http://localhost:3000" } }));
+    expect(res.status).toBe(400);
+    expect((await readBody(res)).error.message).toMatch(/too large/);
+  });
+
   it("answers 400 with field details for missing fields and huge strings", async () => {
     const res = await session.POST(request("/api/session", { body: { email: "x".repeat(5000) } }));
     expect(res.status).toBe(400);

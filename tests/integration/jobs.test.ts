@@ -72,6 +72,16 @@ describe("creating and editing jobs", () => {
     expect(body.error.details.job.priority).toBe("rush");
   });
 
+  it("refuses to make a job install only while it has a part that needs a leak test or coating", async () => {
+    const { cookie } = await as("office");
+    const job = await makeJob(db(), { stage: "queued" });
+    await db().insertInto("part").values({ job_id: job.id, name: "40 gal round reservoir", kind: "reservoir", material: "aluminum", needs_leak_test: 1, needs_coating: 1, created_at: new Date().toISOString(), updated_at: new Date().toISOString() } as never).execute();
+    const res = await jobItem.PATCH(request(`/api/jobs/${job.id}`, { method: "PATCH", cookie, body: { version: job.version, scope: "install_only" } }), params({ id: String(job.id) }));
+    expect(res.status).toBe(400);
+    expect((await readBody(res)).error.details.fields.scope[0]).toMatch(/40 gal round reservoir needs a leak test or outside coating/);
+    expect((await db().selectFrom("job").select("scope").where("id", "=", job.id).executeTakeFirstOrThrow()).scope).toBe("fabrication");
+  });
+
   it("a tech edits notes but nothing else", async () => {
     const { cookie } = await as("tech");
     const job = await makeJob(db());
@@ -79,6 +89,17 @@ describe("creating and editing jobs", () => {
     expect(notes.status).toBe(200);
     const due = await jobItem.PATCH(request(`/api/jobs/${job.id}`, { method: "PATCH", cookie, body: { version: job.version + 1, dueOn: "2027-01-05" } }), params({ id: String(job.id) }));
     expect(due.status).toBe(403);
+  });
+
+  it("lists jobs sorted by the database before the limit, so no older job is silently left out", async () => {
+    const { cookie } = await as("office");
+    const customer = await makeCustomer(db(), "Sorting Test Haulage");
+    const early = await makeJob(db(), { customerId: customer.id });
+    await db().updateTable("job").set({ due_on: "2020-01-02" }).where("id", "=", early.id).execute();
+    for (let i = 0; i < 3; i++) await makeJob(db(), { customerId: customer.id });
+    const res = await jobs.GET(request("/api/jobs?sort=due&limit=1", { cookie }));
+    expect((await readBody(res)).jobs.map((j: { id: number }) => j.id)).toEqual([early.id]);
+    expect((await jobs.GET(request("/api/jobs?sort=sideways", { cookie }))).status).toBe(400);
   });
 
   it("ids of another shape get 400, unknown ids 404", async () => {

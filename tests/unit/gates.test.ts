@@ -37,6 +37,19 @@ describe("stage gates", () => {
     expect(check.unmet.map((u) => u.split(":")[0])).toEqual(["Into Outside coating", "Into Install", "Into Ready for pickup"]);
   });
 
+  it("a tank reworked after it passed stops the job moving on, even from a later stage", () => {
+    const reworked = records({ leakTestParts: [tank(false)], signOff: { complete: true, missing: [] } });
+    const check = checkMove("wire", "ready", "fabrication", reworked);
+    expect(check.unmet).toEqual([expect.stringMatching(/^Into Outside coating: .*record a passing leak test/)]);
+    // The card says so too, not only the next gate's own conditions.
+    expect(nextGateState("install", "fabrication", reworked)?.unmet).toEqual([expect.stringMatching(/leak test/)]);
+  });
+
+  it("a part not yet sent for coating says so", () => {
+    const unsent = records({ coatedParts: [{ name: "Battery box", sent: false, received: false, inspected: false }] });
+    expect(gateUnmet("install", unsent)).toEqual(["Battery box: not sent for coating yet; send it out on a coating run."]);
+  });
+
   it("ungated forward moves pass: queued → fabricate → pressure test", () => {
     expect(checkMove("queued", "fabricate", "fabrication", NO_RECORDS).unmet).toEqual([]);
     expect(checkMove("fabricate", "pressure_test", "fabrication", records({ leakTestParts: [tank(false)] })).unmet).toEqual([]);

@@ -10,13 +10,8 @@ import { STAGE_LABELS } from "@/server/jobs/stages";
 
 export const metadata = { title: "Jobs" };
 
-const SORTS = {
-  newest: { label: "Newest first", compare: (a: Row, b: Row) => b.id - a.id },
-  due: { label: "Due date", compare: (a: Row, b: Row) => (a.dueOn ?? "9999").localeCompare(b.dueOn ?? "9999") },
-  customer: { label: "Customer", compare: (a: Row, b: Row) => a.customerName.localeCompare(b.customerName) },
-  stage: { label: "Stage", compare: (a: Row, b: Row) => STAGES.indexOf(a.stage) - STAGES.indexOf(b.stage) },
-} as const;
-type Row = Awaited<ReturnType<typeof listJobs>>[number];
+const SORTS = { newest: "Newest first", due: "Due date", customer: "Customer", stage: "Stage" } as const;
+const LIMIT = 500;
 
 export default async function JobsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requirePageStaff();
@@ -24,7 +19,7 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
   const stage = STAGES.includes(sp.stage as Stage) ? (sp.stage as Stage) : undefined;
   const sort = sp.sort && sp.sort in SORTS ? (sp.sort as keyof typeof SORTS) : "newest";
   const q = (sp.q ?? "").slice(0, 60);
-  const rows = (await listJobs(getDb(), { stage, q: q || undefined })).sort(SORTS[sort].compare);
+  const rows = await listJobs(getDb(), { stage, q: q || undefined, sort, limit: LIMIT });
   const href = (over: Record<string, string | undefined>) => {
     const params = new URLSearchParams(Object.entries({ stage, sort, q: q || undefined, ...over }).filter(([, v]) => v) as [string, string][]);
     return `/jobs?${params}`;
@@ -57,6 +52,7 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
         <input type="hidden" name="sort" value={sort} />
         <button className={buttonClass.secondary}>Show</button>
       </form>
+      {rows.length === LIMIT && <p role="status" className="text-sm text-warn-700">Showing the first {LIMIT} in this order. Search or choose a stage to narrow the list.</p>}
       <div className="overflow-x-auto rounded-lg border border-line bg-panel">
         <table className="w-full min-w-[720px] text-left text-sm">
           <thead className="bg-bay-50 text-bay-900">
@@ -64,7 +60,7 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
               {(["newest", "customer", "stage", "due"] as const).map((k) => (
                 <th key={k} className="p-2" aria-sort={sort === k ? "ascending" : undefined}>
                   <Link href={href({ sort: k })} className="underline-offset-2 hover:underline">
-                    {k === "newest" ? "Work order" : SORTS[k].label}
+                    {k === "newest" ? "Work order" : SORTS[k]}
                     {sort === k ? " ▾" : ""}
                   </Link>
                 </th>

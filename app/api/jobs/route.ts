@@ -11,6 +11,8 @@ const listFilter = z.object({
   customerId: z.coerce.number().int().positive().optional(),
   truckId: z.coerce.number().int().positive().optional(),
   q: z.string().trim().max(60).optional(),
+  sort: z.enum(["newest", "due", "customer", "stage"]).optional(),
+  limit: z.coerce.number().int().min(1).max(500).optional(),
 });
 
 export async function GET(req: Request) {
