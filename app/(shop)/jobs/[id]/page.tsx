@@ -6,6 +6,8 @@ import { Section } from "@/components/section";
 import { StageBadge } from "@/components/stage-badge";
 import { getDb } from "@/db";
 import { requirePageStaff } from "@/server/auth/session";
+import { formatShopTime } from "@/server/records/calendar";
+import { shopSettings } from "@/server/shop/queries";
 import { findJob, stageEvents } from "@/server/jobs/queries";
 import { SCOPE_LABELS, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
 import { listTechs } from "@/server/staff/queries";
@@ -24,7 +26,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const db = getDb();
   const job = await findJob(db, Number(raw));
   if (!job) notFound();
-  const [events, techs] = await Promise.all([stageEvents(db, job.id), listTechs(db)]);
+  const [events, techs, shop] = await Promise.all([stageEvents(db, job.id), listTechs(db), shopSettings(db)]);
   const route = stagesFor(job.scope);
 
   return (
@@ -88,7 +90,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
                     {e.fromStage === null ? `Opened in ${STAGE_LABELS[e.toStage]}` : e.fromStage === e.toStage ? `Reordered in ${STAGE_LABELS[e.toStage]}` : `${STAGE_LABELS[e.fromStage]} → ${STAGE_LABELS[e.toStage]}`}
                   </p>
                   <p className="text-sm text-ink-soft">
-                    {format(parseISO(e.at), "d MMM yyyy, HH:mm")} · {e.actorName ?? "system"}
+                    {formatShopTime(e.at, shop.timeZone, "d MMM yyyy, HH:mm")} · {e.actorName ?? "system"}
                   </p>
                   {e.note && <p className="text-sm">“{e.note}”</p>}
                   {e.overrideReason && <p className="mt-1 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">⚑ Gate overridden by the owner: {e.overrideReason}</p>}
