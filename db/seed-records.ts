@@ -110,7 +110,13 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    await db.insertInto("coating_run_part").values(partIds.map((part_id) => ({ run_id: row.id, part_id, open: run.receivedOn ? 0 : 1 }))).execute();
+    const generations = new Map(
+      (await db.selectFrom("part").select(["id", "rework_count"]).where("id", "in", partIds).execute()).map((p) => [p.id, p.rework_count]),
+    );
+    await db
+      .insertInto("coating_run_part")
+      .values(partIds.map((part_id) => ({ run_id: row.id, part_id, open: run.receivedOn ? 0 : 1, rework_count: generations.get(part_id) ?? 0 })))
+      .execute();
   };
 
   const allChecked = Object.fromEntries(SIGN_OFF_CHECK_KEYS.map((k) => [k, true]));

@@ -27,6 +27,8 @@ export async function up(db: Kysely<unknown>) {
     .addColumn("rework_note", "text", (c) => c.notNull().defaultTo(""))
     .addColumn("created_at", "text", (c) => c.notNull())
     .addColumn("updated_at", "text", (c) => c.notNull())
+    // Trade reference: a fabricated reservoir is always leak-tested before it is finished.
+    .addCheckConstraint("part_reservoir_leak_tested", sql`kind <> 'reservoir' or needs_leak_test = 1`)
     .execute();
   await db.schema.createIndex("part_job").on("part").columns(["job_id", "id"]).execute();
 
@@ -101,6 +103,8 @@ export async function up(db: Kysely<unknown>) {
     .addColumn("part_id", "integer", (c) => c.notNull().references("part.id").onDelete("cascade"))
     // 1 while the run is out; the partial unique index below keeps a part on at most one open run.
     .addColumn("open", "integer", (c) => c.notNull().defaultTo(1).check(sql`open in (0, 1)`))
+    // The part's rework generation when it was sent: a run from before a rework no longer counts.
+    .addColumn("rework_count", "integer", (c) => c.notNull().defaultTo(0).check(sql`rework_count >= 0`))
     .addPrimaryKeyConstraint("coating_run_part_pk", ["run_id", "part_id"])
     .execute();
   await db.schema.createIndex("coating_run_part_part").on("coating_run_part").columns(["part_id", "run_id"]).execute();
@@ -117,6 +121,8 @@ export async function up(db: Kysely<unknown>) {
     .addColumn("signed_by_staff_id", "text", (c) => c.references("staff.id"))
     .addColumn("signed_at", "text")
     .addColumn("updated_by", "text", (c) => c.references("staff.id"))
+    // Bumped by every save; a save must name the version it edited, so a stale tab cannot overwrite.
+    .addColumn("version", "integer", (c) => c.notNull().defaultTo(1).check(sql`version >= 1`))
     .addColumn("created_at", "text", (c) => c.notNull())
     .addColumn("updated_at", "text", (c) => c.notNull())
     .addCheckConstraint("sign_off_signed_when_complete", sql`complete = 0 or (signed_by is not null and signed_at is not null)`)

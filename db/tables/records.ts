@@ -87,6 +87,8 @@ export interface CoatingRunPartTable {
   part_id: number;
   /** 1 while the run is out at the coater. */
   open: number;
+  /** The part's rework_count when it was sent; the run counts for the gate only while it matches. */
+  rework_count: Generated<number>;
 }
 
 export interface SignOffTable {
@@ -99,6 +101,8 @@ export interface SignOffTable {
   signed_by_staff_id: string | null;
   signed_at: string | null;
   updated_by: string | null;
+  /** 1 on the first save, bumped by each save after. */
+  version: Generated<number>;
   created_at: string;
   updated_at: string;
 }

@@ -20,11 +20,17 @@ export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promis
       job.leakTestParts.push({ name: part.name, passedSinceRework: part.passed === 1, lastResult: part.last_result });
     }
     if (part.needs_coating === 1) {
-      // The newest run carrying the part decides: a part sent again for a recoat is out until that run is back.
+      // Only runs since the part's last rework count, and the newest of them decides: a part sent
+      // again for a recoat is out until that run is back. An inspection whose adhesion check failed
+      // does not release the part; defects noted on a passing inspection are a note, not a hold
+      // (whoever inspected it accepted them).
+      const inspected = part.coating_state === "inspected";
       job.coatedParts.push({
         name: part.name,
-        received: part.coating_state === "back" || part.coating_state === "inspected",
-        inspected: part.coating_state === "inspected",
+        sent: part.coating_state !== null,
+        received: part.coating_state === "back" || inspected,
+        inspected: inspected && part.adhesion_ok === 1,
+        adhesionFailed: inspected && part.adhesion_ok === 0,
       });
     }
   }

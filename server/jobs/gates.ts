@@ -6,7 +6,7 @@ export interface GateRecords {
   /** Parts marked for a leak test, with whether a passing test is newer than their last rework. */
   leakTestParts: { name: string; passedSinceRework: boolean; lastResult: "pass" | "fail" | null }[];
   /** Parts marked for outside coating: whether sent (absent means sent), back, and inspected. */
-  coatedParts: { name: string; sent?: boolean; received: boolean; inspected: boolean }[];
+  coatedParts: { name: string; sent?: boolean; received: boolean; inspected: boolean; adhesionFailed?: boolean }[];
   /** The wiring & run-test sign-off: null when none has been started. */
   signOff: { complete: boolean; missing: string[] } | null;
 }
@@ -29,13 +29,15 @@ export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
         );
     case "install":
       return records.coatedParts
-        .filter((p) => !p.received || !p.inspected)
+        .filter((p) => !p.received || !p.inspected || p.adhesionFailed)
         .map((p) =>
           p.sent === false
             ? `${p.name}: not sent for coating yet; send it out on a coating run.`
             : !p.received
               ? `${p.name}: still out for coating; mark the coating run received.`
-              : `${p.name}: back from coating; record the receiving inspection.`,
+              : p.adhesionFailed
+                ? `${p.name}: coating failed adhesion; send it back for a recoat or record a passing inspection.`
+                : `${p.name}: back from coating; record the receiving inspection.`,
         );
     case "ready":
       if (!records.signOff) return ["Wiring & run-test sign-off: not started."];

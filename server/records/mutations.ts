@@ -8,6 +8,7 @@ import { evaluateLeakTest, type LeakTestOutcome } from "./leak-test";
 import {
   type CoatingRunView,
   type LeakTestView,
+  currentLeakResult,
   type PartView,
   type SignOffView,
   type VendorView,
@@ -25,6 +26,7 @@ import {
   type LeakTestRequest,
   type PartInput,
   type PartPatch,
+  type SignOffSave,
   type VendorInput,
   type WiringSignOff,
   partProblems,
@@ -47,14 +49,30 @@ async function todayIn(trx: Trx, now: Date) {
 }
 
 async function assertJob(trx: Trx, jobId: number) {
-  const job = await trx.selectFrom("job").select(["id", "stage"]).where("id", "=", jobId).executeTakeFirst();
+  const job = await trx.selectFrom("job").select(["id", "stage", "scope"]).where("id", "=", jobId).executeTakeFirst();
   if (!job) throw notFound("That job");
   return job;
 }
 
+// An install-only job skips Pressure test and Outside coating, so a part that needs either could
+// never be released: refuse it and send the user to the job's scope.
+const INSTALL_ONLY = {
+  needsLeakTest: "This job is install only: it has no fabricated parts to leak-test. Change the job's scope first, or add the part without a leak test (a reservoir is always tested).",
+  needsCoating: "This job is install only: it has no fabricated parts to send out for coating. Change the job's scope first, or add the part without outside coating.",
+} as const;
+
+/** Who may take a part off the gates' lists or change its kind: those decide what the gates into coating and install ask for. */
+const GATE_EDITORS: readonly StaffUser["role"][] = ["office", "owner"];
+
 export async function createPart(db: DB, jobId: number, input: PartInput): Promise<PartView> {
   const id = await db.transaction().execute(async (trx) => {
-    await assertJob(trx, jobId);
+    const job = await assertJob(trx, jobId);
+    if (job.scope === "install_only") {
+      const problems: Record<string, string> = {};
+      if (input.needsLeakTest) problems.needsLeakTest = INSTALL_ONLY.needsLeakTest;
+      if (input.needsCoating) problems.needsCoating = INSTALL_ONLY.needsCoating;
+      if (Object.keys(problems).length) throw fieldErrors(problems);
+    }
     const at = new Date().toISOString();
     const row = await trx
       .insertInto("part")
@@ -84,19 +102,48 @@ async function openRunOf(trx: Trx, partIds: readonly number[]) {
   return new Map(rows.map((r) => [r.part_id, { runId: r.run_id, vendorName: r.name }]));
 }
 
-/** Edits a part. `reworked: true` starts a new generation, so every earlier test of the part stops counting. */
-export async function patchPart(db: DB, partId: number, patch: PartPatch): Promise<PartView> {
+/**
+ * Edits a part. `reworked: true` starts a new generation, so every earlier test and coating run of
+ * the part stops counting. Any staff member edits names, notes and materials, adds a part to the
+ * leak-test or coating list and marks rework; taking a part off either list or changing its kind
+ * is for the office or owner, since that is how a gate could be stepped around.
+ */
+export async function patchPart(db: DB, actor: StaffUser, partId: number, patch: PartPatch): Promise<PartView> {
   await db.transaction().execute(async (trx) => {
-    const part = await trx.selectFrom("part").selectAll().where("id", "=", partId).executeTakeFirst();
+    const part = await trx
+      .selectFrom("part as p")
+      .innerJoin("job as j", "j.id", "p.job_id")
+      .selectAll("p")
+      .select("j.scope")
+      .where("p.id", "=", partId)
+      .executeTakeFirst();
     if (!part) throw notFound("That part");
+    // The record as it will be once the patch is applied: every rule below reads this, never the request alone.
     const merged = {
       kind: patch.kind ?? part.kind,
       shape: patch.shape ?? (patch.geometry ? patch.geometry.shape : part.shape),
-      geometry: patch.geometry !== undefined ? patch.geometry : part.geometry ? JSON.parse(part.geometry) : null,
+      geometry: patch.geometry !== undefined ? patch.geometry : part.geometry ? (JSON.parse(part.geometry) as PartPatch["geometry"]) : null,
       needsLeakTest: patch.needsLeakTest ?? part.needs_leak_test === 1,
+      needsCoating: patch.needsCoating ?? part.needs_coating === 1,
     };
-    const problems = Object.fromEntries(partProblems(merged).map((p) => [p.path, p.message]));
-    if (patch.needsCoating === false && part.needs_coating === 1) {
+    if (!GATE_EDITORS.includes(actor.role)) {
+      const refused: string[] = [];
+      if (merged.kind !== part.kind) refused.push("change a part's kind");
+      if (part.needs_leak_test === 1 && !merged.needsLeakTest) refused.push("take a part off the leak-test list");
+      if (part.needs_coating === 1 && !merged.needsCoating) refused.push("take a part off the coating list");
+      if (refused.length) {
+        throw new ApiError(
+          "forbidden",
+          `Only the office or the owner can ${refused.join(" or ")}: that decides what the gates into coating and install ask for. Ask them, or mark the part reworked.`,
+        );
+      }
+    }
+    const problems = Object.fromEntries(partProblems({ ...merged, geometry: merged.geometry ?? null }).map((p) => [p.path, p.message]));
+    if (part.scope === "install_only") {
+      if (merged.needsLeakTest && part.needs_leak_test !== 1) problems.needsLeakTest ??= INSTALL_ONLY.needsLeakTest;
+      if (merged.needsCoating && part.needs_coating !== 1) problems.needsCoating ??= INSTALL_ONLY.needsCoating;
+    }
+    if (!merged.needsCoating && part.needs_coating === 1) {
       const out = (await openRunOf(trx, [partId])).get(partId);
       if (out) problems.needsCoating = `The part is out on coating run ${out.runId} with ${out.vendorName}; mark that run received first.`;
     }
@@ -107,12 +154,12 @@ export async function patchPart(db: DB, partId: number, patch: PartPatch): Promi
       .set({
         ...(patch.name !== undefined ? { name: patch.name } : {}),
         ...(patch.material !== undefined ? { material: patch.material } : {}),
-        ...(patch.needsCoating !== undefined ? { needs_coating: patch.needsCoating ? 1 : 0 } : {}),
         ...(patch.notes !== undefined ? { notes: patch.notes } : {}),
         kind: merged.kind,
         shape: merged.shape,
         geometry: merged.geometry ? JSON.stringify(merged.geometry) : null,
         needs_leak_test: merged.needsLeakTest ? 1 : 0,
+        needs_coating: merged.needsCoating ? 1 : 0,
         ...(patch.reworked
           ? { rework_count: part.rework_count + 1, reworked_at: at, rework_note: patch.reworkNote ?? "" }
           : patch.reworkNote !== undefined
@@ -126,8 +173,14 @@ export async function patchPart(db: DB, partId: number, patch: PartPatch): Promi
   return (await findPart(db, partId))!;
 }
 
-/** A part added by mistake can go while nothing is recorded against it; tests and runs are kept for good. */
-export async function deletePart(db: DB, partId: number): Promise<void> {
+/**
+ * A part added by mistake can go while nothing is recorded against it; tests and runs are kept for
+ * good. Only the office or owner removes a part: a missing part is a gate that no longer asks.
+ */
+export async function deletePart(db: DB, actor: StaffUser, partId: number): Promise<void> {
+  if (!GATE_EDITORS.includes(actor.role)) {
+    throw new ApiError("forbidden", "Only the office or the owner can remove a part from a job. Ask them, or mark the part reworked if it was remade.");
+  }
   await db.transaction().execute(async (trx) => {
     const part = await trx.selectFrom("part").select("id").where("id", "=", partId).executeTakeFirst();
     if (!part) throw notFound("That part");
@@ -197,6 +250,7 @@ export async function createVendor(db: DB, input: VendorInput): Promise<VendorVi
 }
 
 const TEST_FIRST = "has no passing leak test since its last rework; a tank is tested before it is coated.";
+const TEST_FAILED = "failed its last leak test; rework it and record a passing test before it is coated.";
 
 /** Sends parts out on a coating run. Every part is checked; each refusal names its place in the list. */
 export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingRunInput, now = new Date()): Promise<CoatingRunView> {
@@ -211,19 +265,9 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
     const parts = await trx
       .selectFrom("part as p")
       .innerJoin("job as j", "j.id", "p.job_id")
-      .select((eb) => [
-        "p.id", "p.name", "p.needs_coating", "p.needs_leak_test", "j.work_order", "j.stage",
-        eb
-          .exists(
-            eb
-              .selectFrom("leak_test as t")
-              .select("t.id")
-              .whereRef("t.part_id", "=", "p.id")
-              .whereRef("t.rework_count", "=", "p.rework_count")
-              .where("t.result", "=", "pass"),
-          )
-          .$castTo<number>()
-          .as("passed"),
+      .select([
+        "p.id", "p.name", "p.needs_coating", "p.needs_leak_test", "p.rework_count", "j.work_order", "j.stage",
+        currentLeakResult.as("last_result"),
       ])
       .where("p.id", "in", input.partIds)
       .execute();
@@ -236,7 +280,9 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
       else if (part.stage === "delivered") problems[field] = `${part.name} (${part.work_order}) is on a delivered job.`;
       else if (part.needs_coating !== 1) problems[field] = `${part.name} (${part.work_order}) is not marked for outside coating.`;
       else if (out.has(partId)) problems[field] = `${part.name} (${part.work_order}) is already out on coating run ${out.get(partId)!.runId} with ${out.get(partId)!.vendorName}.`;
-      else if (part.needs_leak_test === 1 && part.passed !== 1) problems[field] = `${part.name} (${part.work_order}) ${TEST_FIRST}`;
+      else if (part.needs_leak_test === 1 && part.last_result !== "pass") {
+        problems[field] = `${part.name} (${part.work_order}) ${part.last_result === "fail" ? TEST_FAILED : TEST_FIRST}`;
+      }
     });
     if (Object.keys(problems).length) throw fieldErrors(problems);
 
@@ -252,7 +298,7 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
       .executeTakeFirstOrThrow();
     await trx
       .insertInto("coating_run_part")
-      .values(input.partIds.map((partId) => ({ run_id: run.id, part_id: partId, open: input.receivedOn ? 0 : 1 })))
+      .values(input.partIds.map((partId) => ({ run_id: run.id, part_id: partId, open: input.receivedOn ? 0 : 1, rework_count: byId.get(partId)!.rework_count })))
       .execute();
     return run.id;
   });
@@ -311,15 +357,31 @@ export async function patchCoatingRun(db: DB, actor: StaffUser, runId: number, p
 /**
  * Saves the wiring & run-test sign-off, complete or not. It is complete when nothing is missing;
  * then the staff member who saved it and the time are kept with the signed name. Saving the same
- * complete record again keeps the first signature.
+ * complete record again keeps the first signature. The save must name the version it edited: a
+ * stale one answers 409 with the sign-off as it now stands.
  */
-export async function saveSignOff(db: DB, actor: StaffUser, jobId: number, input: WiringSignOff, now = new Date()): Promise<SignOffView> {
+export async function saveSignOff(db: DB, actor: StaffUser, jobId: number, input: SignOffSave, now = new Date()): Promise<SignOffView> {
   await db.transaction().execute(async (trx) => {
     await assertJob(trx, jobId);
-    const fields: WiringSignOff = { ...input, signedBy: input.signedBy?.trim() || null };
+    const { expectedVersion, ...entered } = input;
+    const fields: WiringSignOff = { ...entered, signedBy: entered.signedBy?.trim() || null };
     const text = JSON.stringify(fields);
     const complete = signOffMissing(fields).length === 0;
-    const existing = await trx.selectFrom("sign_off").select(["fields", "complete", "signed_at", "signed_by_staff_id"]).where("job_id", "=", jobId).executeTakeFirst();
+    const existing = await trx
+      .selectFrom("sign_off")
+      .select(["fields", "complete", "signed_at", "signed_by_staff_id", "version"])
+      .where("job_id", "=", jobId)
+      .executeTakeFirst();
+    const current = existing?.version ?? 0;
+    if (expectedVersion !== current) {
+      throw new ApiError(
+        "stale",
+        current === 0
+          ? "No sign-off has been saved for this job yet, so there is no such version to change. Reload the page and save again."
+          : "Someone saved this sign-off after you opened it. The form now shows what is saved; check it and make your change again.",
+        { signOff: await findSignOff(trx, jobId) },
+      );
+    }
     const at = now.toISOString();
     const unchanged = existing?.complete === 1 && JSON.stringify(signOffFields(existing.fields)) === text;
     const signature = complete
@@ -329,8 +391,8 @@ export async function saveSignOff(db: DB, actor: StaffUser, jobId: number, input
           signed_by_staff_id: unchanged ? existing!.signed_by_staff_id : actor.id,
         }
       : { signed_by: null, signed_at: null, signed_by_staff_id: null };
-    const values = { fields: text, complete: complete ? 1 : 0, ...signature, updated_by: actor.id, updated_at: at };
-    if (existing) await trx.updateTable("sign_off").set(values).where("job_id", "=", jobId).execute();
+    const values = { fields: text, complete: complete ? 1 : 0, ...signature, updated_by: actor.id, updated_at: at, version: current + 1 };
+    if (existing) await trx.updateTable("sign_off").set(values).where("job_id", "=", jobId).where("version", "=", current).execute();
     else await trx.insertInto("sign_off").values({ job_id: jobId, created_at: at, ...values }).execute();
   });
   return (await findSignOff(db, jobId))!;

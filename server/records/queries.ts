@@ -58,6 +58,20 @@ export async function shopClock(db: DB, now = new Date()): Promise<ShopClock> {
 
 export type CoatingState = "out" | "back" | "inspected";
 
+/**
+ * The result of a part's newest leak test in its current rework generation (null when none), as a
+ * SQL expression over `part as p`. A part passes only while its newest test is a pass: a pass
+ * followed by a fail means the tank leaks now, whatever the earlier test said.
+ */
+export const currentLeakResult = sql<"pass" | "fail" | null>`(select t.result from leak_test t where t.part_id = p.id and t.rework_count = p.rework_count order by t.id desc limit 1)`;
+
+// The newest coating run that carried the part in its current generation: a run from before a
+// rework coated metal that has since been cut or welded, so it no longer counts.
+const currentRun = (column: string) =>
+  sql.raw(
+    `(select ${column} from coating_run_part c join coating_run r on r.id = c.run_id where c.part_id = p.id and c.rework_count = p.rework_count order by c.run_id desc limit 1)`,
+  );
+
 /** One row per part with what its gates need, computed in SQL so hundreds of jobs cost one statement. */
 export interface PartStatusRow {
   id: number;
@@ -66,13 +80,17 @@ export interface PartStatusRow {
   needs_leak_test: number;
   needs_coating: number;
   rework_count: number;
-  /** A passing test recorded since the last rework (same generation). */
+  /** 1 when the newest test since the last rework (same generation) is a pass. */
   passed: number;
   /** The newest test's result since the last rework; null when none. */
   last_result: "pass" | "fail" | null;
-  /** The newest coating run carrying the part, and where it stands; null when never sent. */
+  /** The newest coating run carrying the part since its last rework, and where it stands; null when not sent since. */
   last_run_id: number | null;
   coating_state: CoatingState | null;
+  /** That run's adhesion check: 1 passed, 0 failed, null when not inspected (or not sent). */
+  adhesion_ok: number | null;
+  /** The newest run that ever carried the part, in any generation (what the job page shows); null when never sent. */
+  any_run_id: number | null;
 }
 
 export async function partStatuses(db: DB, filter: { jobIds?: readonly number[]; partIds?: readonly number[]; onlyGated?: boolean }): Promise<PartStatusRow[]> {
@@ -86,42 +104,20 @@ export async function partStatuses(db: DB, filter: { jobIds?: readonly number[];
         "p.needs_leak_test",
         "p.needs_coating",
         "p.rework_count",
-        eb
-          .exists(
-            eb
-              .selectFrom("leak_test as t")
-              .select("t.id")
-              .whereRef("t.part_id", "=", "p.id")
-              .whereRef("t.rework_count", "=", "p.rework_count")
-              .where("t.result", "=", "pass"),
-          )
-          .$castTo<number>()
-          .as("passed"),
-        eb
-          .selectFrom("leak_test as t")
-          .select("t.result")
-          .whereRef("t.part_id", "=", "p.id")
-          .whereRef("t.rework_count", "=", "p.rework_count")
-          .orderBy("t.id", "desc")
-          .limit(1)
-          .as("last_result"),
+        sql<number>`coalesce(${currentLeakResult} = 'pass', 0)`.as("passed"),
+        currentLeakResult.as("last_result"),
+        sql<number | null>`${currentRun("c.run_id")}`.as("last_run_id"),
+        sql<CoatingState | null>`${currentRun("case when r.received_on is null then 'out' when r.inspected_at is null then 'back' else 'inspected' end")}`.as(
+          "coating_state",
+        ),
+        sql<number | null>`${currentRun("r.adhesion_ok")}`.as("adhesion_ok"),
         eb
           .selectFrom("coating_run_part as c")
           .select("c.run_id")
           .whereRef("c.part_id", "=", "p.id")
           .orderBy("c.run_id", "desc")
           .limit(1)
-          .as("last_run_id"),
-        eb
-          .selectFrom("coating_run_part as c")
-          .innerJoin("coating_run as r", "r.id", "c.run_id")
-          .select(
-            sql<CoatingState>`case when r.received_on is null then 'out' when r.inspected_at is null then 'back' else 'inspected' end`.as("state"),
-          )
-          .whereRef("c.part_id", "=", "p.id")
-          .orderBy("c.run_id", "desc")
-          .limit(1)
-          .as("coating_state"),
+          .as("any_run_id"),
       ])
       .where(column, "in", ids);
     if (filter.onlyGated) query = query.where((eb) => eb.or([eb("p.needs_leak_test", "=", 1), eb("p.needs_coating", "=", 1)]));
@@ -160,6 +156,10 @@ export interface PartCoating {
   receivedOn: string | null;
   inspectedAt: string | null;
   state: CoatingState;
+  /** The receiving inspection's adhesion check; null until inspected. */
+  adhesionOk: boolean | null;
+  /** False when the part has been reworked since this run: it must go out again. */
+  current: boolean;
   overdue: boolean;
 }
 
@@ -176,14 +176,14 @@ export async function listParts(db: DB, filter: { jobId?: number; partId?: numbe
   const parts = await query.orderBy("id").execute();
   if (parts.length === 0) return [];
   const statuses = new Map((await partStatuses(db, { partIds: parts.map((p) => p.id) })).map((s) => [s.id, s]));
-  const runIds = [...new Set([...statuses.values()].flatMap((s) => (s.last_run_id === null ? [] : [s.last_run_id])))];
+  const runIds = [...new Set([...statuses.values()].flatMap((s) => (s.any_run_id === null ? [] : [s.any_run_id])))];
   const runs = new Map(
     runIds.length
       ? (
           await db
             .selectFrom("coating_run as r")
             .innerJoin("vendor as v", "v.id", "r.vendor_id")
-            .select(["r.id", "v.name as vendor_name", "r.finish_colour", "r.finish_gloss", "r.sent_on", "r.promised_on", "r.received_on", "r.inspected_at"])
+            .select(["r.id", "v.name as vendor_name", "r.finish_colour", "r.finish_gloss", "r.sent_on", "r.promised_on", "r.received_on", "r.inspected_at", "r.adhesion_ok"])
             .where("r.id", "in", runIds)
             .execute()
         ).map((r) => [r.id, r])
@@ -192,7 +192,7 @@ export async function listParts(db: DB, filter: { jobId?: number; partId?: numbe
   const clock = await shopClock(db, now);
   return parts.map((p) => {
     const status = statuses.get(p.id)!;
-    const run = status.last_run_id === null ? undefined : runs.get(status.last_run_id);
+    const run = status.any_run_id === null ? undefined : runs.get(status.any_run_id);
     return {
       id: p.id,
       jobId: p.job_id,
@@ -217,7 +217,9 @@ export async function listParts(db: DB, filter: { jobId?: number; partId?: numbe
             promisedOn: run.promised_on,
             receivedOn: run.received_on,
             inspectedAt: run.inspected_at,
-            state: status.coating_state!,
+            state: run.received_on === null ? "out" : run.inspected_at === null ? "back" : "inspected",
+            adhesionOk: run.inspected_at === null ? null : run.adhesion_ok === 1,
+            current: run.id === status.last_run_id,
             overdue: isOverdue({ sentOn: run.sent_on, promisedOn: run.promised_on, receivedOn: run.received_on }, clock),
           }
         : null,
@@ -459,7 +461,7 @@ export interface CoatingCandidate {
   unitNumber: string;
   needsLeakTest: boolean;
   leakPassed: boolean;
-  /** The last run that carried it, when it has been coated before (sending it again recoats it). */
+  /** The last run that carried it since its last rework (sending it again recoats it); null when not coated since. */
   lastRunId: number | null;
 }
 
@@ -545,6 +547,8 @@ export interface SignOffView {
   signedByStaffName: string | null;
   updatedAt: string;
   updatedByName: string | null;
+  /** Sent back with the next save as expectedVersion. */
+  version: number;
 }
 
 const EMPTY_SIGN_OFF_FIELDS: WiringSignOff = { checks: {} };
@@ -559,7 +563,7 @@ export async function findSignOff(db: DB, jobId: number): Promise<SignOffView | 
     .selectFrom("sign_off as so")
     .leftJoin("staff as signer", "signer.id", "so.signed_by_staff_id")
     .leftJoin("staff as editor", "editor.id", "so.updated_by")
-    .select(["so.fields", "so.complete", "so.signed_by", "so.signed_at", "signer.name as signer_name", "so.updated_at", "editor.name as editor_name"])
+    .select(["so.fields", "so.complete", "so.signed_by", "so.signed_at", "signer.name as signer_name", "so.updated_at", "editor.name as editor_name", "so.version"])
     .where("so.job_id", "=", jobId)
     .executeTakeFirst();
   if (!row) return null;
@@ -573,6 +577,7 @@ export async function findSignOff(db: DB, jobId: number): Promise<SignOffView | 
     signedByStaffName: row.signer_name,
     updatedAt: row.updated_at,
     updatedByName: row.editor_name,
+    version: row.version,
   };
 }
 

@@ -201,6 +201,17 @@ export const wiringSignOffSchema = z.object({
 export type WiringSignOff = z.output<typeof wiringSignOffSchema>;
 export type WiringSignOffFormInput = z.input<typeof wiringSignOffSchema>;
 
+// A save names the version it edited (0 before the first save), so a tab left open cannot
+// re-complete a sign-off someone has since un-ticked.
+export const signOffSaveSchema = wiringSignOffSchema.extend({
+  expectedVersion: z
+    .number({ error: "Send expectedVersion: the version of the sign-off you edited (0 if none was saved yet)." })
+    .int({ error: "expectedVersion must be a whole number." })
+    .min(0, { error: "expectedVersion must be 0 or more." })
+    .max(1_000_000, { error: "expectedVersion is too large." }),
+});
+export type SignOffSave = z.output<typeof signOffSaveSchema>;
+
 export const PART_KINDS = ["reservoir", "box", "bracket", "other"] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 export const PART_MATERIALS = ["aluminum", "stainless", "carbon_steel"] as const;

@@ -83,6 +83,16 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await partA.getByText("Leak test passed").waitFor();
     await shot(phone, "leak-test-pass-phone");
 
+    // A tech edits the tank but cannot take it off the coating list or change its kind; the form says who can.
+    await outcome.getByRole("button", { name: "Close" }).click();
+    await partA.getByRole("button", { name: "Edit" }).click();
+    const editForm = phone.getByRole("form", { name: `Edit ${tankA}` });
+    expect(await editForm.getByRole("checkbox", { name: "Goes out for coating" }).isDisabled()).toBe(true);
+    expect(await editForm.getByLabel("Kind", { exact: true }).isDisabled()).toBe(true);
+    await editForm.getByText("Only the office or the owner can change a part's kind").waitFor();
+    await shot(phone, "part-edit-tech-phone");
+    await editForm.getByRole("button", { name: "Cancel" }).click();
+
     // Job B's tank through the API, first refused at the coating gate, then tested.
     const partB = (await json(await phone.request.post(`${baseUrl()}/api/jobs/${jobB.id}/parts`, { data: { name: tankB, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201)).part;
     const refused = await phone.request.post(`${baseUrl()}/api/jobs/${jobB.id}/moves`, { data: { toStage: "coating", version: await version(phone.request, jobB.id) } });
@@ -172,6 +182,42 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await outcome.getByText(/is back in Fabricate/).waitFor();
     expect((await json(await page.request.get(`${baseUrl()}/api/jobs/${job!.id}`))).job.stage).toBe("fabricate");
     await context.close();
+  });
+
+  it("a sign-off saved from another tab first is not overwritten: the form says so and shows what is saved", async () => {
+    const office = await browser.newContext(DESK);
+    const desk = await signIn(office, "office");
+    const jobs = (await json<{ jobs: { customerName: string; customerId: number; truckId: number }[] }>(await desk.request.get(`${baseUrl()}/api/jobs`))).jobs;
+    const truck = jobs.find((j) => j.customerName === "Dell Okafor")!;
+    const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { data: { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `Indicator rewire ${Date.now().toString(36)}` } }), 201)).job as { id: number };
+    const checks = { indicator_follows_pto: true, pto_engages_per_procedure: true, breakaways_secured_capped: true };
+    const first = (await json(await desk.request.put(`${baseUrl()}/api/jobs/${job.id}/sign-off`, { data: { indicatorSource: "switch", indicatorInput: "ground_active", checks, expectedVersion: 0 } }))).signOff;
+    expect(first.version).toBe(1);
+
+    const context = await browser.newContext(PHONE);
+    const page: Page = await signIn(context, "tech");
+    await page.goto(`${baseUrl()}/jobs/${job.id}`);
+    const form = page.getByRole("form", { name: "Wiring and run-test sign-off" });
+    expect(await form.getByRole("checkbox", { name: /Breakaway air and hydraulic/ }).isChecked()).toBe(true);
+
+    // Meanwhile the office finds a breakaway uncapped and un-ticks it.
+    await json(await desk.request.put(`${baseUrl()}/api/jobs/${job.id}/sign-off`, { data: { indicatorSource: "switch", indicatorInput: "ground_active", checks: { ...checks, breakaways_secured_capped: false }, expectedVersion: 1 } }));
+
+    await form.getByRole("checkbox", { name: /Pump runs without cavitation/ }).check();
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await form.getByRole("alert").filter({ hasText: "Someone saved this sign-off after you opened it" }).waitFor();
+    expect(await form.getByRole("checkbox", { name: /Breakaway air and hydraulic/ }).isChecked()).toBe(false);
+    expect(await form.getByRole("checkbox", { name: /Pump runs without cavitation/ }).isChecked()).toBe(false);
+    await shot(page, "sign-off-stale-phone");
+
+    // Saved again over what is now on record, it goes through.
+    await form.getByRole("checkbox", { name: /Pump runs without cavitation/ }).check();
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await form.getByText("✓ Draft saved.").waitFor();
+    const saved = (await json(await page.request.get(`${baseUrl()}/api/jobs/${job.id}/sign-off`))).signOff;
+    expect(saved).toEqual(expect.objectContaining({ version: 3, fields: expect.objectContaining({ checks: expect.objectContaining({ breakaways_secured_capped: false, pump_no_cavitation: true }) }) }));
+    await context.close();
+    await office.close();
   });
 
   it("the wiring tech resumes a draft sign-off on a phone and signs it off", async () => {

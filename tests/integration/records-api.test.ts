@@ -81,9 +81,11 @@ describe("parts", () => {
 
   it("PATCH edits, refuses unknown keys and a reservoir without a test, and deletes only a part with no records", async () => {
     const tech = await as("tech");
+    const office = await as("office");
     const job = await makeJob(db(), { stage: "fabricate" });
     const part = await addPart(tech.cookie, job.id);
-    const patch = (body: unknown) => partItem.PATCH(request(`/api/parts/${part.id}`, { method: "PATCH", cookie: tech.cookie, body }), params({ id: String(part.id) }));
+    // The office: taking a part off the coating list and removing parts are theirs (see "who may change what a gate asks").
+    const patch = (body: unknown) => partItem.PATCH(request(`/api/parts/${part.id}`, { method: "PATCH", cookie: office.cookie, body }), params({ id: String(part.id) }));
     const renamed = await patch({ name: "35 gal round reservoir", material: "stainless", needsCoating: false });
     expect(renamed.status).toBe(200);
     expect((await readBody(renamed)).part).toEqual(expect.objectContaining({ name: "35 gal round reservoir", material: "stainless", needsCoating: false }));
@@ -94,7 +96,7 @@ describe("parts", () => {
     expect((await partItem.PATCH(request("/api/parts/99999", { method: "PATCH", cookie: tech.cookie, body: { name: "x" } }), params({ id: "99999" }))).status).toBe(404);
 
     expect((await postTest(tech.cookie, part.id, goodTest)).status).toBe(201);
-    const del = (id: number) => partItem.DELETE(request(`/api/parts/${id}`, { method: "DELETE", cookie: tech.cookie }), params({ id: String(id) }));
+    const del = (id: number) => partItem.DELETE(request(`/api/parts/${id}`, { method: "DELETE", cookie: office.cookie }), params({ id: String(id) }));
     expect((await del(part.id)).status).toBe(409);
     const mistake = await addPart(tech.cookie, job.id, { name: "Duplicate entry", kind: "bracket", material: "aluminum", needsLeakTest: false, needsCoating: false });
     expect((await del(mistake.id)).status).toBe(204);
@@ -285,7 +287,7 @@ describe("vendors and coating runs", () => {
   it("a part out on a run cannot be unmarked for coating", async () => {
     const { office, tech, vendor, tank } = await setup();
     expect((await send(office.cookie, runBody(vendor.id, [tank.id]))).status).toBe(201);
-    const res = await partItem.PATCH(request(`/api/parts/${tank.id}`, { method: "PATCH", cookie: tech.cookie, body: { needsCoating: false } }), params({ id: String(tank.id) }));
+    const res = await partItem.PATCH(request(`/api/parts/${tank.id}`, { method: "PATCH", cookie: office.cookie, body: { needsCoating: false } }), params({ id: String(tank.id) }));
     expect(await fields(res)).toEqual(["needsCoating"]);
     const part = (await readBody(await partItem.GET(request(`/api/parts/${tank.id}`, { cookie: tech.cookie }), params({ id: String(tank.id) })))).part;
     expect(part.needsCoating).toBe(true);
@@ -297,10 +299,11 @@ describe("the wiring & run-test sign-off", () => {
   it("saves a draft, resumes it, and refuses bad input naming the field", async () => {
     const tech = await as("tech");
     const job = await makeJob(db(), { stage: "wire" });
-    const put = (body: unknown) => signOff.PUT(request(`/api/jobs/${job.id}/sign-off`, { method: "PUT", cookie: tech.cookie, body }), params({ id: String(job.id) }));
+    const put = (body: object, expectedVersion = 1) =>
+      signOff.PUT(request(`/api/jobs/${job.id}/sign-off`, { method: "PUT", cookie: tech.cookie, body: { expectedVersion, ...body } }), params({ id: String(job.id) }));
     const get = () => signOff.GET(request(`/api/jobs/${job.id}/sign-off`, { cookie: tech.cookie }), params({ id: String(job.id) }));
     expect((await readBody(await get())).signOff).toBeNull();
-    const saved = await readBody(await put({ indicatorSource: "switch", checks: { pump_no_cavitation: true }, reliefPressurePsi: 2400 }));
+    const saved = await readBody(await put({ indicatorSource: "switch", checks: { pump_no_cavitation: true }, reliefPressurePsi: 2400 }, 0));
     expect(saved.signOff).toEqual(expect.objectContaining({ complete: false, signedAt: null }));
     const resumed = (await readBody(await get())).signOff;
     expect(resumed.fields).toEqual(expect.objectContaining({ indicatorSource: "switch", checks: { pump_no_cavitation: true }, reliefPressurePsi: 2400 }));
@@ -310,8 +313,8 @@ describe("the wiring & run-test sign-off", () => {
     const bad = await put({ indicatorSource: "lamp", reliefPressurePsi: 17_200, checks: { pump_no_cavitation: "yes" } });
     expect((await fields(bad)).sort()).toEqual(["checks.pump_no_cavitation", "indicatorSource", "reliefPressurePsi"]);
     expect(await db().selectFrom("sign_off").selectAll().where("job_id", "=", job.id).executeTakeFirstOrThrow()).toEqual(before);
-    expect((await signOff.PUT(request("/api/jobs/0/sign-off", { method: "PUT", cookie: tech.cookie, body: {} }), params({ id: "0" }))).status).toBe(400);
-    expect((await signOff.PUT(request("/api/jobs/99999/sign-off", { method: "PUT", cookie: tech.cookie, body: {} }), params({ id: "99999" }))).status).toBe(404);
+    expect((await signOff.PUT(request("/api/jobs/0/sign-off", { method: "PUT", cookie: tech.cookie, body: { expectedVersion: 0 } }), params({ id: "0" }))).status).toBe(400);
+    expect((await signOff.PUT(request("/api/jobs/99999/sign-off", { method: "PUT", cookie: tech.cookie, body: { expectedVersion: 0 } }), params({ id: "99999" }))).status).toBe(404);
     expect(await count("sign_off")).toBeGreaterThan(0);
   });
 });

@@ -94,17 +94,25 @@ describe("into Outside coating: every leak-test part passed since its last rewor
     expect(await stageOf(job.id)).toBe("coating");
   });
 
-  it("a pass then a newer fail still leaves the pass standing until the part is reworked", async () => {
-    // The gate asks for a passing test since the last rework; a later fail means the tank was
-    // disturbed, and the shop marks it reworked, which is what voids the pass.
+  it("a pass then a newer fail closes the gate: the newest test since the last rework must be the pass", async () => {
+    // A later fail means the tank leaks now, whatever the earlier test said.
     const tech = await as("tech");
     const job = await makeJob(db(), { stage: "pressure_test" });
     const tank = await addPart(tech.cookie, job.id);
     await recordTest(tech.cookie, tank.id, leakTestBody(4));
     await recordTest(tech.cookie, tank.id, leakTestBody(3.5));
     expect((await loadGateRecords(db(), [job.id])).get(job.id)!.leakTestParts).toEqual([
-      { name: tank.name, passedSinceRework: true, lastResult: "fail" },
+      { name: tank.name, passedSinceRework: false, lastResult: "fail" },
     ]);
+    const refused = await moveTo(tech.cookie, job.id, "coating");
+    expect(refused.status).toBe(422);
+    expect((await readBody(refused)).error.details.unmet).toEqual([expect.stringMatching(/40 gal round reservoir: the last leak test failed/)]);
+    const card = (await readBody(await board.GET(request("/api/board", { cookie: tech.cookie })))).cards.find((c: { id: number }) => c.id === job.id);
+    expect(card.gate.unmet).toEqual([expect.stringMatching(/the last leak test failed/)]);
+
+    // Tested again without a rework and passing: the newest test decides again.
+    await recordTest(tech.cookie, tank.id, leakTestBody(4));
+    expect((await moveTo(tech.cookie, job.id, "coating")).status).toBe(200);
   });
 
   it("rework voids the pass: the job cannot enter coating again until a new pass", async () => {
@@ -147,7 +155,7 @@ describe("into Outside coating: every leak-test part passed since its last rewor
     expect(res.status).toBe(422);
     const unmet: string[] = (await readBody(res)).error.details.unmet;
     expect(unmet.some((u) => /^Into Outside coating: .*leak test/.test(u))).toBe(true);
-    expect(unmet.some((u) => /^Into Install: .*still out for coating/.test(u))).toBe(true);
+    expect(unmet.some((u) => /^Into Install: .*not sent for coating yet/.test(u))).toBe(true);
   });
 });
 
@@ -226,9 +234,10 @@ describe("into Install: every coated part back and inspected", () => {
       request(`/api/coating-runs/${first.id}`, { method: "PATCH", cookie: office.cookie, body: { inspection: { dftReadingsMils: [1.2], adhesionOk: false, defects: "Thin on the lid edge" } } }),
       params({ id: String(first.id) }),
     );
-    expect((await loadGateRecords(db(), [job.id])).get(job.id)!.coatedParts).toEqual([{ name: "Tool box", received: true, inspected: true }]);
+    // A failed adhesion check does not count as inspected for the gate.
+    expect((await loadGateRecords(db(), [job.id])).get(job.id)!.coatedParts).toEqual([{ name: "Tool box", sent: true, received: true, inspected: false, adhesionFailed: true }]);
     expect((await send()).status).toBe(201);
-    expect((await loadGateRecords(db(), [job.id])).get(job.id)!.coatedParts).toEqual([{ name: "Tool box", received: false, inspected: false }]);
+    expect((await loadGateRecords(db(), [job.id])).get(job.id)!.coatedParts).toEqual([{ name: "Tool box", sent: true, received: false, inspected: false, adhesionFailed: false }]);
   });
 });
 
@@ -238,14 +247,14 @@ describe("into Ready for pickup: the sign-off complete", () => {
     const job = await makeJob(db(), { stage: "wire" });
     const put = (body: unknown) => signOff.PUT(request(`/api/jobs/${job.id}/sign-off`, { method: "PUT", cookie: tech.cookie, body }), params({ id: String(job.id) }));
     const draft = { indicatorSource: "pto_feedback", indicatorInput: "ground_active", checks: { indicator_follows_pto: true } };
-    expect((await put(draft)).status).toBe(200);
+    expect((await put({ ...draft, expectedVersion: 0 })).status).toBe(200);
     const refused = await moveTo(tech.cookie, job.id, "ready");
     expect(refused.status).toBe(422);
     const unmet: string[] = (await readBody(refused)).error.details.unmet;
     expect(unmet).toContain("Into Ready for pickup: Sign-off: Not checked yet: Pump runs without cavitation noise.");
     expect(unmet.some((u) => /indicator source/.test(u))).toBe(false);
 
-    const complete = { ...draft, checks: Object.fromEntries(SIGN_OFF_CHECK_KEYS.map((k) => [k, true])), reliefPressurePsi: 2500, timedRunMinutes: 20, signedBy: "Ines Marsh" };
+    const complete = { ...draft, checks: Object.fromEntries(SIGN_OFF_CHECK_KEYS.map((k) => [k, true])), reliefPressurePsi: 2500, timedRunMinutes: 20, signedBy: "Ines Marsh", expectedVersion: 1 };
     const saved = await readBody(await put(complete));
     expect(saved.signOff).toEqual(expect.objectContaining({ complete: true, missing: [], signedBy: "Ines Marsh", signedByStaffName: tech.staff.name }));
     expect((await moveTo(tech.cookie, job.id, "ready")).status).toBe(200);

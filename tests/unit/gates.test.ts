@@ -45,6 +45,11 @@ describe("stage gates", () => {
     expect(nextGateState("install", "fabrication", reworked)?.unmet).toEqual([expect.stringMatching(/leak test/)]);
   });
 
+  it("a coating that failed adhesion holds the part, and says what to do", () => {
+    const failed = records({ coatedParts: [{ name: "Tool box", received: true, inspected: false, adhesionFailed: true }] });
+    expect(gateUnmet("install", failed)).toEqual(["Tool box: coating failed adhesion; send it back for a recoat or record a passing inspection."]);
+  });
+
   it("a part not yet sent for coating says so", () => {
     const unsent = records({ coatedParts: [{ name: "Battery box", sent: false, received: false, inspected: false }] });
     expect(gateUnmet("install", unsent)).toEqual(["Battery box: not sent for coating yet; send it out on a coating run."]);

@@ -213,6 +213,7 @@ export function InspectionForm({ runId }: { runId: number }) {
       </Field>
       <fieldset>
         <legend className="text-sm font-semibold">Adhesion check</legend>
+        <p className="mb-1 text-sm text-ink-soft">A failed check holds the parts out of Install until they are recoated or pass a recheck.</p>
         <div className="flex flex-wrap gap-2">
           {[
             ["ok", "Passed"],
@@ -226,7 +227,12 @@ export function InspectionForm({ runId }: { runId: number }) {
         </div>
         {form.fields["inspection.adhesionOk"] && <p className="text-sm font-medium text-stop-700">⚠ {form.fields["inspection.adhesionOk"].join(" ")}</p>}
       </fieldset>
-      <Field label="Defects (runs, thin spots, damage), or leave empty" name="defects" errors={form.fields["inspection.defects"]}>
+      <Field
+        label="Defects (runs, thin spots, damage), or leave empty"
+        name="defects"
+        errors={form.fields["inspection.defects"]}
+        hint="Defects are noted on the record and do not hold the parts: recording a passing inspection accepts them. If one is not acceptable, send the part back for a recoat."
+      >
         {(p) => <textarea {...p} rows={2} className={inputClass} />}
       </Field>
       <button type="submit" className={buttonClass.primary} disabled={form.pending}>

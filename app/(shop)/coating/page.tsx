@@ -105,6 +105,17 @@ function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string;
           <InspectionForm runId={run.id} />
         </div>
       )}
+      {run.inspection && !run.inspection.adhesionOk && (
+        <div className="mt-3 border-t border-line pt-3">
+          <p className="flex items-start gap-1.5 text-sm font-semibold text-stop-700">
+            <IconStop className="mt-0.5 shrink-0" /> These parts cannot go to Install: send them back for a recoat, or record a passing inspection if a recheck holds.
+          </p>
+          <details className="mt-1">
+            <summary className="flex min-h-11 cursor-pointer items-center font-semibold text-bay-800">Record a new inspection</summary>
+            <InspectionForm runId={run.id} />
+          </details>
+        </div>
+      )}
     </article>
   );
 }

@@ -4,6 +4,7 @@ import {
   coatingRunSchema,
   leakTestInputSchema,
   receivingInspectionSchema,
+  signOffSaveSchema,
   wiringSignOffSchema,
 } from "@/server/records/schemas";
 
@@ -194,5 +195,15 @@ describe("wiringSignOffSchema", () => {
 
   it("refuses a relief pressure that looks like kPa", () => {
     expect(issuesOf(wiringSignOffSchema, { reliefPressurePsi: 17_200 })[0].path).toEqual(["reliefPressurePsi"]);
+  });
+});
+
+describe("signOffSaveSchema", () => {
+  it("needs the version the form edited, 0 before the first save", () => {
+    expect(signOffSaveSchema.parse({ expectedVersion: 0, checks: {} })).toEqual({ expectedVersion: 0, checks: {} });
+    expect(signOffSaveSchema.parse({ expectedVersion: 4, indicatorSource: "switch" }).expectedVersion).toBe(4);
+    for (const expectedVersion of [undefined, -1, 1.5, "2"]) {
+      expect(issuesOf(signOffSaveSchema, { expectedVersion, checks: {} }).map((issue) => issue.path), String(expectedVersion)).toEqual([["expectedVersion"]]);
+    }
   });
 });

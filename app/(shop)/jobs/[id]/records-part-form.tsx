@@ -7,14 +7,38 @@ import type { PartKind, PartMaterial, PartShape } from "@/db/tables/records";
 import type { PartView } from "@/server/records/queries";
 import { PART_KINDS, PART_MATERIALS, PART_SHAPES, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/schemas";
 
-/** Adds a part to the job, or edits one. A reservoir may carry its geometry (inside dimensions, inches). */
-export function PartForm({ jobId, part, onDone, onCancel }: { jobId: number; part?: PartView; onDone: () => void; onCancel: () => void }) {
+/**
+ * Adds a part to the job, or edits one. A reservoir may carry its geometry (inside dimensions,
+ * inches). A tech may not change a part's kind or take it off the leak-test or coating list (the
+ * server refuses it too), and an install-only job takes no part that needs either.
+ */
+export function PartForm({
+  jobId,
+  part,
+  canEditGates,
+  installOnly,
+  onDone,
+  onCancel,
+}: {
+  jobId: number;
+  part?: PartView;
+  canEditGates: boolean;
+  installOnly: boolean;
+  onDone: () => void;
+  onCancel: () => void;
+}) {
   const router = useRouter();
   const id = useId();
-  const [kind, setKind] = useState<PartKind>(part?.kind ?? "reservoir");
-  const [shape, setShape] = useState<PartShape>(part?.shape ?? "round");
-  const [needsLeakTest, setNeedsLeakTest] = useState(part?.needsLeakTest ?? true);
+  const [kind, setKind] = useState<PartKind>(part?.kind ?? (installOnly ? "bracket" : "reservoir"));
+  const [shape, setShape] = useState<PartShape>(part?.shape ?? (installOnly ? "other" : "round"));
+  const [needsLeakTest, setNeedsLeakTest] = useState(part?.needsLeakTest ?? !installOnly);
+  const [needsCoating, setNeedsCoating] = useState(part?.needsCoating ?? !installOnly);
   const geometry = part?.geometry;
+  const kindLocked = Boolean(part) && !canEditGates;
+  const leakLocked = kind === "reservoir" || (installOnly && !part?.needsLeakTest) || (!canEditGates && part?.needsLeakTest === true);
+  const coatingLocked = (installOnly && !part?.needsCoating) || (!canEditGates && part?.needsCoating === true);
+  // A reservoir is always leak-tested, so an install-only job is not offered one.
+  const kinds = PART_KINDS.filter((k) => !installOnly || k !== "reservoir" || part?.kind === "reservoir");
 
   const form = useApiForm(
     (v) => {
@@ -30,7 +54,7 @@ export function PartForm({ jobId, part, onDone, onCancel }: { jobId: number; par
         shape: kind === "reservoir" || kind === "box" ? shape : "other",
         geometry: kind === "reservoir" && shape !== "other" && anyDim ? { shape, ...dims } : null,
         needsLeakTest: kind === "reservoir" ? true : needsLeakTest,
-        needsCoating: v.needsCoating === "on",
+        needsCoating,
         notes: str(v.notes),
       };
       return part ? { path: `/api/parts/${part.id}`, method: "PATCH", body } : { path: `/api/jobs/${jobId}/parts`, body };
@@ -59,14 +83,15 @@ export function PartForm({ jobId, part, onDone, onCancel }: { jobId: number; par
             <select
               {...p}
               value={kind}
+              disabled={kindLocked}
               onChange={(e) => {
                 const next = e.target.value as PartKind;
                 setKind(next);
                 if (next === "box") setShape("box");
               }}
-              className={inputClass}
+              className={`${inputClass} disabled:bg-line disabled:text-ink-soft`}
             >
-              {PART_KINDS.map((k) => (
+              {kinds.map((k) => (
                 <option key={k} value={k}>{partKindLabels[k]}</option>
               ))}
             </select>
@@ -112,12 +137,15 @@ export function PartForm({ jobId, part, onDone, onCancel }: { jobId: number; par
         </fieldset>
       )}
       <div className="space-y-2">
+        {installOnly && (
+          <p className="text-sm text-ink-soft">This job is install only: its parts get no leak test and no outside coating. Change the job&apos;s scope first if the shop builds parts for it.</p>
+        )}
         <label className="flex min-h-11 items-center gap-3">
           <input
             type="checkbox"
             id={`${id}-leak`}
             checked={kind === "reservoir" ? true : needsLeakTest}
-            disabled={kind === "reservoir"}
+            disabled={leakLocked}
             onChange={(e) => setNeedsLeakTest(e.target.checked)}
             className="h-5 w-5 accent-bay-700"
           />
@@ -127,10 +155,20 @@ export function PartForm({ jobId, part, onDone, onCancel }: { jobId: number; par
         </label>
         {form.fields.needsLeakTest && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.needsLeakTest.join(" ")}</p>}
         <label className="flex min-h-11 items-center gap-3">
-          <input type="checkbox" name="needsCoating" defaultChecked={part?.needsCoating ?? true} className="h-5 w-5 accent-bay-700" />
+          <input
+            type="checkbox"
+            name="needsCoating"
+            checked={needsCoating}
+            disabled={coatingLocked}
+            onChange={(e) => setNeedsCoating(e.target.checked)}
+            className="h-5 w-5 accent-bay-700"
+          />
           <span>Goes out for coating</span>
         </label>
         {form.fields.needsCoating && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.needsCoating.join(" ")}</p>}
+        {part && !canEditGates && (
+          <p className="text-sm text-ink-soft">Only the office or the owner can change a part&apos;s kind or take it off the leak-test or coating list.</p>
+        )}
       </div>
       <Field label="Notes" name="notes" errors={form.fields.notes}>
         {(p) => <textarea {...p} rows={2} defaultValue={part?.notes ?? ""} className={inputClass} />}

@@ -53,6 +53,10 @@ function CoatingStatus({ part }: { part: PartView }) {
       run {c.runId}
     </Link>
   );
+  if (!c.current) return <Status tone="warn" icon={<IconWarn />}>Reworked since its coating ({run}): send it out again</Status>;
+  if (c.state === "inspected" && c.adhesionOk === false) {
+    return <Status tone="stop" icon={<IconStop />}>Coating failed adhesion ({run}): send it back for a recoat or record a passing inspection</Status>;
+  }
   if (c.state === "out" && c.overdue) {
     return <Status tone="stop" icon={<IconWarn />}>Coating overdue: {run} at {c.vendorName} was promised {day(c.promisedOn)}</Status>;
   }
@@ -133,6 +137,7 @@ export function RecordsParts({
   today,
   timeZone,
   userName,
+  canEditGates,
 }: {
   job: LeakTestJob & { scope: JobScope };
   parts: PartView[];
@@ -141,6 +146,8 @@ export function RecordsParts({
   today: string;
   timeZone: string;
   userName: string;
+  /** Office and owner: may change a part's kind or take it off the leak-test or coating list. */
+  canEditGates: boolean;
 }) {
   const [panel, setPanel] = useState<Panel>(null);
   const close = () => setPanel(null);
@@ -148,7 +155,9 @@ export function RecordsParts({
 
   return (
     <div className="space-y-3">
-      {job.scope === "install_only" && parts.length === 0 && <p className="text-ink-soft">An install-only job has no fabricated parts; add one here only if the scope changes.</p>}
+      {job.scope === "install_only" && parts.length === 0 && (
+        <p className="text-ink-soft">An install-only job has no fabricated parts: nothing here is leak-tested or sent out for coating. Change the job&apos;s scope first if the shop builds parts for it.</p>
+      )}
       {job.scope === "fabrication" && parts.length === 0 && (
         <p className="text-ink-soft">No parts yet. Add each tank, box and bracket the shop builds for this job: the gates into coating and install read them.</p>
       )}
@@ -194,7 +203,7 @@ export function RecordsParts({
                   {open === "test" && (
                     <LeakTestForm job={job} part={part} allowedDropPsi={allowedDropPsi} today={today} tester={userName} lastGauge={lastGauge} onClose={close} />
                   )}
-                  {open === "edit" && <PartForm jobId={job.id} part={part} onDone={close} onCancel={close} />}
+                  {open === "edit" && <PartForm jobId={job.id} part={part} canEditGates={canEditGates} installOnly={job.scope === "install_only"} onDone={close} onCancel={close} />}
                   {open === "rework" && <ReworkForm part={part} onDone={close} onCancel={close} />}
                 </div>
               )}
@@ -204,7 +213,7 @@ export function RecordsParts({
         })}
       </ul>
       {panel?.mode === "add" ? (
-        <PartForm jobId={job.id} onDone={close} onCancel={close} />
+        <PartForm jobId={job.id} canEditGates={canEditGates} installOnly={job.scope === "install_only"} onDone={close} onCancel={close} />
       ) : (
         <button type="button" className={buttonClass.secondary} onClick={() => setPanel({ partId: null, mode: "add" })}>
           + Add a part

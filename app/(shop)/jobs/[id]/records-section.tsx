@@ -29,6 +29,7 @@ export async function RecordsSection({ job, user }: { job: JobDetail; user: Staf
           today={today}
           timeZone={settings.timeZone}
           userName={user.name}
+          canEditGates={user.role === "office" || user.role === "owner"}
         />
       </Section>
       <Section title="Wiring & run-test sign-off" id="sign-off">

@@ -69,6 +69,8 @@ export function SignOffForm({ jobId, initial, timeZone }: { jobId: number; initi
   const id = useId();
   const [draft, setDraft] = useState<Draft>(() => draftOf(initial));
   const [saved, setSaved] = useState<SignOffView | null>(initial);
+  // The version this form was filled from; the server refuses a save made over a newer one.
+  const [version, setVersion] = useState(initial?.version ?? 0);
   const [failure, setFailure] = useState<ApiFailure | null>(null);
   const [pending, setPending] = useState<"draft" | "sign" | null>(null);
   const [notice, setNotice] = useState<"draft" | "sign" | null>(null);
@@ -86,14 +88,24 @@ export function SignOffForm({ jobId, initial, timeZone }: { jobId: number; initi
         reliefPressurePsi: num(draft.reliefPressurePsi) ?? null,
         timedRunMinutes: num(draft.timedRunMinutes) ?? null,
         signedBy: draft.signedBy.trim() || null,
+        expectedVersion: version,
       };
       const result = await api<{ signOff: SignOffView }>(`/api/jobs/${jobId}/sign-off`, { method: "PUT", body });
       setSaved(result.signOff);
+      setVersion(result.signOff.version);
       setNotice(intent);
       router.refresh();
     } catch (err) {
-      if (err instanceof ApiRequestError) setFailure(err.failure);
-      else throw err;
+      if (!(err instanceof ApiRequestError)) throw err;
+      setFailure(err.failure);
+      if (err.failure.code === "stale") {
+        // Someone saved first: show what is on record now, so nobody signs over a check they never saw.
+        const current = (err.failure.details?.signOff as SignOffView | null | undefined) ?? null;
+        setSaved(current);
+        setDraft(draftOf(current));
+        setVersion(current?.version ?? 0);
+        router.refresh();
+      }
     } finally {
       setPending(null);
     }

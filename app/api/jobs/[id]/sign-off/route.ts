@@ -4,7 +4,7 @@ import { requireStaff } from "@/server/auth/session";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
 import { saveSignOff } from "@/server/records/mutations";
 import { findSignOff } from "@/server/records/queries";
-import { wiringSignOffSchema } from "@/server/records/schemas";
+import { signOffSaveSchema } from "@/server/records/schemas";
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -17,12 +17,15 @@ export async function GET(req: Request, ctx: Ctx) {
   });
 }
 
-/** Any staff member saves the wiring & run-test sign-off: a draft until nothing is missing. */
+/**
+ * Any staff member saves the wiring & run-test sign-off: a draft until nothing is missing. The body
+ * carries expectedVersion (0 before the first save); a stale one answers 409 with the current sign-off.
+ */
 export async function PUT(req: Request, ctx: Ctx) {
   return respond(async () => {
     const actor = await requireStaff(req);
     const jobId = parseId((await ctx.params).id, "Job");
-    const input = await readJson(req, wiringSignOffSchema);
+    const input = await readJson(req, signOffSaveSchema);
     return json({ signOff: await saveSignOff(getDb(), actor, jobId, input) });
   });
 }
