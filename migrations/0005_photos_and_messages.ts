@@ -49,6 +49,7 @@ export async function up(db: Kysely<unknown>) {
     .addColumn("html", "text", (c) => c.notNull())
     .addColumn("text", "text", (c) => c.notNull())
     .addColumn("status_link_id", "integer", (c) => c.references("status_link.id").onDelete("set null"))
+    .addColumn("revision", "integer", (c) => c.notNull().defaultTo(0).check(sql`revision >= 0`))
     .addColumn("provider_id", "text")
     .addColumn("created_at", "text", (c) => c.notNull())
     .execute();

@@ -37,7 +37,10 @@ export interface StatusLinkTable {
   last_opened_at: string | null;
 }
 
-/** The e-mail an outbox row becomes, rendered once so every retry sends the same message. */
+/**
+ * The e-mail an outbox row becomes. A retry sends it unchanged unless the job's recipients or its
+ * status link changed since; then it is rendered again and its revision goes up by one.
+ */
 export interface EmailMessageTable {
   outbox_id: string;
   job_id: number;
@@ -50,6 +53,8 @@ export interface EmailMessageTable {
   html: string;
   text: string;
   status_link_id: number | null;
+  /** 0 as first rendered; each re-rendering adds one and sends under a new idempotency key. */
+  revision: number;
   provider_id: string | null;
   created_at: string;
 }

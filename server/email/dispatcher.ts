@@ -2,7 +2,7 @@ import "server-only";
 import type { DB } from "@/db";
 import type { Stage } from "@/db/schema";
 import { STAGE_LABELS, isStage } from "@/server/jobs/stages";
-import { emailLinkFor, liveLinkToken } from "@/server/status/links";
+import { emailLinkFor, retryLinkFor } from "@/server/status/links";
 import { statusUrl } from "@/server/status/tokens";
 import { emailEnv } from "./env";
 import { recipientsFor } from "./recipients";
@@ -12,10 +12,14 @@ import { notifySettings } from "./settings";
 
 /** A claimed row is someone's for this long; a process that dies mid-send gives it back when it runs out. */
 export const LEASE_MS = 2 * 60_000;
-export const MAX_ATTEMPTS = 8;
+export const MAX_ATTEMPTS = 10;
 export const BATCH = 20;
 
-/** 30 s, 1 min, 2 min … capped at an hour: eight attempts span about two hours of an outage. */
+/**
+ * The wait after a failed attempt: 30 s, 1 min, 2 min … doubling, never more than an hour. The 10
+ * attempts span 3 h 3 min 30 s from the first to the last (30 s + 1 + 2 + 4 + 8 + 16 + 32 min
+ * + 1 h + 1 h), so a service outage of up to three hours costs no e-mail.
+ */
 export function backoffMs(attempts: number): number {
   return Math.min(30_000 * 2 ** Math.max(0, attempts - 1), 60 * 60_000);
 }
@@ -56,7 +60,13 @@ interface ClaimedRow {
   created_at: string;
 }
 
-async function claimDue(db: DB, now: Date, limit: number): Promise<ClaimedRow[]> {
+export const GAVE_UP_MID_SEND = "the last one never finished (the server stopped while sending).";
+
+/**
+ * Claiming a row counts as an attempt, whether or not the attempt gets to settle: a row whose
+ * send takes the process down each time is claimed at most MAX_ATTEMPTS times, then failed here.
+ */
+async function claimDue(db: DB, now: Date, limit: number): Promise<{ rows: ClaimedRow[]; abandoned: number }> {
   const nowIso = now.toISOString();
   const leaseUntil = new Date(now.getTime() + LEASE_MS).toISOString();
   return db.transaction().execute(async (trx) => {
@@ -70,7 +80,19 @@ async function claimDue(db: DB, now: Date, limit: number): Promise<ClaimedRow[]>
       .limit(limit)
       .execute();
     const mine: ClaimedRow[] = [];
+    let abandoned = 0;
     for (const row of due) {
+      if (row.attempts >= MAX_ATTEMPTS) {
+        const failed = await trx
+          .updateTable("outbox")
+          .set({ status: "failed", last_error: `Gave up after ${row.attempts} attempts: ${GAVE_UP_MID_SEND}` })
+          .where("id", "=", row.id)
+          .where("status", "=", "pending")
+          .where("attempts", "=", row.attempts)
+          .executeTakeFirst();
+        abandoned += Number(failed.numUpdatedRows);
+        continue;
+      }
       const claimed = await trx
         .updateTable("outbox")
         .set({ attempts: row.attempts + 1, next_attempt_at: leaseUntil })
@@ -80,7 +102,7 @@ async function claimDue(db: DB, now: Date, limit: number): Promise<ClaimedRow[]>
         .executeTakeFirst();
       if (Number(claimed.numUpdatedRows) === 1) mine.push({ ...row, attempts: row.attempts + 1 });
     }
-    return mine;
+    return { rows: mine, abandoned };
   });
 }
 
@@ -90,22 +112,47 @@ function fromAddress(shopName: string, configured: string): string {
   return name ? `"${name}" <${configured}>` : configured;
 }
 
-type Prepared = { skip: string } | { message: { from_address: string; to_addresses: string; reply_to: string | null; subject: string; html: string; text: string; status_link_id: number | null } };
+interface StoredMessage {
+  from_address: string;
+  to_addresses: string;
+  reply_to: string | null;
+  subject: string;
+  html: string;
+  text: string;
+  status_link_id: number | null;
+  revision: number;
+}
+
+type Prepared = { skip: string } | { message: StoredMessage; token: string };
 
 /**
- * Renders the row's e-mail once and stores it, or decides it is not to be sent. Later attempts
- * reuse what is stored, so a retry sends the same message under the same idempotency key.
+ * The idempotency key a message is sent under: the outbox id as first rendered, the id and the
+ * revision once re-rendered. A new key for a new rendering is required: the service refuses a key
+ * used again with a different body, and that refusal reads as "an earlier attempt got through".
+ */
+export function idempotencyKeyFor(outboxId: string, revision: number): string {
+  return revision === 0 ? outboxId : `${outboxId}:r${revision}`;
+}
+
+export const LINK_TURNED_OFF = "The office turned off the status link before this e-mail went out; issue a new link, then send the message again.";
+
+function sameAddresses(a: string[], b: string[]) {
+  return a.length === b.length && [...a].sort().join("\n") === [...b].sort().join("\n");
+}
+
+/**
+ * Decides on every attempt whether the row's e-mail still goes and to whom. The first attempt
+ * renders and stores it; a later one sends what is stored, under the same key, unless the job's
+ * recipients or its status link changed since: then it is rendered again as a new revision.
  */
 async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at: string): Promise<Prepared> {
-  const stored = await db
-    .selectFrom("email_message")
-    .select(["from_address", "to_addresses", "reply_to", "subject", "html", "text", "status_link_id"])
-    .where("outbox_id", "=", row.id)
-    .executeTakeFirst();
-  if (stored) return { message: stored };
-
   const env = emailEnv();
   return db.transaction().execute(async (trx): Promise<Prepared> => {
+    const stored = await trx
+      .selectFrom("email_message")
+      .select(["from_address", "to_addresses", "reply_to", "subject", "html", "text", "status_link_id", "revision"])
+      .where("outbox_id", "=", row.id)
+      .executeTakeFirst();
     const job = await trx
       .selectFrom("job")
       .innerJoin("customer", "customer.id", "job.customer_id")
@@ -117,7 +164,8 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
     const { emailOff, to } = await recipientsFor(trx, row.job_id);
     if (emailOff) return { skip: "E-mail is off for this job." };
     const settings = await notifySettings(trx);
-    if (!payload.resendOf) {
+    // Checked before the first rendering only: a retry already decided this stage's news goes out.
+    if (!stored && !payload.resendOf) {
       if (!settings.notifyStages.includes(payload.to)) return { skip: `The shop does not e-mail customers when a job reaches ${STAGE_LABELS[payload.to]}.` };
       const later = await trx
         .selectFrom("outbox")
@@ -133,6 +181,10 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
     }
     if (to.length === 0) return { skip: "Nobody on this job receives e-mail: choose a contact with an e-mail address." };
 
+    const link = stored ? await retryLinkFor(trx, row.job_id, stored.status_link_id, at) : await emailLinkFor(trx, row.job_id, at);
+    if (link === "turned_off") return { skip: LINK_TURNED_OFF };
+    if (stored && link.id === stored.status_link_id && sameAddresses(JSON.parse(stored.to_addresses) as string[], to)) return { message: stored, token: link.token };
+
     const shop = (await trx.selectFrom("shop").select(["name", "phone"]).where("id", "=", 1).executeTakeFirst()) ?? { name: "Your upfit shop", phone: "" };
     const rendered = renderStageEmail({
       shop,
@@ -144,8 +196,7 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
       readyBy: job.due_on,
       linkDays: settings.statusLinkDays,
     });
-    const link = await emailLinkFor(trx, row.job_id, at);
-    const message = {
+    const message: StoredMessage = {
       from_address: fromAddress(shop.name, env.EMAIL_FROM),
       to_addresses: JSON.stringify(to),
       reply_to: env.EMAIL_REPLY_TO ?? null,
@@ -153,20 +204,11 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
       html: rendered.html,
       text: rendered.text,
       status_link_id: link.id,
+      revision: stored ? stored.revision + 1 : 0,
     };
-    await trx.insertInto("email_message").values({ outbox_id: row.id, job_id: row.job_id, ...message, provider_id: null, created_at: at }).execute();
-    return { message };
-  });
-}
-
-/** The status link's token for the stored message; a link turned off since is replaced. */
-async function linkTokenFor(db: DB, row: ClaimedRow, linkId: number | null, at: string): Promise<string> {
-  const token = linkId ? await liveLinkToken(db, linkId) : null;
-  if (token) return token;
-  return db.transaction().execute(async (trx) => {
-    const link = await emailLinkFor(trx, row.job_id, at);
-    await trx.updateTable("email_message").set({ status_link_id: link.id }).where("outbox_id", "=", row.id).execute();
-    return link.token;
+    if (stored) await trx.updateTable("email_message").set({ ...message, provider_id: null }).where("outbox_id", "=", row.id).execute();
+    else await trx.insertInto("email_message").values({ outbox_id: row.id, job_id: row.job_id, ...message, provider_id: null, created_at: at }).execute();
+    return { message, token: link.token };
   });
 }
 
@@ -206,13 +248,12 @@ async function deliver(db: DB, row: ClaimedRow, now: Date, sender: EmailSender):
     await db.updateTable("outbox").set({ status: "skipped", last_error: prepared.skip }).where("id", "=", row.id).execute();
     return "skipped";
   }
-  const { message } = prepared;
-  const token = await linkTokenFor(db, row, message.status_link_id, at);
+  const { message, token } = prepared;
   const body = withStatusLink(message, statusUrl(token));
   // Nothing is held open while the service is called: the row is leased, not locked.
   const result = await sender.send(
     { from: message.from_address, to: JSON.parse(message.to_addresses) as string[], subject: message.subject, html: body.html, text: body.text, ...(message.reply_to ? { replyTo: message.reply_to } : {}) },
-    row.id,
+    idempotencyKeyFor(row.id, message.revision),
   );
   return settle(db, row, result, now);
 }
@@ -222,8 +263,8 @@ async function deliver(db: DB, row: ClaimedRow, now: Date, sender: EmailSender):
  * each row is claimed with a lease first. Used by the start-up loop and called directly by tests.
  */
 export async function dispatchDueOutbox(db: DB, now: Date, sender: EmailSender, opts: { limit?: number } = {}): Promise<DispatchSummary> {
-  const rows = await claimDue(db, now, opts.limit ?? BATCH);
-  const summary: DispatchSummary = { claimed: rows.length, sent: 0, retrying: 0, failed: 0, skipped: 0 };
+  const { rows, abandoned } = await claimDue(db, now, opts.limit ?? BATCH);
+  const summary: DispatchSummary = { claimed: rows.length, sent: 0, retrying: 0, failed: abandoned, skipped: 0 };
   for (const row of rows) {
     let outcome: keyof Omit<DispatchSummary, "claimed">;
     try {

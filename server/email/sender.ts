@@ -29,21 +29,32 @@ export function classifySendError(error: { name?: string; message?: string; stat
   return { ok: false, kind: "permanent", reason };
 }
 
+/**
+ * How long one send may take. Well inside the dispatcher's lease, so a hung connection can never
+ * let a second process claim the row while this one still waits on it.
+ */
+export const SEND_TIMEOUT_MS = 15_000;
+
 /** Sends through the resend SDK; RESEND_BASE_URL points it at the local fake. */
-export function resendSender(apiKey: string, baseUrl?: string): EmailSender {
+export function resendSender(apiKey: string, baseUrl?: string, options: { timeoutMs?: number } = {}): EmailSender {
   const client = new Resend(apiKey, baseUrl ? { baseUrl } : undefined);
+  const timeoutMs = options.timeoutMs ?? SEND_TIMEOUT_MS;
+  const timedOut: SendResult = { ok: false, kind: "retry", reason: `The e-mail service did not answer within ${timeoutMs / 1000} s.` };
   return {
     async send(message, idempotencyKey) {
+      // The SDK passes the signal to fetch and reports an abort as a failed request without a status.
+      const signal = AbortSignal.timeout(timeoutMs);
       let result: Awaited<ReturnType<typeof client.emails.send>>;
       try {
         result = await client.emails.send(
           { from: message.from, to: message.to, subject: message.subject, html: message.html, text: message.text, ...(message.replyTo ? { replyTo: message.replyTo } : {}) },
-          { idempotencyKey },
+          { idempotencyKey, signal },
         );
       } catch (err) {
+        if (signal.aborted) return timedOut;
         return { ok: false, kind: "retry", reason: err instanceof Error ? err.message : String(err) };
       }
-      if (result.error) return classifySendError(result.error as { name?: string; message?: string; statusCode?: number | null });
+      if (result.error) return signal.aborted ? timedOut : classifySendError(result.error as { name?: string; message?: string; statusCode?: number | null });
       return { ok: true, id: result.data?.id ?? null };
     },
   };

@@ -15,7 +15,8 @@ export interface UploadMetadata {
   uploadedBy: string;
 }
 
-export type IngestResult = { photoId: number } | { refused: string };
+/** `refused`: the file itself is wrong. `failed`: the shop's server could not keep a good photo; sending it again may work. */
+export type IngestResult = { photoId: number } | { refused: string } | { failed: string };
 
 /** Reads at most `limit` bytes; a bigger file is refused without being held in memory. */
 async function fetchLimited(url: string, limit: number): Promise<Uint8Array | "too_large"> {
@@ -46,23 +47,29 @@ async function dropOriginal(key: string) {
   }
 }
 
-/** The server's half of a photo upload: check the bytes, make the copies, record the photo. */
+/**
+ * The server's half of a photo upload: check the bytes, make the copies, record the photo. The
+ * original leaves the upload service whatever happens here, once the bytes are in or given up on.
+ */
 export async function ingestUploadedPhoto(db: DB, meta: UploadMetadata, file: { key: string; name: string; ufsUrl: string }): Promise<IngestResult> {
+  try {
+    return await checkAndRecord(db, meta, file);
+  } catch (err) {
+    // Thrown past here, the SDK never answers the upload service and the uploader waits on a photo that is not coming.
+    console.error(`Photo ${file.name} (upload ${file.key}) could not be kept:`, err);
+    return { failed: `${file.name}: the shop's server could not save this photo. Send it again; if that fails too, tell the office.` };
+  } finally {
+    await dropOriginal(file.key);
+  }
+}
+
+async function checkAndRecord(db: DB, meta: UploadMetadata, file: { key: string; name: string; ufsUrl: string }): Promise<IngestResult> {
   const bytes = await fetchLimited(file.ufsUrl, MAX_PHOTO_BYTES);
-  if (bytes === "too_large") {
-    await dropOriginal(file.key);
-    return { refused: `${file.name}: the photo is over the 8 MB limit.` };
-  }
+  if (bytes === "too_large") return { refused: `${file.name}: the photo is over the 8 MB limit.` };
   const check = await checkAndDerive(bytes);
-  if (!check.ok) {
-    await dropOriginal(file.key);
-    return { refused: `${file.name}: ${check.reason}` };
-  }
+  if (!check.ok) return { refused: `${file.name}: ${check.reason}` };
   const job = await db.selectFrom("job").select("id").where("id", "=", meta.jobId).executeTakeFirst();
-  if (!job) {
-    await dropOriginal(file.key);
-    return { refused: `${file.name}: the job was removed while the photo was uploading.` };
-  }
+  if (!job) return { refused: `${file.name}: the job was removed while the photo was uploading.` };
   await savePhotoFiles(meta.jobId, file.key, check);
   const photoId = await recordPhoto(db, {
     ...meta,
@@ -73,6 +80,5 @@ export async function ingestUploadedPhoto(db: DB, meta: UploadMetadata, file: { 
     width: check.width,
     height: check.height,
   });
-  await dropOriginal(file.key);
   return { photoId };
 }

@@ -83,11 +83,8 @@ export async function revokeStatusLink(db: DB, actor: StaffUser, linkId: number)
   return { id: link.id, jobId: link.job_id, revokedAt: link.revoked_at ?? at };
 }
 
-/**
- * The link an e-mail carries: the job's live link if its token can still be derived, else a new
- * one issued by the dispatcher (recorded hashed; the token goes only into the e-mail).
- */
-export async function emailLinkFor(trx: Trx, jobId: number, at: string): Promise<{ id: number; token: string }> {
+/** The job's newest link that is not turned off and whose token can still be derived. */
+export async function workingLink(trx: Trx, jobId: number): Promise<{ id: number; token: string } | null> {
   const live = await trx
     .selectFrom("status_link")
     .select(["id", "nonce", "token_hash"])
@@ -97,13 +94,26 @@ export async function emailLinkFor(trx: Trx, jobId: number, at: string): Promise
     .limit(1)
     .executeTakeFirst();
   const token = live ? tokenFor(live) : null;
-  if (live && token) return { id: live.id, token };
-  return insertLink(trx, jobId, null, at);
+  return live && token ? { id: live.id, token } : null;
 }
 
-/** The token of a link chosen earlier, if it still works and can be derived. */
-export async function liveLinkToken(trx: Trx | DB, linkId: number): Promise<string | null> {
-  const link = await trx.selectFrom("status_link").select(["nonce", "token_hash", "revoked_at"]).where("id", "=", linkId).executeTakeFirst();
-  if (!link || link.revoked_at) return null;
-  return tokenFor(link);
+/**
+ * The link a first e-mail carries: the job's working link, else a new one issued by the
+ * dispatcher (recorded hashed; the token goes only into the e-mail).
+ */
+export async function emailLinkFor(trx: Trx, jobId: number, at: string): Promise<{ id: number; token: string }> {
+  return (await workingLink(trx, jobId)) ?? insertLink(trx, jobId, null, at);
+}
+
+/**
+ * The link a retried e-mail carries: the one it was rendered with while that works; if the office
+ * turned it off, the job's working link, or "turned_off" when there is none, because a link the
+ * office ended is never replaced behind its back. A link whose token cannot be derived any more
+ * (the secret changed) was not the office's doing and is replaced as for a first e-mail.
+ */
+export async function retryLinkFor(trx: Trx, jobId: number, linkId: number | null, at: string): Promise<{ id: number; token: string } | "turned_off"> {
+  const link = linkId ? await trx.selectFrom("status_link").select(["id", "nonce", "token_hash", "revoked_at"]).where("id", "=", linkId).executeTakeFirst() : undefined;
+  if (!link || link.revoked_at) return (await workingLink(trx, jobId)) ?? "turned_off";
+  const token = tokenFor(link);
+  return token ? { id: link.id, token } : emailLinkFor(trx, jobId, at);
 }

@@ -1,4 +1,6 @@
-import { mkdtempSync, rmSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import http from "node:http";
+import type { AddressInfo } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
@@ -7,6 +9,7 @@ import * as jobMessages from "@/app/api/jobs/[id]/messages/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as jobLinks from "@/app/api/jobs/[id]/status-links/route";
 import * as resend from "@/app/api/messages/[id]/resend/route";
+import * as linkItem from "@/app/api/status-links/[id]/route";
 import { closeDb, getDb } from "@/db";
 import type { Role, Stage } from "@/db/schema";
 import { type Fakes, startFakes } from "@/fakes/server.mjs";
@@ -75,6 +78,20 @@ async function move(cookie: string, jobId: number, toStage: Stage) {
 
 async function outbox(jobId: number) {
   return db().selectFrom("outbox").selectAll().where("job_id", "=", jobId).orderBy("created_at").orderBy("id").execute();
+}
+
+async function failNextEmails(count: number, status = 503) {
+  await fetch(`${fake.url}/__fake/fail-emails`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ count, status }) });
+}
+
+/** A move whose first send attempt fails, so the row waits for its retry. */
+async function moveThatMustRetry(jobId: number) {
+  await move(await tech(), jobId, "fabricate");
+  await failNextEmails(1);
+  expect(await dispatchDueOutbox(db(), new Date(), sender)).toMatchObject({ claimed: 1, retrying: 1 });
+  const [row] = await outbox(jobId);
+  expect(row.status).toBe("pending");
+  return { row, retryAt: new Date(row.next_attempt_at) };
 }
 
 function linkIn(text: string) {
@@ -326,5 +343,143 @@ describe("the job's messages and resending", () => {
 
     expect((await again(office.cookie, "not-a-uuid")).status).toBe(400);
     expect((await again(office.cookie, "00000000-0000-4000-8000-000000000000")).status).toBe(404);
+  });
+});
+
+describe("a retry sends what is true when it goes", () => {
+  const putSettings = (cookie: string, jobId: number, body: unknown) =>
+    emailSettings.PUT(request(`/api/jobs/${jobId}/email-settings`, { method: "PUT", cookie, body }), params({ id: String(jobId) }));
+
+  async function storedMessage(outboxId: string) {
+    return db().selectFrom("email_message").selectAll().where("outbox_id", "=", outboxId).executeTakeFirstOrThrow();
+  }
+
+  it("goes only to the contacts the job has now, re-rendered under a new idempotency key", async () => {
+    const { job, contacts, customerId } = await customerJob();
+    const dispatch = `dispatch-${customerId}@fleet.example`;
+    const { row, retryAt } = await moveThatMustRetry(job.id);
+    expect((JSON.parse((await storedMessage(row.id)).to_addresses) as string[]).sort()).toEqual([dispatch, `fleet-${customerId}@fleet.example`]);
+
+    const office = await as("office");
+    expect((await putSettings(office.cookie, job.id, { emailOff: false, contactIds: [contacts.dispatch] })).status).toBe(200);
+    expect(await dispatchDueOutbox(db(), retryAt, sender)).toMatchObject({ claimed: 1, sent: 1 });
+
+    const sent = await emails();
+    expect(sent.map((e) => e.to)).toEqual([[dispatch]]);
+    expect(sent[0].idempotencyKey).toBe(`${row.id}:r1`);
+    expect(await storedMessage(row.id)).toMatchObject({ revision: 1, to_addresses: JSON.stringify([dispatch]), provider_id: sent[0].id });
+    const listed = await readBody(await jobMessages.GET(request(`/api/jobs/${job.id}/messages`, { cookie: office.cookie }), params({ id: String(job.id) })));
+    expect(listed.messages[0]).toMatchObject({ state: "sent", recipients: [dispatch] });
+  });
+
+  it("is skipped when the office switched e-mail off, or left nobody to receive it, after the first attempt", async () => {
+    const office = await as("office");
+    const off = await customerJob();
+    const first = await moveThatMustRetry(off.job.id);
+    expect((await putSettings(office.cookie, off.job.id, { emailOff: true, contactIds: [off.contacts.dispatch, off.contacts.fleet] })).status).toBe(200);
+    expect(await dispatchDueOutbox(db(), first.retryAt, sender)).toMatchObject({ claimed: 1, skipped: 1, sent: 0 });
+    expect((await outbox(off.job.id))[0]).toMatchObject({ status: "skipped", last_error: "E-mail is off for this job." });
+
+    const nobody = await customerJob();
+    const second = await moveThatMustRetry(nobody.job.id);
+    expect((await putSettings(office.cookie, nobody.job.id, { emailOff: false, contactIds: [] })).status).toBe(200);
+    expect(await dispatchDueOutbox(db(), second.retryAt, sender)).toMatchObject({ claimed: 1, skipped: 1, sent: 0 });
+    expect((await outbox(nobody.job.id))[0]).toMatchObject({ status: "skipped", last_error: expect.stringMatching(/^Nobody on this job receives e-mail/) });
+    expect(await emails()).toEqual([]);
+  });
+
+  it("does not bring back a status link the office turned off: the message is skipped and no new link is issued", async () => {
+    const { job } = await customerJob();
+    const { row, retryAt } = await moveThatMustRetry(job.id);
+    const { status_link_id: linkId } = await storedMessage(row.id);
+    expect(linkId).not.toBeNull();
+    const office = await as("office");
+    const revoked = await linkItem.DELETE(request(`/api/status-links/${linkId}`, { method: "DELETE", cookie: office.cookie }), params({ id: String(linkId) }));
+    expect(revoked.status).toBe(200);
+
+    expect(await dispatchDueOutbox(db(), retryAt, sender)).toMatchObject({ claimed: 1, skipped: 1, sent: 0 });
+    expect((await outbox(job.id))[0]).toMatchObject({
+      status: "skipped",
+      last_error: "The office turned off the status link before this e-mail went out; issue a new link, then send the message again.",
+    });
+    expect(await emails()).toEqual([]);
+    const links = await db().selectFrom("status_link").select(["id", "revoked_at"]).where("job_id", "=", job.id).execute();
+    expect(links).toEqual([{ id: linkId, revoked_at: expect.any(String) }]);
+  });
+
+  it("carries the link the office issued in place of the one it was rendered with, under a new idempotency key", async () => {
+    const { job } = await customerJob();
+    const { row, retryAt } = await moveThatMustRetry(job.id);
+    const office = await as("office");
+    const reissued = await readBody(await jobLinks.POST(request(`/api/jobs/${job.id}/status-links`, { method: "POST", cookie: office.cookie }), params({ id: String(job.id) })));
+
+    expect(await dispatchDueOutbox(db(), retryAt, sender)).toMatchObject({ claimed: 1, sent: 1 });
+    const [mail] = await emails();
+    expect(`https://status.cold-creek.example/status/${linkIn(mail.text)}`).toBe(reissued.link.url);
+    expect(mail.idempotencyKey).toBe(`${row.id}:r1`);
+    expect(await storedMessage(row.id)).toMatchObject({ revision: 1, status_link_id: reissued.link.id });
+    expect(await db().selectFrom("status_link").select("id").where("job_id", "=", job.id).execute()).toHaveLength(2);
+  });
+
+  it("keeps the first key when nothing changed between attempts", async () => {
+    const { job } = await customerJob();
+    const { row, retryAt } = await moveThatMustRetry(job.id);
+    expect(await dispatchDueOutbox(db(), retryAt, sender)).toMatchObject({ sent: 1 });
+    expect((await emails()).map((e) => e.idempotencyKey)).toEqual([row.id]);
+    expect(await storedMessage(row.id)).toMatchObject({ revision: 0 });
+  });
+});
+
+describe("the retry schedule and its limits", () => {
+  it("makes 10 attempts over 3 h 3 min 30 s (30 s doubling, at most an hour apart), as the README says", () => {
+    const waits = Array.from({ length: MAX_ATTEMPTS - 1 }, (_, i) => backoffMs(i + 1));
+    expect(waits.map((ms) => ms / 1000)).toEqual([30, 60, 120, 240, 480, 960, 1920, 3600, 3600]);
+    expect(waits.reduce((a, b) => a + b, 0)).toBe((3 * 3600 + 3 * 60 + 30) * 1000);
+    const readme = readFileSync(new URL("../../README.md", import.meta.url), "utf8");
+    expect(readme).toContain("10 attempts over 3 h 3 min 30 s");
+    expect(readme).not.toMatch(/about two hours/);
+  });
+
+  it("a row whose send never finishes (the server dies mid-send every time) ends failed after its last attempt", async () => {
+    const { job } = await customerJob();
+    await move(await tech(), job.id, "fabricate");
+    let calls = 0;
+    const dying: EmailSender = {
+      send() {
+        calls += 1;
+        return new Promise(() => undefined);
+      },
+    };
+    let now = new Date();
+    for (let i = 1; i <= MAX_ATTEMPTS; i++) {
+      void dispatchDueOutbox(db(), now, dying);
+      await vi.waitFor(() => expect(calls).toBe(i), { timeout: 5_000, interval: 20 });
+      now = new Date(now.getTime() + LEASE_MS + 1000);
+    }
+    expect((await outbox(job.id))[0]).toMatchObject({ status: "pending", attempts: MAX_ATTEMPTS });
+
+    expect(await dispatchDueOutbox(db(), now, dying)).toMatchObject({ claimed: 0, failed: 1 });
+    expect(calls).toBe(MAX_ATTEMPTS);
+    expect((await outbox(job.id))[0]).toMatchObject({
+      status: "failed",
+      attempts: MAX_ATTEMPTS,
+      last_error: `Gave up after ${MAX_ATTEMPTS} attempts: the last one never finished (the server stopped while sending).`,
+    });
+    expect(await dispatchDueOutbox(db(), new Date(now.getTime() + 86_400_000), dying)).toMatchObject({ claimed: 0, failed: 0 });
+  });
+
+  it("a service that never answers is given up on after the send timeout, and the row waits for its retry", async () => {
+    const silent = http.createServer(() => undefined);
+    await new Promise<void>((resolve) => silent.listen(0, "127.0.0.1", resolve));
+    try {
+      const slow = resendSender("re_test_dispatch", `http://127.0.0.1:${(silent.address() as AddressInfo).port}`, { timeoutMs: 300 });
+      const { job } = await customerJob();
+      await move(await tech(), job.id, "fabricate");
+      expect(await dispatchDueOutbox(db(), new Date(), slow)).toMatchObject({ claimed: 1, retrying: 1 });
+      expect((await outbox(job.id))[0]).toMatchObject({ status: "pending", attempts: 1, last_error: "The e-mail service did not answer within 0.3 s." });
+    } finally {
+      silent.closeAllConnections();
+      await new Promise<void>((resolve) => silent.close(() => resolve()));
+    }
   });
 });

@@ -1,10 +1,10 @@
-import { existsSync, mkdtempSync, rmSync } from "node:fs";
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import sharp from "sharp";
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import * as jobPhotos from "@/app/api/jobs/[id]/photos/route";
 import * as photoItem from "@/app/api/photos/[id]/route";
 import type { Role } from "@/db/schema";
@@ -233,6 +233,29 @@ describe("uploading photos through the upload service", () => {
     expect(wrong.body.message).toBe("That part is not on this job.");
     const right = await upload([{ name: "a.jpg", type: "image/jpeg", bytes: tiny }], { jobId: other.id, stage: "queued", partId: (part as { id: number }).id }, { cookie });
     expect(right.results[0].serverData.photoId).toBeGreaterThan(0);
+  });
+
+  it("removes the original from the upload service even when the photo cannot be saved", async () => {
+    const { cookie } = await as("tech");
+    const job = await makeJob(db());
+    const photosDirBefore = process.env.PHOTOS_DIR;
+    // A file where the photos folder should be: saving the cleaned copies fails.
+    const blocked = path.join(tempDir(), "not-a-folder");
+    writeFileSync(blocked, "");
+    process.env.PHOTOS_DIR = blocked;
+    // The server logs why; here that is expected, not a stray error.
+    const logged = vi.spyOn(console, "error").mockImplementation(() => undefined);
+    try {
+      const done = await upload([{ name: "gps.jpg", type: "image/jpeg", bytes: await phonePhoto({ r: 60, g: 120, b: 60 }) }], { jobId: job.id, stage: "queued" }, { cookie });
+      expect(done.status).toBe(200);
+      expect(done.results[0]).toMatchObject({ status: 200, serverData: { failed: "gps.jpg: the shop's server could not save this photo. Send it again; if that fails too, tell the office." } });
+    } finally {
+      process.env.PHOTOS_DIR = photosDirBefore;
+    }
+    expect(logged).toHaveBeenCalledWith(expect.stringMatching(/^Photo gps\.jpg \(upload \S+\) could not be kept:/), expect.anything());
+    expect(await db().selectFrom("photo").select("id").where("job_id", "=", job.id).execute()).toEqual([]);
+    // The original still carries its GPS position: it must not stay at the upload service.
+    expect(await uploadsAtFake()).toEqual([]);
   });
 
   it("refuses an upload without a session, a cross-site one, and a forged completion callback", async () => {

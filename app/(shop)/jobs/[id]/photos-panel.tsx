@@ -76,8 +76,9 @@ export function PhotosPanel({ jobId, jobStage, stages, parts, role, initialPhoto
       });
       results.forEach((result, i) => {
         const id = ok[i].row.id;
-        const data = result.serverData as { photoId: number } | { refused: string } | null;
+        const data = result.serverData as { photoId: number } | { refused: string } | { failed: string } | null;
         if (data && "refused" in data) update(id, { state: "refused", reason: data.refused.replace(/^[^:]*: /, "") });
+        else if (data && "failed" in data) update(id, { state: "failed", reason: data.failed.replace(/^[^:]*: /, "") });
         else update(id, { state: "saved", progress: 100 });
       });
       setCaption("");
