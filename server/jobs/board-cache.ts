@@ -6,13 +6,15 @@ import { dataGeneration } from "@/db";
  * kept per filter and day until anything is written. Small and bounded: old entries fall out.
  */
 const MAX_ENTRIES = 64;
-const cache = new Map<string, { generation: string; body: string }>();
+const cache = new Map<string, { generation: string; body: Uint8Array }>();
+const encoder = new TextEncoder();
 
-export async function cachedBoardJson(key: string, build: () => Promise<unknown>): Promise<string> {
+/** The board's JSON, already encoded, so a repeat read costs neither a query nor a copy. */
+export async function cachedBoardJson(key: string, build: () => Promise<unknown>): Promise<Uint8Array> {
   const generation = dataGeneration();
   const hit = cache.get(key);
   if (hit && hit.generation === generation) return hit.body;
-  const body = JSON.stringify(await build());
+  const body = encoder.encode(JSON.stringify(await build()));
   // Only keep it if nothing was written while it was built.
   if (dataGeneration() === generation) {
     cache.delete(key);

@@ -11,23 +11,19 @@ import { nextGateState } from "./gates";
 import type { BoardFilter } from "./schemas";
 import { BOARD_STAGES, STAGE_LABELS } from "./stages";
 
+/** What a card shows, and no more: the board is fetched often by every open screen. */
 export interface BoardCard {
   id: number;
   workOrder: string;
   stage: Stage;
-  position: number;
   version: number;
   scope: JobScope;
   priority: Priority;
-  description: string;
-  customerId: number;
   customerName: string;
   unitNumber: string;
   vinLast6: string;
-  truckDescription: string;
   dueOn: string | null;
   overdue: boolean;
-  techId: string | null;
   techName: string | null;
   /** The next gate ahead of the card and what it still needs; null when none is ahead. */
   gate: { stage: Stage; label: string; unmet: string[] } | null;
@@ -53,9 +49,8 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
     .innerJoin("truck", "truck.id", "job.truck_id")
     .leftJoin("staff", "staff.id", "job.assigned_tech_id")
     .select([
-      "job.id", "job.work_order", "job.stage", "job.position", "job.version", "job.scope", "job.priority", "job.description",
-      "job.due_on", "job.assigned_tech_id", "customer.id as customer_id", "customer.name as customer_name",
-      "truck.unit_number", "truck.vin", "truck.description as truck_description", "staff.name as tech_name",
+      "job.id", "job.work_order", "job.stage", "job.version", "job.scope", "job.priority",
+      "job.due_on", "customer.name as customer_name", "truck.unit_number", "truck.vin", "staff.name as tech_name",
     ])
     .where("job.stage", "!=", "delivered");
   if (filter.tech === "none") query = query.where("job.assigned_tech_id", "is", null);
@@ -90,19 +85,14 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       id: r.id,
       workOrder: r.work_order,
       stage: r.stage,
-      position: r.position,
       version: r.version,
       scope: r.scope,
       priority: r.priority,
-      description: r.description,
-      customerId: r.customer_id,
       customerName: r.customer_name,
       unitNumber: r.unit_number,
       vinLast6: r.vin.slice(-6),
-      truckDescription: r.truck_description,
       dueOn: r.due_on,
       overdue: r.due_on !== null && r.due_on < today,
-      techId: r.assigned_tech_id,
       techName: r.tech_name ? r.tech_name.split(" ")[0] : null,
       gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
       coating: coating.get(r.id) ?? null,

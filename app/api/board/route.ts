@@ -16,6 +16,6 @@ export async function GET(req: Request) {
     // The minute is part of the key: "overdue" flips at the shop's midnight even when nothing is written.
     const key = `${now.toISOString().slice(0, 16)}|${JSON.stringify(filter)}`;
     const body = await cachedBoardJson(key, () => loadBoard(getDb(), filter, now));
-    return new Response(body, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
+    return new Response(body as BodyInit, { headers: { "content-type": "application/json", "cache-control": "no-store" } });
   });
 }
