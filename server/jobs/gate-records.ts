@@ -5,12 +5,17 @@ import type { GateRecords } from "./gates";
 
 /**
  * The records each job's gates read, for many jobs at once (the board asks for hundreds): one
- * statement for the parts with their leak-test and coating state, one for the sign-offs, whatever
- * the number of jobs. Takes a transaction too, so a move decides on what it will commit against.
+ * statement for the part counts, one for the parts with their leak-test and coating state, one
+ * for the sign-offs, whatever the number of jobs. Takes a transaction too, so a move decides on what it will commit against.
  */
 export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promise<Map<number, GateRecords>> {
-  const records = new Map<number, GateRecords>(jobIds.map((id) => [id, { leakTestParts: [], coatedParts: [], signOff: null }]));
+  const records = new Map<number, GateRecords>(jobIds.map((id) => [id, { partCount: 0, leakTestParts: [], coatedParts: [], signOff: null }]));
   if (jobIds.length === 0) return records;
+  const counts = await db.selectFrom("part").select(["job_id", (eb) => eb.fn.countAll<number>().as("n")]).where("job_id", "in", jobIds).groupBy("job_id").execute();
+  for (const c of counts) {
+    const job = records.get(c.job_id);
+    if (job) job.partCount = Number(c.n);
+  }
   const parts = await partStatuses(db, { jobIds, onlyGated: true });
   const signOffs = await signOffStates(db, jobIds);
   for (const part of parts) {

@@ -3,6 +3,8 @@ import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
 
 /** What the gates read of a job's records; the records loader fills it, tests build it by hand. */
 export interface GateRecords {
+  /** How many parts are recorded on the job at all; a job with fabricated parts must list them. */
+  partCount: number;
   /** Parts marked for a leak test, with whether a passing test is newer than their last rework. */
   leakTestParts: { name: string; passedSinceRework: boolean; lastResult: "pass" | "fail" | null }[];
   /** Parts marked for outside coating: whether sent (absent means sent), back, and inspected. */
@@ -11,7 +13,7 @@ export interface GateRecords {
   signOff: { complete: boolean; missing: string[] } | null;
 }
 
-export const NO_RECORDS: GateRecords = { leakTestParts: [], coatedParts: [], signOff: null };
+export const NO_RECORDS: GateRecords = { partCount: 0, leakTestParts: [], coatedParts: [], signOff: null };
 
 export type GatedStage = "coating" | "install" | "ready";
 export const GATED_STAGES: readonly GatedStage[] = ["coating", "install", "ready"];
@@ -20,6 +22,8 @@ export const GATED_STAGES: readonly GatedStage[] = ["coating", "install", "ready
 export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
   switch (gate) {
     case "coating":
+      // The coating gate sits only on the fabrication route, so a job here must have parts to show for it.
+      if (records.partCount === 0) return ["No fabricated parts are recorded on this job yet: add them under Parts (or make the job install only)."];
       return records.leakTestParts
         .filter((p) => !p.passedSinceRework)
         .map((p) =>

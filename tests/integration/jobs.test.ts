@@ -167,6 +167,14 @@ describe("moving cards", () => {
     expect(await db().selectFrom("stage_event").select("id").where("job_id", "=", job.id).execute()).toHaveLength(0);
   });
 
+  it("a job with fabricated parts but none recorded cannot skip ahead past the coating gate", async () => {
+    const { cookie } = await as("office");
+    const job = await makeJob(db(), { stage: "queued", parts: false });
+    const res = await move(cookie, job.id, { toStage: "install", version: job.version });
+    expect(res.status).toBe(422);
+    expect((await readBody(res)).error.details.unmet).toEqual([expect.stringMatching(/No fabricated parts are recorded on this job yet/)]);
+  });
+
   it("only an owner overrides a gate, and the reason is kept on the stage event", async () => {
     const tech = await as("tech");
     const owner = await as("owner");

@@ -50,7 +50,7 @@ describe("parts", () => {
   it("a tech adds a reservoir with its geometry; the shape follows the geometry", async () => {
     await ensureShop(db());
     const tech = await as("tech");
-    const job = await makeJob(db(), { stage: "fabricate" });
+    const job = await makeJob(db(), { stage: "fabricate", parts: false });
     const part = await addPart(tech.cookie, job.id, { ...tankBody, geometry: { shape: "round", insideDiameterIn: 18, lengthIn: 36.5 } });
     expect(part).toEqual(expect.objectContaining({ shape: "round", geometry: { shape: "round", insideDiameterIn: 18, lengthIn: 36.5 }, needsLeakTest: true, reworkCount: 0, coating: null }));
     const list = await readBody(await parts.GET(request(`/api/jobs/${job.id}/parts`, { cookie: tech.cookie }), params({ id: String(job.id) })));

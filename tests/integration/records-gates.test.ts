@@ -287,6 +287,6 @@ describe("loading gate records for the board", () => {
     expect(records.size).toBe(620);
     expect(records.get(tested.id)!.leakTestParts).toEqual([{ name: tank.name, passedSinceRework: true, lastResult: "pass" }]);
     expect(records.get(untested.id)!.leakTestParts).toEqual([{ name: "Untested tank", passedSinceRework: false, lastResult: null }]);
-    expect(records.get(jobs[0].id)).toEqual({ leakTestParts: [], coatedParts: [], signOff: null });
+    expect(records.get(jobs[0].id)).toEqual({ partCount: 1, leakTestParts: [], coatedParts: [], signOff: null });
   });
 });

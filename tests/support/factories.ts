@@ -48,7 +48,12 @@ export async function makeTruck(db: DB, customerId: number) {
     .executeTakeFirstOrThrow();
 }
 
-export async function makeJob(db: DB, opts: { stage?: Stage; scope?: JobScope; position?: number; customerId?: number; truckId?: number; notes?: string } = {}) {
+/**
+ * A job for tests. A fabrication job comes with one plain part (a bracket that needs neither a
+ * leak test nor coating), as a real one would, so the coating gate's "no parts recorded" rule
+ * does not get in the way; pass `parts: false` for a job with none.
+ */
+export async function makeJob(db: DB, opts: { stage?: Stage; scope?: JobScope; position?: number; customerId?: number; truckId?: number; notes?: string; parts?: boolean } = {}) {
   const customerId = opts.customerId ?? (await makeCustomer(db)).id;
   const truckId = opts.truckId ?? (await makeTruck(db, customerId)).id;
   const stage = opts.stage ?? "queued";
@@ -61,5 +66,11 @@ export async function makeJob(db: DB, opts: { stage?: Stage; scope?: JobScope; p
     .values({ work_order: `WO-T-${next()}-${randomUUID().slice(0, 4)}`, customer_id: customerId, truck_id: truckId, scope: opts.scope ?? "fabrication", description: "Wet kit", stage, position, due_on: null, assigned_tech_id: null, priority: "normal", notes: opts.notes ?? "", version: 1, created_at: now, updated_at: now })
     .returning(["id", "version", "stage", "position", "work_order"])
     .executeTakeFirstOrThrow();
+  if ((opts.scope ?? "fabrication") === "fabrication" && opts.parts !== false) {
+    await db
+      .insertInto("part")
+      .values({ job_id: job.id, name: "Mounting bracket", kind: "bracket", material: "carbon_steel", needs_leak_test: 0, needs_coating: 0, created_at: now, updated_at: now } as never)
+      .execute();
+  }
   return job;
 }

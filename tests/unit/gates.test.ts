@@ -3,7 +3,7 @@ import { type GateRecords, NO_RECORDS, checkMove, gateUnmet, nextGateState } fro
 import { stagesFor } from "@/server/jobs/stages";
 
 const tank = (passed: boolean, last: "pass" | "fail" | null = passed ? "pass" : null) => ({ name: "40 gal round reservoir", passedSinceRework: passed, lastResult: last });
-const records = (over: Partial<GateRecords>): GateRecords => ({ ...NO_RECORDS, ...over });
+const records = (over: Partial<GateRecords>): GateRecords => ({ ...NO_RECORDS, partCount: 1, ...over });
 
 describe("stage gates", () => {
   it("into coating: every leak-test part needs a pass newer than its last rework", () => {
@@ -25,7 +25,7 @@ describe("stage gates", () => {
   });
 
   it("into ready: the sign-off must be complete, and says what is missing", () => {
-    expect(checkMove("wire", "ready", "fabrication", NO_RECORDS).unmet).toEqual(["Into Ready for pickup: Wiring & run-test sign-off: not started."]);
+    expect(checkMove("wire", "ready", "fabrication", records({})).unmet).toEqual(["Into Ready for pickup: Wiring & run-test sign-off: not started."]);
     const partial = records({ signOff: { complete: false, missing: ["relief pressure reading"] } });
     expect(checkMove("wire", "ready", "fabrication", partial).unmet[0]).toMatch(/relief pressure reading/);
     expect(checkMove("wire", "ready", "fabrication", records({ signOff: { complete: true, missing: [] } })).unmet).toEqual([]);
@@ -53,6 +53,14 @@ describe("stage gates", () => {
   it("a part not yet sent for coating says so", () => {
     const unsent = records({ coatedParts: [{ name: "Battery box", sent: false, received: false, inspected: false }] });
     expect(gateUnmet("install", unsent)).toEqual(["Battery box: not sent for coating yet; send it out on a coating run."]);
+  });
+
+  it("a job with fabricated parts cannot pass the coating gate with no parts recorded", () => {
+    expect(checkMove("queued", "install", "fabrication", NO_RECORDS).unmet).toEqual([
+      "Into Outside coating: No fabricated parts are recorded on this job yet: add them under Parts (or make the job install only).",
+    ]);
+    // An install-only job has no coating gate, so it needs no parts.
+    expect(checkMove("queued", "install", "install_only", NO_RECORDS).unmet).toEqual([]);
   });
 
   it("ungated forward moves pass: queued → fabricate → pressure test", () => {

@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 
 import { Field, FormAlert, buttonClass, inputClass, str, useApiForm } from "@/components/form";
+import { JobPlanFields } from "@/components/job-fields";
 import { type MoveRefusal, refusalOf, sendMove } from "@/components/move-job";
 import { RefusalNote } from "@/components/refusal-note";
 import type { JobScope, Role, Stage } from "@/db/schema";
@@ -105,33 +106,7 @@ export function JobEditor({ job, techs, role }: { job: JobDetail; techs: { id: s
       {!techOnly && (
         <>
           <Field label="Work" name="description" errors={form.fields.description}>{(p) => <textarea {...p} rows={2} defaultValue={job.description} className={inputClass} />}</Field>
-          <Field label="Scope" name="scope" errors={form.fields.scope}>
-            {(p) => (
-              <select {...p} defaultValue={job.scope} className={inputClass}>
-                <option value="fabrication">Fabricated parts (full route)</option>
-                <option value="install_only">Install only (skips fabricate, pressure test, coating)</option>
-              </select>
-            )}
-          </Field>
-          <Field label="Due" name="dueOn" errors={form.fields.dueOn}>{(p) => <input {...p} type="date" defaultValue={job.dueOn ?? ""} className={inputClass} />}</Field>
-          <Field label="Assigned to" name="assignedTechId" errors={form.fields.assignedTechId}>
-            {(p) => (
-              <select {...p} defaultValue={job.assignedTechId ?? ""} className={inputClass}>
-                <option value="">Nobody yet</option>
-                {techs.map((t) => (
-                  <option key={t.id} value={t.id}>{t.name}</option>
-                ))}
-              </select>
-            )}
-          </Field>
-          <Field label="Priority" name="priority" errors={form.fields.priority}>
-            {(p) => (
-              <select {...p} defaultValue={job.priority} className={inputClass}>
-                <option value="normal">Normal</option>
-                <option value="rush">Rush</option>
-              </select>
-            )}
-          </Field>
+          <JobPlanFields fields={form.fields} techs={techs} initial={job} />
         </>
       )}
       <Field label="Notes (staff only, never shown to the customer)" name="notes" errors={form.fields.notes}>{(p) => <textarea {...p} rows={4} defaultValue={job.notes} className={inputClass} />}</Field>

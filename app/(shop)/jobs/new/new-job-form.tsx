@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Field, FormAlert, buttonClass, inputClass, str, useApiForm } from "@/components/form";
+import { JobPlanFields } from "@/components/job-fields";
 
 interface Props {
   customers: { id: number; name: string }[];
@@ -61,38 +62,10 @@ export function NewJobForm({ customers, trucks, techs, preset }: Props) {
           This customer has no truck on file. <Link className="underline" href={`/trucks/new?customerId=${customerId}`}>Add their truck</Link>.
         </p>
       )}
-      <Field label="Scope" name="scope" errors={form.fields.scope}>
-        {(p) => (
-          <select {...p} defaultValue="fabrication" className={inputClass}>
-            <option value="fabrication">Fabricated parts: fabricate, pressure test, outside coating, install, wire</option>
-            <option value="install_only">Install only: no fabricated parts (skips fabricate, pressure test, coating)</option>
-          </select>
-        )}
-      </Field>
       <Field label="Work" name="description" errors={form.fields.description} hint="For example: wet kit, 40 gal aluminum round reservoir between the rails">
         {(p) => <textarea {...p} rows={3} className={inputClass} />}
       </Field>
-      <div className="grid gap-3 sm:grid-cols-3">
-        <Field label="Due" name="dueOn" errors={form.fields.dueOn}>{(p) => <input {...p} type="date" className={inputClass} />}</Field>
-        <Field label="Assigned to" name="assignedTechId" errors={form.fields.assignedTechId}>
-          {(p) => (
-            <select {...p} defaultValue="" className={inputClass}>
-              <option value="">Nobody yet</option>
-              {techs.map((t) => (
-                <option key={t.id} value={t.id}>{t.name}</option>
-              ))}
-            </select>
-          )}
-        </Field>
-        <Field label="Priority" name="priority" errors={form.fields.priority}>
-          {(p) => (
-            <select {...p} defaultValue="normal" className={inputClass}>
-              <option value="normal">Normal</option>
-              <option value="rush">Rush</option>
-            </select>
-          )}
-        </Field>
-      </div>
+      <JobPlanFields fields={form.fields} techs={techs} />
       <Field label="Notes (staff only)" name="notes" errors={form.fields.notes}>{(p) => <textarea {...p} rows={3} className={inputClass} />}</Field>
       <button type="submit" className={buttonClass.primary} disabled={form.pending}>{form.pending ? "Opening…" : "Open the work order"}</button>
     </form>

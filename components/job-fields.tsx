@@ -1,0 +1,40 @@
+"use client";
+
+import { Field, inputClass } from "./form";
+
+/** The scope, due date, assignment and priority of a job: the same fields when opening and editing one. */
+export function JobPlanFields({ fields, techs, initial }: { fields: Record<string, string[]>; techs: { id: string; name: string }[]; initial?: { scope: string; dueOn: string | null; assignedTechId: string | null; priority: string } }) {
+  return (
+    <>
+      <Field label="Scope" name="scope" errors={fields.scope}>
+        {(p) => (
+          <select {...p} defaultValue={initial?.scope ?? "fabrication"} className={inputClass}>
+            <option value="fabrication">Fabricated parts: fabricate, pressure test, outside coating, install, wire</option>
+            <option value="install_only">Install only: no fabricated parts (skips fabricate, pressure test, coating)</option>
+          </select>
+        )}
+      </Field>
+      <div className="grid gap-3 sm:grid-cols-3 lg:grid-cols-1">
+        <Field label="Due" name="dueOn" errors={fields.dueOn}>{(p) => <input {...p} type="date" defaultValue={initial?.dueOn ?? ""} className={inputClass} />}</Field>
+        <Field label="Assigned to" name="assignedTechId" errors={fields.assignedTechId}>
+          {(p) => (
+            <select {...p} defaultValue={initial?.assignedTechId ?? ""} className={inputClass}>
+              <option value="">Nobody yet</option>
+              {techs.map((t) => (
+                <option key={t.id} value={t.id}>{t.name}</option>
+              ))}
+            </select>
+          )}
+        </Field>
+        <Field label="Priority" name="priority" errors={fields.priority}>
+          {(p) => (
+            <select {...p} defaultValue={initial?.priority ?? "normal"} className={inputClass}>
+              <option value="normal">Normal</option>
+              <option value="rush">Rush</option>
+            </select>
+          )}
+        </Field>
+      </div>
+    </>
+  );
+}
