@@ -5,7 +5,7 @@ import { IconStop } from "./icons";
 import type { MoveRefusal } from "./move-job";
 
 /** A refused move says why, and offers the owner an override with a written reason. */
-export function RefusalNote({ refusal, onOverride, onDismiss }: { refusal: MoveRefusal; onOverride?: (reason: string) => void; onDismiss?: () => void }) {
+export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refusal: MoveRefusal; onOverride?: (reason: string) => void; onDismiss?: () => void; jobHref?: string }) {
   const [reason, setReason] = useState("");
   return (
     <div role="alert" className="space-y-2 rounded-md border border-stop-700/40 bg-stop-100 p-2 text-sm text-stop-700">
@@ -16,6 +16,11 @@ export function RefusalNote({ refusal, onOverride, onDismiss }: { refusal: MoveR
             <li key={u}>{u}</li>
           ))}
         </ul>
+      )}
+      {jobHref && refusal.unmet.length > 0 && (
+        <a href={`${jobHref}#${recordAnchor(refusal.unmet)}`} className="inline-flex min-h-11 items-center font-semibold text-bay-900 underline">
+          Open the job's records to fix this →
+        </a>
       )}
       {refusal.canOverride && onOverride && (
         <form
@@ -41,4 +46,9 @@ export function RefusalNote({ refusal, onOverride, onDismiss }: { refusal: MoveR
       )}
     </div>
   );
+}
+
+/** The part of the job page where the first missing record is kept. */
+function recordAnchor(unmet: string[]) {
+  return /sign-off/i.test(unmet[0] ?? "") ? "sign-off" : "parts";
 }

@@ -2,7 +2,7 @@ import type { Stage } from "@/db/schema";
 import { STAGE_LABELS } from "@/server/jobs/stages";
 
 /** Each stage has a word and a small numbered step, never colour alone. */
-const STEP: Record<Stage, string> = { queued: "0", fabricate: "1", pressure_test: "2", coating: "3", install: "4", wire: "5", ready: "6", delivered: "✓" };
+const STEP: Record<Stage, string> = { queued: "1", fabricate: "2", pressure_test: "3", coating: "4", install: "5", wire: "6", ready: "7", delivered: "✓" };
 
 export function StageBadge({ stage }: { stage: Stage }) {
   return (

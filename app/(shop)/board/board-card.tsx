@@ -35,7 +35,7 @@ export function SortableCard({ card, refusal, pending, actions }: { card: BoardC
             // touch-action must be set inline: the class alone is not honoured by every touch browser.
             style={{ touchAction: "none" }}
             aria-label={`Drag ${card.workOrder} to another stage or place`}
-            className="grid h-11 w-9 shrink-0 cursor-grab place-items-center rounded-md text-ink-soft hover:bg-bay-50 active:cursor-grabbing"
+            className="grid h-11 w-9 shrink-0 cursor-grab pointer-coarse:w-11 place-items-center rounded-md text-ink-soft hover:bg-bay-50 active:cursor-grabbing"
           >
             <svg viewBox="0 0 12 20" className="h-5 w-3" aria-hidden="true">
               {[3, 9].map((x) => [4, 10, 16].map((y) => <circle key={`${x}-${y}`} cx={x} cy={y} r="1.6" fill="currentColor" />))}
@@ -59,14 +59,14 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
         {handle}
         <div className="min-w-0 flex-1">
           <div className="flex items-center justify-between gap-1">
-            <Link href={`/jobs/${card.id}`} className="font-bold text-bay-900 underline-offset-2 hover:underline">
+            <Link href={`/jobs/${card.id}`} className="font-bold text-bay-900 underline-offset-2 hover:underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">
               {card.workOrder}
             </Link>
             {card.priority === "rush" && <span className="rounded bg-spark-100 px-1.5 text-xs font-bold text-spark-700">▲ Rush</span>}
           </div>
-          <p className="truncate text-sm font-semibold">{card.customerName}</p>
-          <p className="truncate text-sm text-ink-soft">
-            Unit {card.unitNumber} · …{card.vinLast6}
+          <p className="truncate text-sm font-semibold" title={card.customerName}>{card.customerName}</p>
+          <p className="text-xs text-ink-soft">
+            Unit <span className="font-semibold text-ink">{card.unitNumber}</span> · VIN …{card.vinLast6}
           </p>
         </div>
       </div>
@@ -97,7 +97,7 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
               {gateMet ? <IconCheck /> : <IconStop />} Gate to {card.gate.label}: {gateMet ? "met" : `${card.gate.unmet.length} missing`}
               {!gateMet && (
                 <details className="text-xs text-ink">
-                  <summary className="cursor-pointer text-warn-700 underline">What is missing</summary>
+                  <summary className="cursor-pointer text-warn-700 underline pointer-coarse:flex pointer-coarse:min-h-11 pointer-coarse:items-center">What is missing</summary>
                   <ul className="mt-1 list-disc pl-4">
                     {card.gate.unmet.map((u) => (
                       <li key={u}>{u}</li>
@@ -128,7 +128,7 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
       )}
       {refusal && actions && (
         <div className="mt-2">
-          <RefusalNote refusal={refusal} onOverride={(reason) => actions.override(card, reason)} onDismiss={() => actions.dismiss(card)} />
+          <RefusalNote refusal={refusal} onOverride={(reason) => actions.override(card, reason)} onDismiss={() => actions.dismiss(card)} jobHref={`/jobs/${card.id}`} />
         </div>
       )}
     </article>

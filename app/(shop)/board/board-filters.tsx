@@ -5,7 +5,7 @@ import { inputClass } from "@/components/form";
 import type { Board, BoardFilter } from "./board-types";
 
 /** Filters live in the URL so a view can be shared or bookmarked at the desk. */
-export function BoardFilters({ filter, board, onChange }: { filter: BoardFilter; board: Board; onChange: (f: BoardFilter) => void }) {
+export function BoardFilters({ filter, board, onChange, meId }: { filter: BoardFilter; board: Board; onChange: (f: BoardFilter) => void; meId: string }) {
   const [q, setQ] = useState(filter.q ?? "");
   useEffect(() => {
     const t = setTimeout(() => {
@@ -15,8 +15,8 @@ export function BoardFilters({ filter, board, onChange }: { filter: BoardFilter;
   }, [q, filter, onChange]);
   const active = Boolean(filter.q || filter.tech || filter.customer || filter.due);
   return (
-    <form role="search" className="grid grid-cols-3 items-end gap-2 md:flex md:flex-wrap" onSubmit={(e) => e.preventDefault()}>
-      <label className="col-span-3 min-w-56 flex-1 text-sm font-semibold">
+    <form role="search" className="grid grid-cols-2 items-end gap-2 md:flex md:flex-wrap" onSubmit={(e) => e.preventDefault()}>
+      <label className="col-span-2 min-w-56 flex-1 text-sm font-semibold">
         Search
         <input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Work order, unit number or last 6 of VIN" className={`${inputClass} mt-1`} />
       </label>
@@ -30,7 +30,7 @@ export function BoardFilters({ filter, board, onChange }: { filter: BoardFilter;
           ))}
         </select>
       </label>
-      <label className="text-sm font-semibold">
+      <label className="col-span-2 text-sm font-semibold md:col-span-1">
         Customer
         <select value={filter.customer ?? ""} onChange={(e) => onChange({ ...filter, customer: e.target.value ? Number(e.target.value) : undefined })} className={`${inputClass} mt-1`}>
           <option value="">All customers</option>
@@ -48,6 +48,14 @@ export function BoardFilters({ filter, board, onChange }: { filter: BoardFilter;
           <option value="two_weeks">Within 14 days</option>
         </select>
       </label>
+      <button
+        type="button"
+        aria-pressed={filter.tech === meId}
+        className={`min-h-11 rounded-md border px-3 font-semibold ${filter.tech === meId ? "border-bay-700 bg-bay-700 text-white" : "border-line bg-panel text-bay-900"}`}
+        onClick={() => onChange({ ...filter, tech: filter.tech === meId ? undefined : meId })}
+      >
+        My jobs
+      </button>
       {active && (
         <button
           type="button"

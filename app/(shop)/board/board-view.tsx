@@ -28,6 +28,10 @@ import { type Board, type BoardCard, type BoardFilter, filterToSearch } from "./
 
 const boardKey = (filter: BoardFilter) => ["board", filterToSearch(filter)] as const;
 
+// Gentle edge scrolling: on a phone the next column shows only as a strip at the screen's edge,
+// and the default speed carried a card past it to the last column.
+const AUTO_SCROLL = { threshold: { x: 0.06, y: 0.12 }, acceleration: 2 };
+
 interface PlannedMove {
   card: BoardCard;
   body: MoveBody;
@@ -48,7 +52,7 @@ function applyMove(board: Board, jobId: number, toStage: Stage, beforeJobId: num
   return { ...board, cards: rest };
 }
 
-export function BoardView({ initial, initialFilter, role }: { initial: Board; initialFilter: BoardFilter; role: Role }) {
+export function BoardView({ initial, initialFilter, role, meId }: { initial: Board; initialFilter: BoardFilter; role: Role; meId: string }) {
   const router = useRouter();
   const pathname = usePathname();
   const qc = useQueryClient();
@@ -172,7 +176,7 @@ export function BoardView({ initial, initialFilter, role }: { initial: Board; in
           {board.cards.length} on the board{isFetching ? " · refreshing…" : ""}
         </p>
       </div>
-      <BoardFilters filter={filter} board={board} onChange={changeFilter} />
+      <BoardFilters filter={filter} board={board} onChange={changeFilter} meId={meId} />
       <nav aria-label="Jump to a stage" className="relative -mx-4 flex gap-1 overflow-x-auto px-4 pb-1 xl:hidden">
         {board.columns.map((c) => (
           <a key={c.stage} href={`#column-${c.stage}`} className="flex min-h-11 shrink-0 items-center rounded-full border border-line bg-panel px-3 text-sm font-semibold">
@@ -181,7 +185,7 @@ export function BoardView({ initial, initialFilter, role }: { initial: Board; in
         ))}
       </nav>
       <p role="status" aria-live="polite" className="sr-only">{status}</p>
-      <DndContext sensors={sensors} collisionDetection={closestCorners} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setDragging(null)} accessibility={{ announcements, screenReaderInstructions: { draggable: "To pick up a card, press space or enter on its handle. Use the arrow keys to move it between stages and within a stage. Press space or enter again to drop it, or escape to cancel." } }}>
+      <DndContext sensors={sensors} collisionDetection={closestCorners} autoScroll={AUTO_SCROLL} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setDragging(null)} accessibility={{ announcements, screenReaderInstructions: { draggable: "To pick up a card, press space or enter on its handle. Use the arrow keys to move it between stages and within a stage. Press space or enter again to drop it, or escape to cancel." } }}>
         <div className="relative -mx-4 flex snap-x snap-mandatory gap-2 overflow-x-auto px-4 pb-4 xl:mx-0 xl:grid xl:snap-none xl:grid-cols-7 xl:overflow-visible xl:px-0">
           {board.columns.map((col) => (
             <Column key={col.stage} stage={col.stage} label={col.label} cards={columns.get(col.stage) ?? []} refusals={refusals} pendingId={move.isPending ? move.variables?.card.id : undefined} actions={actions} />

@@ -12,5 +12,5 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
   const parsed = boardFilterSchema.safeParse(raw);
   const filter = parsed.success ? parsed.data : {};
   const initial = await loadBoard(getDb(), filter);
-  return <BoardView initial={initial} initialFilter={filter} role={user.role} />;
+  return <BoardView initial={initial} initialFilter={filter} role={user.role} meId={user.id} />;
 }

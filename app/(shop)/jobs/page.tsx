@@ -10,7 +10,7 @@ import { STAGE_LABELS } from "@/server/jobs/stages";
 
 export const metadata = { title: "Jobs" };
 
-const SORTS = { newest: "Newest first", due: "Due date", customer: "Customer", stage: "Stage" } as const;
+const SORTS = { newest: "Newest first", due: "Due (soonest first)", customer: "Customer (A–Z)", stage: "Stage (first to last)" } as const;
 const LIMIT = 500;
 
 export default async function JobsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {

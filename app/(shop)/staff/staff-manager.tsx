@@ -63,7 +63,12 @@ export function StaffManager({ initial, selfId }: { initial: StaffRow[]; selfId:
                   className={`${inputClass} w-32`}
                   value={s.role}
                   disabled={s.id === selfId}
-                  onChange={(e) => patch(s.id, { role: e.target.value }, `${s.name} is now ${e.target.value}.`)}
+                  onChange={(e) => {
+                    const role = e.target.value;
+                    // A slip here could hand someone the keys to the shop: ask first.
+                    if (window.confirm(`Make ${s.name} ${role}? They are signed out and sign in again with the new role.`)) void patch(s.id, { role }, `${s.name} is now ${role}.`);
+                    else e.target.value = s.role;
+                  }}
                 >
                   <option value="owner">Owner</option>
                   <option value="office">Office</option>

@@ -62,7 +62,7 @@ export function MoveControl({ job, role }: { job: { id: number; stage: Stage; ve
         {pending ? "Moving…" : `Move to ${STAGE_LABELS[to]}`}
       </button>
       {done && <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">✓ {done}</p>}
-      {refusal && <RefusalNote refusal={refusal} onOverride={(reason) => go(reason)} />}
+      {refusal && <RefusalNote refusal={refusal} onOverride={(reason) => go(reason)} jobHref="" />}
     </div>
   );
 }

@@ -31,7 +31,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
 
   return (
     <div className="space-y-4">
-      <header className="flex flex-wrap items-start justify-between gap-3">
+      <div className="flex flex-wrap items-start justify-between gap-3">
         <div>
           <p className="text-sm text-ink-soft">
             <Link href="/board" className="underline">Board</Link> / <Link href="/jobs" className="underline">Jobs</Link>
@@ -46,10 +46,16 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           </p>
         </div>
         <PrintButton />
-      </header>
+      </div>
 
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_380px]">
-        <div className="space-y-4">
+      {/* On a phone the move comes first (the bench's most common action); on a desk it sits top right. */}
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_380px] lg:grid-rows-[auto_1fr] lg:items-start">
+        <div className="no-print lg:col-start-2 lg:row-start-1">
+          <Section title="Move this job">
+            <MoveControl job={{ id: job.id, stage: job.stage, version: job.version, scope: job.scope }} role={user.role} />
+          </Section>
+        </div>
+        <div className="space-y-4 lg:col-start-1 lg:row-span-2 lg:row-start-1">
           <Section title="The job">
             <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-2">
               <dt className="font-semibold">Work</dt>
@@ -72,16 +78,17 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           </Section>
           <RecordsSection job={job} user={user} />
           <KitSpecSection job={job} user={user} />
-          <PhotosSection job={job} user={user} />
-          <MessagesSection job={job} user={user} />
+          <div className="no-print space-y-4">
+            <PhotosSection job={job} user={user} />
+            <MessagesSection job={job} user={user} />
+          </div>
         </div>
-        <div className="space-y-4">
-          <Section title="Move this job">
-            <MoveControl job={{ id: job.id, stage: job.stage, version: job.version, scope: job.scope }} role={user.role} />
-          </Section>
-          <Section title={user.role === "tech" ? "Notes" : "Edit the job"}>
-            <JobEditor job={job} techs={techs} role={user.role} />
-          </Section>
+        <div className="space-y-4 lg:col-start-2 lg:row-start-2">
+          <div className="no-print">
+            <Section title={user.role === "tech" ? "Notes" : "Edit the job"}>
+              <JobEditor job={job} techs={techs} role={user.role} />
+            </Section>
+          </div>
           <Section title="Stage timeline" id="timeline">
             <ol className="space-y-3">
               {events.map((e) => (
