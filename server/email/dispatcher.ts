@@ -195,6 +195,7 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
       scope: job.scope,
       readyBy: job.due_on,
       linkDays: settings.statusLinkDays,
+      replyTo: env.EMAIL_REPLY_TO ?? null,
     });
     const message: StoredMessage = {
       from_address: fromAddress(shop.name, env.EMAIL_FROM),

@@ -31,3 +31,12 @@ export function emailConfigured(): boolean {
     return false;
   }
 }
+
+/** Whether customers' replies go somewhere (EMAIL_REPLY_TO); only then may an e-mail or page invite one. */
+export function repliesRead(): boolean {
+  try {
+    return Boolean(emailEnv().EMAIL_REPLY_TO);
+  } catch {
+    return false;
+  }
+}

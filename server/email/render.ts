@@ -19,6 +19,8 @@ export interface StageEmailInput {
   /** The job's due date (YYYY-MM-DD), shown as the expected ready date. */
   readyBy: string | null;
   linkDays: number;
+  /** Where replies go (EMAIL_REPLY_TO); without one the e-mail never invites a reply. */
+  replyTo: string | null;
 }
 
 export interface RenderedEmail {
@@ -63,6 +65,12 @@ const BAY = "#0e5a54";
 const PAPER = "#f5f3ee";
 const LINE = "#d5d9d6";
 
+/** How the customer reaches the shop: a reply is offered only when replies go somewhere. */
+export function reachWords(shopName: string, phone: string, repliesRead: boolean): string {
+  if (phone) return repliesRead ? `Questions? Call ${shopName} at ${phone}, or reply to this e-mail.` : `Questions? Call ${shopName} at ${phone}.`;
+  return repliesRead ? "Questions? Reply to this e-mail." : `Questions? Get in touch with ${shopName}.`;
+}
+
 export function renderStageEmail(input: StageEmailInput): RenderedEmail {
   const unit = plain(input.truck.unitNumber);
   const shopName = plain(input.shop.name);
@@ -73,7 +81,7 @@ export function renderStageEmail(input: StageEmailInput): RenderedEmail {
   const next = whatComesNext(input.to, input.scope, input.linkDays);
   const ready = readyDateWords(input.readyBy);
   const readyLine = input.to === "ready" || input.to === "delivered" ? null : ready ? `Expected ready date: ${ready}.` : "We will confirm the expected ready date soon.";
-  const reach = phone ? `Questions? Call ${shopName} at ${phone}, or reply to this e-mail.` : `Questions? Reply to this e-mail.`;
+  const reach = reachWords(shopName, phone, Boolean(input.replyTo));
 
   const subject = `Unit ${unit}: ${stageName.toLowerCase()} (${shopName})`;
 

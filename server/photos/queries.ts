@@ -1,5 +1,4 @@
 import "server-only";
-import { sql } from "kysely";
 import type { DB } from "@/db";
 
 /** A job's photos as staff see them, newest first. */
@@ -7,11 +6,14 @@ export async function listJobPhotos(db: DB, jobId: number) {
   const rows = await db
     .selectFrom("photo")
     .leftJoin("staff", "staff.id", "photo.uploaded_by")
+    // Only a part of the same job names the photo's part; a deleted part leaves the photo untagged.
+    .leftJoin("part", (join) => join.onRef("part.id", "=", "photo.part_id").onRef("part.job_id", "=", "photo.job_id"))
     .select([
       "photo.id",
       "photo.job_id as jobId",
       "photo.stage",
       "photo.part_id as partId",
+      "part.name as partName",
       "photo.caption",
       "photo.customer_visible",
       "photo.width",
@@ -30,22 +32,13 @@ export async function findPhoto(db: DB, id: number) {
   return db.selectFrom("photo").select(["id", "job_id", "upload_key", "customer_visible"]).where("id", "=", id).executeTakeFirst();
 }
 
-/**
- * Whether a part belongs to the job. Parts are another area's table; until it exists there is
- * nothing to check against, and the answer is null (the id is kept and can be checked later).
- */
-export async function partBelongsToJob(db: DB, jobId: number, partId: number): Promise<boolean | null> {
-  const columns = await sql<{ name: string }>`select name from pragma_table_info('part')`.execute(db);
-  if (!columns.rows.some((c) => c.name === "job_id")) return null;
-  const row = await sql<{ ok: number }>`select 1 as ok from part where id = ${partId} and job_id = ${jobId}`.execute(db);
-  return row.rows.length > 0;
+/** Whether a part belongs to the job (the photo table has no foreign key to parts: the app checks). */
+export async function partBelongsToJob(db: DB, jobId: number, partId: number): Promise<boolean> {
+  const row = await db.selectFrom("part").select("id").where("id", "=", partId).where("job_id", "=", jobId).executeTakeFirst();
+  return Boolean(row);
 }
 
-/** The job's parts to tag a photo with; none until the parts table exists. */
+/** The job's parts to tag a photo with. */
 export async function jobParts(db: DB, jobId: number): Promise<{ id: number; name: string }[]> {
-  const columns = await sql<{ name: string }>`select name from pragma_table_info('part')`.execute(db);
-  const names = new Set(columns.rows.map((c) => c.name));
-  if (!names.has("job_id") || !names.has("name")) return [];
-  const rows = await sql<{ id: number; name: string }>`select id, name from part where job_id = ${jobId} order by id`.execute(db);
-  return rows.rows;
+  return db.selectFrom("part").select(["id", "name"]).where("job_id", "=", jobId).orderBy("id").execute();
 }

@@ -32,7 +32,7 @@ export const photoRouter = {
       const db = getDb();
       const job = await db.selectFrom("job").select("id").where("id", "=", input.jobId).executeTakeFirst();
       if (!job) throw new UploadThingError({ code: "NOT_FOUND", message: "That job was not found." });
-      if (input.partId && (await partBelongsToJob(db, input.jobId, input.partId)) === false) {
+      if (input.partId && !(await partBelongsToJob(db, input.jobId, input.partId))) {
         throw new UploadThingError({ code: "BAD_REQUEST", message: "That part is not on this job." });
       }
       return { jobId: input.jobId, stage: input.stage, partId: input.partId ?? null, caption: input.caption, uploadedBy: found.user.id };

@@ -59,6 +59,8 @@ export interface StatusView {
   stage: Stage;
   scope: JobScope;
   readyBy: string | null;
+  /** How long the link keeps working after pickup (the shop's setting). */
+  linkDays: number;
   timeline: { toStage: Stage; back: boolean; at: string }[];
   photos: { id: number; caption: string; stage: Stage; width: number; height: number }[];
 }
@@ -79,7 +81,7 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
     .where("job.id", "=", jobId)
     .executeTakeFirst();
   if (!job) return null;
-  const [events, photos, shop] = await Promise.all([
+  const [events, photos, shop, settings] = await Promise.all([
     db.selectFrom("stage_event").select(["from_stage", "to_stage", "at"]).where("job_id", "=", jobId).orderBy("id").execute(),
     db
       .selectFrom("photo")
@@ -89,6 +91,7 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
       .orderBy("id")
       .execute(),
     shopContact(db),
+    notifySettings(db),
   ]);
   return {
     shop,
@@ -96,6 +99,7 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
     stage: job.stage,
     scope: job.scope,
     readyBy: job.readyBy,
+    linkDays: settings.statusLinkDays,
     // A reorder inside a column is the shop's business, not a step of the job.
     timeline: events
       .filter((e) => e.from_stage !== e.to_stage)

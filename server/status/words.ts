@@ -1,89 +1,83 @@
 import type { JobScope, Stage } from "@/db/schema";
 import { stageIndex } from "@/server/jobs/stages";
 
-/**
- * What the truck owner reads: plain words, no shop shorthand. Shared by the status page and the
- * stage e-mails so both say the same thing.
+/*
+ * What the truck owner reads, shared by the status page and the stage e-mails so both say the
+ * same thing. Every sentence follows from the stage alone: a card can be moved on by an owner's
+ * override or back for rework, so nothing here claims a test passed, parts left or came back,
+ * or that the job has a tank, a PTO or any other particular part.
  */
+
 export const CUSTOMER_STAGE_NAMES: Record<Stage, string> = {
-  queued: "Waiting to start",
-  fabricate: "Building the parts",
-  pressure_test: "Leak testing the tank",
-  coating: "Out for powder coat",
-  install: "Installing the kit",
+  queued: "Booked in",
+  fabricate: "Fabrication",
+  pressure_test: "Pressure test",
+  coating: "Powder coat",
+  install: "Install",
   wire: "Wiring and run test",
   ready: "Ready for pickup",
   delivered: "Picked up",
 };
 
-/** One sentence: where the truck is now. */
-export function whereItIsNow(stage: Stage, scope: JobScope): string {
+/** One sentence: the stage the job is in, in plain words. */
+export function whereItIsNow(stage: Stage): string {
   switch (stage) {
     case "queued":
-      return "Your truck is booked in and waiting for its turn in the shop.";
+      return "Your job is booked in and waiting its turn in the shop.";
     case "fabricate":
-      return "We are building the tank and brackets for your truck's kit at the fabrication bench.";
+      return "We are building the fabricated parts for your truck.";
     case "pressure_test":
-      return "The tank is built and is being leak-tested with low air pressure.";
+      return "The fabricated parts are being pressure-tested for leaks.";
     case "coating":
-      return "The fabricated parts are out at the powder coater.";
+      return "Your job is at powder coat: the fabricated parts go to an outside coater and come back before install.";
     case "install":
-      return scope === "install_only" ? "Your truck is in the bay and the kit is going on." : "The parts are back from coating and the kit is going on your truck.";
+      return "We are installing the kit on your truck.";
     case "wire":
-      return "The kit is on; we are wiring the dash switch and PTO light and running the kit to test it.";
+      return "We are wiring and run-testing the kit.";
     case "ready":
       return "Your truck is ready for pickup.";
     case "delivered":
-      return "Your truck has been picked up. Thank you for your business.";
+      return "Picked up — thank you.";
   }
 }
 
-/** What happens after this stage, for the e-mail's "what comes next" line. */
+/** What the next step is, for the e-mail and under the status page's sentence. */
 export function whatComesNext(stage: Stage, scope: JobScope, linkDays = 60): string {
   switch (stage) {
     case "queued":
-      return "We will e-mail you when work starts.";
+      return scope === "install_only" ? "Next, we start installing the kit. We will e-mail you as the job moves." : "Next, we start building the fabricated parts. We will e-mail you as the job moves.";
     case "fabricate":
-      return "Next, the tank gets a low-pressure air leak test.";
+      return "Next, the fabricated parts are pressure-tested for leaks.";
     case "pressure_test":
-      return "When it passes, the parts go out for powder coat.";
+      return "Next, the parts go to an outside coater for powder coat.";
     case "coating":
-      return "When the parts come back and pass our inspection, we install the kit on your truck.";
+      return "When the parts are back from the coater, we install the kit on your truck.";
     case "install":
-      return "After the install we wire the dash switch and the PTO light and run-test the kit.";
+      return "Next, we wire the kit and run-test it.";
     case "wire":
       return "When the run test is signed off, your truck is ready for pickup.";
     case "ready":
-      return scope === "install_only" ? "Call us to set a pickup time." : "Call us to set a pickup time; we will walk you through the kit when you collect the truck.";
+      return "Get in touch with us to set a pickup time.";
     case "delivered":
       return `Your status link keeps working for ${linkDays} days in case you want to look back at the photos.`;
   }
 }
 
-/** What just happened, for the e-mail's first line. A move back says so plainly. */
+/** The e-mail's first line: the stage the job has moved to. A move back says so plainly. */
 export function whatHappened(from: Stage | null, to: Stage, scope: JobScope): string {
   if (from && stageIndex(to) < stageIndex(from)) {
-    if (from === "pressure_test" && to === "fabricate") return "The tank needs more work before it passes its leak test, so it is back at the fabrication bench.";
-    if (to === "queued") return "Work on your truck is paused for now; it is back in the queue.";
-    return `Your job has gone back a step to "${CUSTOMER_STAGE_NAMES[to].toLowerCase()}" so we can get it right.`;
+    if (to === "queued") return "Work on your truck is paused for now; your job is back in the queue.";
+    return `Your job has gone back to the ${CUSTOMER_STAGE_NAMES[to].toLowerCase()} step for more work. ${whereItIsNow(to)}`;
   }
   switch (to) {
     case "queued":
       return "Your job is booked in.";
     case "fabricate":
-      return "Work has started: we are building the parts for your truck's kit.";
-    case "pressure_test":
-      return "The tank is built and now gets its leak test.";
-    case "coating":
-      return "The tank passed its leak test and the parts have gone out for powder coat.";
+      return `Work has started. ${whereItIsNow(to)}`;
     case "install":
-      return scope === "install_only" ? "Work has started: the kit is going on your truck." : "The parts are back from powder coat and the kit is going on your truck.";
-    case "wire":
-      return "The kit is installed; we are now wiring the dash switch and PTO light and run-testing it.";
-    case "ready":
-      return "Your truck is ready for pickup.";
-    case "delivered":
-      return "Your truck has been picked up. Thank you for your business.";
+      return scope === "install_only" ? `Work has started. ${whereItIsNow(to)}` : whereItIsNow(to);
+    default:
+      return whereItIsNow(to);
   }
 }
 

@@ -4,13 +4,14 @@ import Database from "better-sqlite3";
 import type { Browser, Page } from "playwright-core";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { formatShopTime } from "@/server/records/calendar";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
 
 const enabled = Boolean(baseUrl());
 
 type Mail = { to: string[]; subject: string; text: string; html: string; createdAt: string };
 
-/** A job in Install whose customer has contacts who receive e-mail: moving it to Wire & verify passes no gate. */
+/** A job in Install with a part, whose customer has contacts who receive e-mail: moving it to Wire & verify passes no gate. */
 function pickJob() {
   const sqlite = new Database(inject("databasePath"), { readonly: true, fileMustExist: true });
   try {
@@ -18,6 +19,7 @@ function pickJob() {
       .prepare(
         `select job.id, job.version, truck.unit_number as unit from job join truck on truck.id = job.truck_id
          where job.stage = 'install' and exists (select 1 from contact where contact.customer_id = job.customer_id and contact.receives_email = 1 and contact.email != '')
+         and exists (select 1 from part where part.job_id = job.id)
          order by job.id limit 1`,
       )
       .get() as { id: number; version: number; unit: string };
@@ -42,8 +44,9 @@ async function sectionShot(page: Page, selector: string, name: string) {
   await page.locator(selector).screenshot({ path: join("screenshots", `${name}.png`) });
 }
 
-async function pickPhoto(page: Page, caption: string, name: string, bytes: Buffer) {
+async function pickPhoto(page: Page, caption: string, name: string, bytes: Buffer, part?: string) {
   const photos = page.locator("#photos");
+  await photos.getByLabel("Part (optional)").selectOption(part ? { label: part } : { value: "" });
   await photos.getByLabel("Caption (optional)").fill(caption);
   await photos.getByTestId("photo-pick").setInputFiles({ name, mimeType: "image/jpeg", buffer: bytes });
   await photos.getByText("✓ Saved").first().waitFor({ timeout: 30_000 });
@@ -78,10 +81,17 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     await page.goto(`${baseUrl()}/jobs/${job.id}`);
     await page.locator("#photos").scrollIntoViewIfNeeded();
 
-    await pickPhoto(page, "Pump on the PTO", "pump.jpg", await shopPhoto("PUMP ON THE PTO", "#2c4a52"));
+    const partName = (await page.locator("#photos").getByLabel("Part (optional)").locator("option").nth(1).textContent())!.trim();
+    await pickPhoto(page, "Pump on the PTO", "pump.jpg", await shopPhoto("PUMP ON THE PTO", "#2c4a52"), partName);
     await pickPhoto(page, "Frame rail before paint touch-up", "rail.jpg", await shopPhoto("FRAME RAIL", "#5a3b2c"));
     const cards = page.locator("#photos [data-testid=photo-card]");
     expect(await cards.count()).toBe(2);
+    // The card names its part, and gives its time on the shop's clock (the demo shop is on US/Central).
+    const tagged = cards.filter({ has: page.locator('img[alt="Pump on the PTO"]') });
+    expect(await tagged.getByTestId("photo-part").textContent()).toBe(`Part: ${partName}`);
+    expect(await cards.filter({ has: page.locator('img[alt="Frame rail before paint touch-up"]') }).getByTestId("photo-part").count()).toBe(0);
+    const taken = tagged.locator("time");
+    expect(await taken.textContent()).toBe(formatShopTime((await taken.getAttribute("datetime"))!, "US/Central", "d MMM, HH:mm"));
 
     const shared = cards.filter({ has: page.locator('img[alt="Pump on the PTO"]') });
     await shared.getByRole("button", { name: "Staff only: show to customer" }).click();
@@ -98,7 +108,11 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     expect(moved.status()).toBe(200);
 
     const mail = await mailFor(job.unit, since);
-    expect(mail.text).toContain("we are now wiring the dash switch and PTO light");
+    expect(mail.text).toContain("We are wiring and run-testing the kit.");
+    expect(mail.text).toContain("When the run test is signed off, your truck is ready for pickup.");
+    // No reply-to is set for this server, so the e-mail gives the shop's phone and invites no reply.
+    expect(mail.text).toContain("Questions? Call Cold Creek Upfit at (555) 010-4417.");
+    expect(`${mail.text}${mail.html}`).not.toMatch(/reply/i);
     const link = mail.text.match(new RegExp(`${baseUrl()}/status/[A-Za-z0-9_-]{43}`))?.[0];
     expect(link, "the status link in the e-mail").toBeTruthy();
     await context.close();
@@ -109,7 +123,9 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     expect(response?.status()).toBe(200);
     expect(response?.headers()["cache-control"]).toContain("no-store");
     await status.getByTestId("where-now").waitFor();
-    expect(await status.getByTestId("where-now").textContent()).toBe("The kit is on; we are wiring the dash switch and PTO light and running the kit to test it.");
+    expect(await status.getByTestId("where-now").textContent()).toBe("We are wiring and run-testing the kit.");
+    expect(await status.getByTestId("what-next").textContent()).toBe("When the run test is signed off, your truck is ready for pickup.");
+    expect(await status.title()).toBe(`Unit ${job.unit} · Cold Creek Upfit`);
     const photo = status.locator('img[alt="Pump on the PTO"]');
     await photo.scrollIntoViewIfNeeded();
     await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(0);
@@ -135,6 +151,7 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     const revoked = await status.goto(link!);
     expect(revoked?.status()).toBe(404);
     await status.getByText("This status link no longer works").waitFor();
+    expect(await status.title()).toBe("Status link not working · Cold Creek Upfit");
     expect(await status.content()).toContain("(555) 010-4417");
     await shot(status, "status-link-off-phone");
     await customer.close();

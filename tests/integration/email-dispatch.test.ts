@@ -115,10 +115,10 @@ describe("stage e-mails through the outbox", () => {
     expect(mail.idempotencyKey).toBe(row.id);
     expect(mail.from).toBe('"Test Upfit" <updates@cold-creek.example>');
     expect([...mail.to].sort()).toEqual([`dispatch-${customerId}@fleet.example`, `fleet-${customerId}@fleet.example`]);
-    expect(mail.subject).toBe(`Unit ${truck.unit_number}: building the parts (Test Upfit)`);
+    expect(mail.subject).toBe(`Unit ${truck.unit_number}: fabrication (Test Upfit)`);
     expect(mail.text).toContain(`Hello Ridge & <b>Sons</b> "Haul",`);
-    expect(mail.text).toContain("Work has started: we are building the parts for your truck's kit.");
-    expect(mail.text).toContain("Next, the tank gets a low-pressure air leak test.");
+    expect(mail.text).toContain("Work has started. We are building the fabricated parts for your truck.");
+    expect(mail.text).toContain("Next, the fabricated parts are pressure-tested for leaks.");
     expect(mail.text).toContain("Expected ready date: Friday 16 May 2031.");
     expect(mail.html).toContain("Hello Ridge &amp; &lt;b&gt;Sons&lt;/b&gt; &quot;Haul&quot;,");
     expect(mail.html).not.toContain("<b>Sons</b>");
@@ -150,8 +150,10 @@ describe("stage e-mails through the outbox", () => {
       tokens.push(linkIn(latest.text));
     }
     const texts = (await emails()).map((e) => e.text);
-    expect(texts[2]).toContain("The tank needs more work before it passes its leak test, so it is back at the fabrication bench.");
-    expect(texts[4]).toContain("The tank passed its leak test and the parts have gone out for powder coat.");
+    expect(texts[2]).toContain("Your job has gone back to the fabrication step for more work.");
+    // The stage is all the move tells: the e-mail claims no test result and no trip to the coater.
+    expect(texts[4]).toContain("Your job is at powder coat: the fabricated parts go to an outside coater and come back before install.");
+    expect(texts.join("\n")).not.toMatch(/passed|tank|have gone out/i);
     expect(new Set(tokens).size).toBe(1);
 
     const office = await as("office");
@@ -161,6 +163,32 @@ describe("stage e-mails through the outbox", () => {
     const newest = linkIn((await emails()).at(-1)!.text);
     expect(`https://status.cold-creek.example/status/${newest}`).toBe(reissued.link.url);
     expect(await openStatusLink(db(), tokens[0])).toMatchObject({ state: "revoked" });
+  });
+
+  it("invites replies only when EMAIL_REPLY_TO is set, and then sends with that reply-to; otherwise it gives the shop's phone", async () => {
+    const before = process.env.EMAIL_REPLY_TO;
+    const cookie = await tech();
+    try {
+      delete process.env.EMAIL_REPLY_TO;
+      const plain = await customerJob();
+      await move(cookie, plain.job.id, "fabricate");
+      await dispatchDueOutbox(db(), new Date(), sender);
+      const [noReply] = (await emails()) as (StoredEmail & { replyTo: string[] | null })[];
+      expect(noReply.replyTo ?? []).toEqual([]);
+      expect(noReply.text).toContain("Questions? Call Test Upfit at (555) 010-0000.");
+      expect(`${noReply.text}${noReply.html}`).not.toMatch(/reply/i);
+
+      process.env.EMAIL_REPLY_TO = "office@cold-creek.example";
+      const replied = await customerJob();
+      await move(cookie, replied.job.id, "fabricate");
+      await dispatchDueOutbox(db(), new Date(), sender);
+      const withReply = (await emails()).at(-1) as StoredEmail & { replyTo: string[] | null };
+      expect(withReply.replyTo).toEqual(["office@cold-creek.example"]);
+      expect(withReply.text).toContain("Questions? Call Test Upfit at (555) 010-0000, or reply to this e-mail.");
+    } finally {
+      if (before === undefined) delete process.env.EMAIL_REPLY_TO;
+      else process.env.EMAIL_REPLY_TO = before;
+    }
   });
 });
 

@@ -3,16 +3,21 @@ import http from "node:http";
 import type { AddressInfo } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { createElement } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
 import sharp from "sharp";
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import * as jobPhotos from "@/app/api/jobs/[id]/photos/route";
 import * as photoItem from "@/app/api/photos/[id]/route";
+import { PhotosSection } from "@/app/(shop)/jobs/[id]/photos-section";
+import { findJob } from "@/server/jobs/queries";
 import type { Role } from "@/db/schema";
 import { type Fakes, startFakes } from "@/fakes/server.mjs";
 import { checkAndDerive } from "@/server/photos/process";
 import { photoPath } from "@/server/photos/store";
 import { useFreshDatabase } from "../support/db";
-import { makeJob, makeStaff } from "../support/factories";
+import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
 
 const { db } = useFreshDatabase();
@@ -233,6 +238,8 @@ describe("uploading photos through the upload service", () => {
     expect(wrong.body.message).toBe("That part is not on this job.");
     const right = await upload([{ name: "a.jpg", type: "image/jpeg", bytes: tiny }], { jobId: other.id, stage: "queued", partId: (part as { id: number }).id }, { cookie });
     expect(right.results[0].serverData.photoId).toBeGreaterThan(0);
+    const listed = await readBody(await jobPhotos.GET(request(`/api/jobs/${other.id}/photos`, { cookie }), params({ id: String(other.id) })));
+    expect(listed.photos).toMatchObject([{ id: right.results[0].serverData.photoId, partId: (part as { id: number }).id, partName: "Reservoir" }]);
   });
 
   it("removes the original from the upload service even when the photo cannot be saved", async () => {
@@ -316,6 +323,43 @@ describe("photos for staff: viewing, captions, visibility, deleting", () => {
     expect(bad.status).toBe(400);
     expect(Object.keys((await readBody(bad)).error.details.fields)).toEqual(expect.arrayContaining(["caption", "customerVisible"]));
     expect(await db().selectFrom("photo").select(["caption", "customer_visible"]).where("id", "=", id).executeTakeFirst()).toEqual({ caption: "Pump on the PTO", customer_visible: 1 });
+  });
+
+  it("a photo card on the job page names its part and shows the time on the shop's clock", async () => {
+    await ensureShop(db());
+    const { staff, cookie } = await as("tech");
+    const job = await makeJob(db(), { stage: "fabricate" });
+    const part = await db()
+      .insertInto("part")
+      .values({ job_id: job.id, name: "Hose carrier", kind: "bracket", material: "carbon_steel", shape: "other", geometry: null, needs_leak_test: 0, needs_coating: 1, notes: "", rework_count: 0, reworked_at: null, rework_note: "", created_at: "2031-12-01T00:00:00.000Z", updated_at: "2031-12-01T00:00:00.000Z" })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const tiny = await sharp({ create: { width: 8, height: 8, channels: 3, background: "#777" } }).jpeg().toBuffer();
+    const tagged = await upload([{ name: "carrier.jpg", type: "image/jpeg", bytes: tiny }], { jobId: job.id, stage: "fabricate", partId: part.id, caption: "Carrier tacked" }, { cookie });
+    const untagged = await upload([{ name: "truck.jpg", type: "image/jpeg", bytes: tiny }], { jobId: job.id, stage: "fabricate", caption: "Truck in the bay" }, { cookie });
+    // 05:16 UTC on 2 Dec is 23:16 on 1 Dec at a shop on US/Central time.
+    await db().updateTable("photo").set({ created_at: "2031-12-02T05:16:00.000Z" }).where("job_id", "=", job.id).execute();
+    await db().updateTable("shop").set({ time_zone: "US/Central" }).where("id", "=", 1).execute();
+
+    const render = async () => {
+      const section = await PhotosSection({ job: (await findJob(db(), job.id))!, user: { id: staff.id, name: staff.name, email: "", role: "tech" } });
+      return renderToStaticMarkup(createElement(QueryClientProvider, { client: new QueryClient() }, section));
+    };
+    const cards = (await render()).split('data-testid="photo-card"').slice(1);
+    expect(cards).toHaveLength(2);
+    const [carrier, truck] = [tagged, untagged].map((u) => cards.find((c) => c.includes(`/api/photos/${u.results[0].serverData.photoId}?size=thumb`))!);
+    expect(carrier).toMatch(/Part:<\/span> Hose carrier/);
+    expect(truck).not.toContain("Part:");
+    for (const card of [carrier, truck]) {
+      expect(card).toContain("1 Dec, 23:16");
+      expect(card).not.toContain("2 Dec, 05:16");
+    }
+    await db().updateTable("shop").set({ time_zone: "UTC" }).where("id", "=", 1).execute();
+    try {
+      expect(await render()).toContain("2 Dec, 05:16");
+    } finally {
+      await db().updateTable("shop").set({ time_zone: "US/Central" }).where("id", "=", 1).execute();
+    }
   });
 
   it("only office and owner delete; the files go with the record", async () => {

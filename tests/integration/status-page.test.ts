@@ -3,16 +3,20 @@ import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { subDays } from "date-fns";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import StatusLinkNotFound from "@/app/(public)/status/[token]/not-found";
-import StatusPage from "@/app/(public)/status/[token]/page";
+import StatusPage, { generateMetadata } from "@/app/(public)/status/[token]/page";
 import * as statusPhotoRoute from "@/app/(public)/status/[token]/photos/[photoId]/route";
+import { MessagesSection } from "@/app/(shop)/jobs/[id]/messages-section";
 import * as jobLinks from "@/app/api/jobs/[id]/status-links/route";
 import * as notify from "@/app/api/notify-settings/route";
 import * as linkItem from "@/app/api/status-links/[id]/route";
 import type { Role, Stage } from "@/db/schema";
+import { findJob } from "@/server/jobs/queries";
 import { savePhotoFiles } from "@/server/photos/store";
 import { openStatusLink } from "@/server/status/queries";
 import { useFreshDatabase } from "../support/db";
@@ -141,6 +145,20 @@ describe("status links", () => {
     expect(await openStatusLink(db(), old.token, subDays(new Date(), -400))).toMatchObject({ state: "active" });
   });
 
+  it("the job page gives the link's times on the shop's clock", async () => {
+    const job = await makeJob(db());
+    const { linkId } = await issuedToken(job.id);
+    // 05:20 UTC on 2 Dec is 23:20 on 1 Dec at a shop on US/Central time.
+    await db().updateTable("status_link").set({ created_at: "2031-12-02T05:20:00.000Z", last_opened_at: "2031-12-02T14:05:00.000Z" }).where("id", "=", linkId).execute();
+    const { staff } = await as("office");
+    const html = renderToStaticMarkup(
+      createElement(QueryClientProvider, { client: new QueryClient() }, await MessagesSection({ job: (await findJob(db(), job.id))!, user: { id: staff.id, name: staff.name, email: staff.email, role: "office" } })),
+    );
+    expect(html).toContain("issued 1 Dec, 23:20");
+    expect(html).toContain("last opened 2 Dec, 08:05");
+    expect(html).not.toContain("05:20");
+  });
+
   it("unknown and malformed tokens are simply not found", async () => {
     expect(await openStatusLink(db(), "not-a-token")).toEqual({ state: "unknown" });
     expect(await openStatusLink(db(), "A".repeat(43))).toEqual({ state: "unknown" });
@@ -178,7 +196,8 @@ describe("the status page", () => {
     expect(html).toContain(`Unit ${truck.unit_number}`);
     expect(html).toContain(`VIN ending ${truck.vin.slice(-6)}`);
     expect(html).not.toContain(truck.vin);
-    expect(html).toContain("The fabricated parts are out at the powder coater.");
+    expect(html).toContain("Your job is at powder coat: the fabricated parts go to an outside coater and come back before install.");
+    expect(html).toContain("When the parts are back from the coater, we install the kit on your truck.");
     expect(html).toContain("Friday 14 March");
     expect(html).toContain("Tank ready for powder coat");
     expect(html).toContain("(555) 010-0000");
@@ -188,6 +207,73 @@ describe("the status page", () => {
       expect(html, secret).not.toContain(secret);
     }
     expect((await db().selectFrom("status_link").select("last_opened_at").where("token_hash", "=", createHash("sha256").update(token).digest("hex")).executeTakeFirstOrThrow()).last_opened_at).not.toBeNull();
+  });
+
+  it("an override into coating claims no passed test: stage words only, no tank, dates as the shop's clock shows them", async () => {
+    const job = await makeJob(db(), { stage: "coating" });
+    await db().updateTable("job").set({ description: "Hose carrier and breakaway bracket" }).where("id", "=", job.id).execute();
+    const owner = await makeStaff(db(), "owner");
+    // 03:30 UTC is still the evening before at a shop on US/Central time.
+    await db()
+      .insertInto("stage_event")
+      .values([
+        { job_id: job.id, from_stage: null, to_stage: "queued", actor_id: owner.id, at: "2031-03-01T15:00:00.000Z", note: "", override_reason: null },
+        { job_id: job.id, from_stage: "queued", to_stage: "fabricate", actor_id: owner.id, at: "2031-03-02T15:00:00.000Z", note: "", override_reason: null },
+        { job_id: job.id, from_stage: "fabricate", to_stage: "pressure_test", actor_id: owner.id, at: "2031-03-03T15:00:00.000Z", note: "", override_reason: null },
+        { job_id: job.id, from_stage: "pressure_test", to_stage: "coating", actor_id: owner.id, at: "2031-03-05T03:30:00.000Z", note: "", override_reason: "coater pickup today, test record to follow" },
+      ])
+      .execute();
+    const { token } = await issuedToken(job.id);
+    const html = await pageHtml(token);
+    expect(html).toContain("Your job is at powder coat");
+    expect(html).not.toMatch(/passed|tank|leak test/i);
+    expect(html).toContain("Pressure test <span");
+    expect(html).toContain("Since Tue 4 Mar");
+    expect(html).not.toContain("Wed 5 Mar");
+    expect(html).toContain("Reached Sun 2 Mar");
+
+    await db().updateTable("shop").set({ time_zone: "UTC" }).where("id", "=", 1).execute();
+    try {
+      expect(await pageHtml(token)).toContain("Since Wed 5 Mar");
+    } finally {
+      await db().updateTable("shop").set({ time_zone: "US/Central" }).where("id", "=", 1).execute();
+    }
+  });
+
+  it("the browser tab names the unit and the shop, not the software", async () => {
+    const job = await makeJob(db());
+    const unit = (await db().selectFrom("truck").innerJoin("job", "job.truck_id", "truck.id").select("truck.unit_number").where("job.id", "=", job.id).executeTakeFirstOrThrow()).unit_number;
+    const { token, linkId } = await issuedToken(job.id);
+    const meta = await generateMetadata({ params: Promise.resolve({ token }) });
+    expect(meta.title).toEqual({ absolute: `Unit ${unit} · Test Upfit` });
+    expect(meta.robots).toMatchObject({ index: false, follow: false });
+    expect(meta.referrer).toBe("no-referrer");
+
+    const { cookie } = await as("office");
+    await linkItem.DELETE(request(`/api/status-links/${linkId}`, { method: "DELETE", cookie }), params({ id: String(linkId) }));
+    const off = await generateMetadata({ params: Promise.resolve({ token }) });
+    expect(off.title).toEqual({ absolute: "Status link not working · Test Upfit" });
+    expect(JSON.stringify(off)).not.toContain(unit);
+  });
+
+  it("offers a reply only when replies go somewhere; a shop without a phone is still named", async () => {
+    const job = await makeJob(db());
+    const { token } = await issuedToken(job.id);
+    const before = process.env.EMAIL_REPLY_TO;
+    await db().updateTable("shop").set({ phone: "" }).where("id", "=", 1).execute();
+    try {
+      delete process.env.EMAIL_REPLY_TO;
+      expect(await pageHtml(token)).not.toMatch(/reply/i);
+      const gone = renderToStaticMarkup(await StatusLinkNotFound());
+      expect(gone).not.toMatch(/reply/i);
+      expect(gone).toContain("Get in touch with Test Upfit for news of your truck or a new link.");
+      process.env.EMAIL_REPLY_TO = "office@cold-creek.example";
+      expect(await pageHtml(token)).toContain("Reply to the shop&#x27;s e-mail to reach them.");
+    } finally {
+      await db().updateTable("shop").set({ phone: "(555) 010-0000" }).where("id", "=", 1).execute();
+      if (before === undefined) delete process.env.EMAIL_REPLY_TO;
+      else process.env.EMAIL_REPLY_TO = before;
+    }
   });
 
   it("serves only the link's own photos marked for the customer, with private headers", async () => {

@@ -1,9 +1,11 @@
 import type { Metadata } from "next";
 import { getDb } from "@/db";
+import { repliesRead } from "@/server/email/env";
 import { notifySettings } from "@/server/email/settings";
 import { shopContact } from "@/server/status/queries";
 
-export const metadata: Metadata = { title: "Status link not working", robots: { index: false, follow: false }, referrer: "no-referrer" };
+// The customer knows the shop, not the software: no product name in the tab (the page's own title names the shop).
+export const metadata: Metadata = { title: { absolute: "Status link not working" }, robots: { index: false, follow: false }, referrer: "no-referrer" };
 
 /** A plain page for a link that is unknown, turned off by the shop, or past its end date. */
 export default async function StatusLinkNotFound() {
@@ -23,8 +25,10 @@ export default async function StatusLinkNotFound() {
             <span aria-hidden="true">☎</span> Call {shop.name}, {shop.phone}
           </a>
         </>
-      ) : (
+      ) : repliesRead() ? (
         <p className="mt-3">Reply to the shop&apos;s last e-mail for news of your truck or a new link.</p>
+      ) : (
+        <p className="mt-3">Get in touch with {shop.name} for news of your truck or a new link.</p>
       )}
     </main>
   );

@@ -1,26 +1,40 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
+import { cache } from "react";
 import { getDb } from "@/db";
-import { noteLinkOpened, openStatusLink, statusView } from "@/server/status/queries";
+import { repliesRead } from "@/server/email/env";
+import { noteLinkOpened, openStatusLink, shopContact, statusView } from "@/server/status/queries";
 import { StatusView } from "./status-view";
 
 export const dynamic = "force-dynamic";
 
+/** One read per request, shared by the page and its title. */
+const loadStatus = cache(async (token: string) => {
+  const db = getDb();
+  const link = await openStatusLink(db, token);
+  if (link.state !== "active") return { link, view: null, shop: await shopContact(db) };
+  const view = await statusView(db, link.jobId);
+  return { link, view, shop: view?.shop ?? (await shopContact(db)) };
+});
+
 // The URL is the key to the page: keep it out of search engines and out of Referer headers.
-export const metadata: Metadata = {
-  title: "Your truck's progress",
-  robots: { index: false, follow: false, nocache: true },
-  referrer: "no-referrer",
-};
+// The customer knows the shop, not the software, so the tab carries the unit and the shop's name.
+export async function generateMetadata({ params }: { params: Promise<{ token: string }> }): Promise<Metadata> {
+  const { token } = await params;
+  const { view, shop } = await loadStatus(token);
+  return {
+    title: { absolute: view ? `Unit ${view.truck.unitNumber} · ${shop.name}` : `Status link not working · ${shop.name}` },
+    description: view ? `Progress of unit ${view.truck.unitNumber} at ${shop.name}` : null,
+    robots: { index: false, follow: false, nocache: true },
+    referrer: "no-referrer",
+  };
+}
 
 export default async function StatusPage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
-  const db = getDb();
-  const link = await openStatusLink(db, token);
+  const { link, view } = await loadStatus(token);
   // Unknown, turned off and expired links all end here: the not-found page says so and gives the shop's phone.
-  if (link.state !== "active") notFound();
-  const view = await statusView(db, link.jobId);
-  if (!view) notFound();
-  await noteLinkOpened(db, link);
-  return <StatusView view={view} token={token} />;
+  if (link.state !== "active" || !view) notFound();
+  await noteLinkOpened(getDb(), link);
+  return <StatusView view={view} token={token} repliesRead={repliesRead()} />;
 }

@@ -1,15 +1,20 @@
-import { TZDate } from "@date-fns/tz";
-import { format, parseISO } from "date-fns";
+import { format } from "date-fns";
+import { calendarZone, formatShopTime, parseCalendarDate } from "@/server/records/calendar";
 import type { Stage } from "@/db/schema";
 import { stageIndex, stagesFor } from "@/server/jobs/stages";
 import type { StatusView as View } from "@/server/status/queries";
-import { CUSTOMER_STAGE_NAMES, whereItIsNow } from "@/server/status/words";
+import { CUSTOMER_STAGE_NAMES, whatComesNext, whereItIsNow } from "@/server/status/words";
 
-function day(at: string, timeZone: string) {
+/** A moment (a move) as the day it was at the shop, not in the server's zone. */
+const day = (at: string, timeZone: string) => formatShopTime(at, timeZone, "EEE d MMM");
+
+/** The ready date is a calendar day with no time: shown as written, whatever the zone. */
+function readyDay(readyBy: string | null) {
+  if (!readyBy) return null;
   try {
-    return format(new TZDate(at, timeZone), "EEE d MMM");
+    return format(parseCalendarDate(readyBy), "EEEE d MMMM", { in: calendarZone });
   } catch {
-    return format(parseISO(at), "EEE d MMM");
+    return null;
   }
 }
 
@@ -38,9 +43,9 @@ const MARK: Record<Step["state"], { icon: string; word: string; dot: string }> =
 };
 
 /** The truck owner's page: one sentence first, then the timeline, then the photos and the shop's phone. */
-export function StatusView({ view, token }: { view: View; token: string }) {
+export function StatusView({ view, token, repliesRead }: { view: View; token: string; repliesRead: boolean }) {
   const tz = view.shop.timeZone;
-  const readyBy = view.readyBy ? format(parseISO(view.readyBy), "EEEE d MMMM") : null;
+  const readyBy = readyDay(view.readyBy);
   return (
     <main className="mx-auto max-w-xl px-4 pb-10 pt-5">
       <header className="mb-4">
@@ -52,7 +57,10 @@ export function StatusView({ view, token }: { view: View; token: string }) {
       </header>
 
       <p className="rounded-lg border-l-4 border-bay-700 bg-panel px-4 py-3 text-lg font-semibold leading-snug" data-testid="where-now">
-        {whereItIsNow(view.stage, view.scope)}
+        {whereItIsNow(view.stage)}
+      </p>
+      <p className="mt-2 px-1 text-ink-soft" data-testid="what-next">
+        {whatComesNext(view.stage, view.scope, view.linkDays)}
       </p>
 
       <dl className="mt-3 grid grid-cols-[auto_1fr] gap-x-3 rounded-lg bg-bay-50 px-4 py-3">
@@ -116,9 +124,9 @@ export function StatusView({ view, token }: { view: View; token: string }) {
           <a href={telHref(view.shop.phone)} className="mt-2 inline-flex min-h-11 items-center gap-2 rounded-md bg-bay-700 px-4 py-2 font-semibold text-white">
             <span aria-hidden="true">☎</span> Call {view.shop.phone}
           </a>
-        ) : (
+        ) : repliesRead ? (
           <p className="text-ink-soft">Reply to the shop&apos;s e-mail to reach them.</p>
-        )}
+        ) : null}
         <p className="mt-3 text-sm text-ink-soft">This page is for you and your team: anyone with the link can see this truck&apos;s progress. It updates as the work moves.</p>
       </footer>
     </main>

@@ -1,7 +1,6 @@
 "use client";
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import { format, parseISO } from "date-fns";
 import { useId, useState } from "react";
 import { ApiRequestError, api } from "@/components/api";
 import { buttonClass, inputClass } from "@/components/form";
@@ -10,6 +9,7 @@ import type { MessageRow } from "@/server/email/messages";
 import type { JobEmailSettings } from "@/server/email/recipients";
 import type { NotifySettings } from "@/server/email/settings";
 import { STAGE_LABELS } from "@/server/jobs/stages";
+import { formatShopTime } from "@/server/records/calendar";
 
 type Link = { id: number; createdAt: string; issuedBy: string | null; revokedAt: string | null; revokedBy: string | null; lastOpenedAt: string | null; state: "active" | "revoked" | "expired"; expiresAt: string | null };
 
@@ -18,7 +18,8 @@ const keys = {
   links: (jobId: number) => ["job", jobId, "status-links"] as const,
 };
 
-const when = (iso: string) => format(parseISO(iso), "d MMM, HH:mm");
+/** Times as the shop's clock shows them, whatever zone the server or the browser runs in. */
+const when = (iso: string, timeZone: string, pattern = "d MMM, HH:mm") => formatShopTime(iso, timeZone, pattern);
 
 function failureText(err: unknown) {
   return err instanceof ApiRequestError ? err.message : "Not saved; try again.";
@@ -32,19 +33,20 @@ export function MessagesPanel(props: {
   initialSettings: JobEmailSettings;
   initialLinks: Link[];
   initialShop: NotifySettings;
+  timeZone: string;
 }) {
   const office = props.role === "office" || props.role === "owner";
   return (
     <div className="space-y-5">
-      <StatusLinkBox jobId={props.jobId} office={office} initialLinks={props.initialLinks} />
+      <StatusLinkBox jobId={props.jobId} office={office} initialLinks={props.initialLinks} timeZone={props.timeZone} />
       <EmailSettingsBox jobId={props.jobId} office={office} initial={props.initialSettings} />
-      <MessageList jobId={props.jobId} office={office} emailConfigured={props.emailConfigured} initial={props.initialMessages} />
+      <MessageList jobId={props.jobId} office={office} emailConfigured={props.emailConfigured} initial={props.initialMessages} timeZone={props.timeZone} />
       {office && <ShopNotifyBox initial={props.initialShop} />}
     </div>
   );
 }
 
-function StatusLinkBox({ jobId, office, initialLinks }: { jobId: number; office: boolean; initialLinks: Link[] }) {
+function StatusLinkBox({ jobId, office, initialLinks, timeZone }: { jobId: number; office: boolean; initialLinks: Link[]; timeZone: string }) {
   const queryClient = useQueryClient();
   const links = useQuery({ queryKey: keys.links(jobId), queryFn: () => api<{ links: Link[] }>(`/api/jobs/${jobId}/status-links`).then((r) => r.links), initialData: initialLinks });
   const [fresh, setFresh] = useState<string | null>(null);
@@ -84,8 +86,8 @@ function StatusLinkBox({ jobId, office, initialLinks }: { jobId: number; office:
       <h3 className="font-bold">Status link</h3>
       {live ? (
         <p>
-          <span className="font-semibold text-ok-700">✓ Working</span> · issued {when(live.createdAt)} {live.issuedBy ? `by ${live.issuedBy}` : "with a stage e-mail"} · {live.lastOpenedAt ? `last opened ${when(live.lastOpenedAt)}` : "not opened yet"}
-          {live.expiresAt && ` · ends ${format(parseISO(live.expiresAt), "d MMM yyyy")}`}
+          <span className="font-semibold text-ok-700">✓ Working</span> · issued {when(live.createdAt, timeZone)} {live.issuedBy ? `by ${live.issuedBy}` : "with a stage e-mail"} · {live.lastOpenedAt ? `last opened ${when(live.lastOpenedAt, timeZone)}` : "not opened yet"}
+          {live.expiresAt && ` · ends ${when(live.expiresAt, timeZone, "d MMM yyyy")}`}
         </p>
       ) : (
         <p className="text-ink-soft">– No working link. The next stage e-mail brings one{office ? ", or issue one now to send by hand" : ""}.</p>
@@ -208,7 +210,7 @@ const STATE_WORDS: Record<MessageRow["state"], { icon: string; word: string; ton
   skipped: { icon: "–", word: "Not sent", tone: "bg-paper text-ink-soft" },
 };
 
-function MessageList({ jobId, office, emailConfigured, initial }: { jobId: number; office: boolean; emailConfigured: boolean; initial: MessageRow[] }) {
+function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jobId: number; office: boolean; emailConfigured: boolean; initial: MessageRow[]; timeZone: string }) {
   const queryClient = useQueryClient();
   const messages = useQuery({
     queryKey: keys.messages(jobId),
@@ -257,18 +259,18 @@ function MessageList({ jobId, office, emailConfigured, initial }: { jobId: numbe
                   </p>
                   <span className={`rounded-full px-2.5 py-0.5 text-sm font-semibold ${s.tone}`}>
                     <span aria-hidden="true">{s.icon}</span> {s.word}
-                    {m.state === "sent" && m.sentAt ? ` ${when(m.sentAt)}` : ""}
+                    {m.state === "sent" && m.sentAt ? ` ${when(m.sentAt, timeZone)}` : ""}
                   </span>
                 </div>
                 <p className="text-sm text-ink-soft">
-                  Queued {when(m.createdAt)}
+                  Queued {when(m.createdAt, timeZone)}
                   {m.recipients.length > 0 && ` · to ${m.recipients.join(", ")}`}
                   {m.subject && ` · “${m.subject}”`}
                 </p>
                 {m.state === "retrying" && (
                   <p className="text-sm text-warn-700">
                     Attempt {m.attempts} did not go through: {m.reason}
-                    {m.nextAttemptAt && ` Next try about ${format(parseISO(m.nextAttemptAt), "HH:mm")}.`}
+                    {m.nextAttemptAt && ` Next try about ${when(m.nextAttemptAt, timeZone, "HH:mm")}.`}
                   </p>
                 )}
                 {(m.state === "failed" || m.state === "skipped") && m.reason && <p className={`text-sm ${m.state === "failed" ? "text-stop-700" : "text-ink-soft"}`}>{m.reason}</p>}

@@ -6,12 +6,19 @@ import { listMessages } from "@/server/email/messages";
 import { jobEmailSettings } from "@/server/email/recipients";
 import { notifySettings } from "@/server/email/settings";
 import type { JobDetail } from "@/server/jobs/queries";
+import { shopSettings } from "@/server/shop/queries";
 import { listStatusLinks } from "@/server/status/links";
 import { MessagesPanel } from "./messages-panel";
 
 export async function MessagesSection({ job, user }: { job: JobDetail; user: StaffUser }) {
   const db = getDb();
-  const [messages, settings, links, shop] = await Promise.all([listMessages(db, job.id), jobEmailSettings(db, job.id), listStatusLinks(db, job.id), notifySettings(db)]);
+  const [messages, settings, links, notify, shop] = await Promise.all([
+    listMessages(db, job.id),
+    jobEmailSettings(db, job.id),
+    listStatusLinks(db, job.id),
+    notifySettings(db),
+    shopSettings(db),
+  ]);
   return (
     <Section title="Customer e-mail and status link" id="messages">
       <MessagesPanel
@@ -21,7 +28,8 @@ export async function MessagesSection({ job, user }: { job: JobDetail; user: Sta
         initialMessages={messages}
         initialSettings={settings}
         initialLinks={links}
-        initialShop={shop}
+        initialShop={notify}
+        timeZone={shop.timeZone}
       />
     </Section>
   );

@@ -2,12 +2,12 @@
 
 import { generateReactHelpers } from "@uploadthing/react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { format, parseISO } from "date-fns";
 import { useId, useRef, useState } from "react";
 import { ApiRequestError, api } from "@/components/api";
 import { buttonClass, inputClass } from "@/components/form";
 import type { Role, Stage } from "@/db/schema";
 import { STAGE_LABELS } from "@/server/jobs/stages";
+import { formatShopTime } from "@/server/records/calendar";
 import type { JobPhoto } from "@/server/photos/queries";
 import type { PhotoRouter } from "@/server/photos/router";
 import { MAX_PHOTOS_PER_UPLOAD, MAX_PHOTO_BYTES, PHOTO_TYPES } from "@/server/photos/schemas";
@@ -30,7 +30,24 @@ function refuseEarly(file: File): string | null {
   return null;
 }
 
-export function PhotosPanel({ jobId, jobStage, stages, parts, role, initialPhotos }: { jobId: number; jobStage: Stage; stages: Stage[]; parts: { id: number; name: string }[]; role: Role; initialPhotos: JobPhoto[] }) {
+export function PhotosPanel({
+  jobId,
+  jobStage,
+  stages,
+  parts,
+  role,
+  initialPhotos,
+  timeZone,
+}: {
+  jobId: number;
+  jobStage: Stage;
+  stages: Stage[];
+  parts: { id: number; name: string }[];
+  role: Role;
+  initialPhotos: JobPhoto[];
+  /** The shop's zone: a photo's time reads as the shop's clock showed it, on the server and in the browser alike. */
+  timeZone: string;
+}) {
   const queryClient = useQueryClient();
   const photos = useQuery({ queryKey: photoKeys.job(jobId), queryFn: () => api<{ photos: JobPhoto[] }>(`/api/jobs/${jobId}/photos`).then((r) => r.photos), initialData: initialPhotos });
   const [stage, setStage] = useState<Stage>(jobStage);
@@ -174,7 +191,7 @@ export function PhotosPanel({ jobId, jobStage, stages, parts, role, initialPhoto
       ) : (
         <ul className="grid grid-cols-1 gap-3 sm:grid-cols-2 xl:grid-cols-3">
           {photos.data.map((photo) => (
-            <PhotoCard key={photo.id} photo={photo} jobId={jobId} stages={stages} canDelete={role === "office" || role === "owner"} />
+            <PhotoCard key={photo.id} photo={photo} jobId={jobId} stages={stages} timeZone={timeZone} canDelete={role === "office" || role === "owner"} />
           ))}
         </ul>
       )}
@@ -182,7 +199,7 @@ export function PhotosPanel({ jobId, jobStage, stages, parts, role, initialPhoto
   );
 }
 
-function PhotoCard({ photo, jobId, stages, canDelete }: { photo: JobPhoto; jobId: number; stages: Stage[]; canDelete: boolean }) {
+function PhotoCard({ photo, jobId, stages, timeZone, canDelete }: { photo: JobPhoto; jobId: number; stages: Stage[]; timeZone: string; canDelete: boolean }) {
   const queryClient = useQueryClient();
   const key = photoKeys.job(jobId);
   const [caption, setCaption] = useState(photo.caption);
@@ -210,15 +227,20 @@ function PhotoCard({ photo, jobId, stages, canDelete }: { photo: JobPhoto; jobId
     onSettled: () => queryClient.invalidateQueries({ queryKey: key }),
   });
 
-  const label = photo.caption || `Photo at ${STAGE_LABELS[photo.stage]}`;
+  const label = photo.caption || `Photo ${photo.partName ? `of ${photo.partName} ` : ""}at ${STAGE_LABELS[photo.stage]}`;
   return (
     <li className="overflow-hidden rounded-md border border-line bg-panel" data-testid="photo-card">
       <a href={`/api/photos/${photo.id}`} target="_blank" rel="noreferrer" className="block bg-bay-50">
         <img src={`/api/photos/${photo.id}?size=thumb`} alt={label} width={photo.width} height={photo.height} loading="lazy" className="aspect-[4/3] h-auto w-full object-cover" />
       </a>
       <div className="space-y-2 p-2">
+        {photo.partName && (
+          <p className="text-sm font-semibold" data-testid="photo-part">
+            <span className="font-normal text-ink-soft">Part:</span> {photo.partName}
+          </p>
+        )}
         <p className="text-sm text-ink-soft">
-          {STAGE_LABELS[photo.stage]} · {photo.uploadedBy?.split(" ")[0] ?? "staff"} · {format(parseISO(photo.createdAt), "d MMM, HH:mm")}
+          {STAGE_LABELS[photo.stage]} · {photo.uploadedBy?.split(" ")[0] ?? "staff"} · <time dateTime={photo.createdAt}>{formatShopTime(photo.createdAt, timeZone, "d MMM, HH:mm")}</time>
         </p>
         <button
           type="button"
