@@ -145,7 +145,7 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
   if (hr21Delivered) {
     const tank = await addPart(hr21Delivered, { name: "40 gal round reservoir", kind: "reservoir", material: "aluminum", geometry: roundTank40, leakTest: true, coating: true });
     await passingTest(tank, back(30), "tech", roundSeams);
-    await addRun({ vendorId: brightBend, colour: "Gloss black", gloss: "gloss", sentOn: back(28), promisedOn: back(23), receivedOn: back(23), inspection: { dft: [2.4, 2.6, 2.9, 2.5], adhesionOk: true, defects: "", by: "cody" } }, [tank.id]);
+    await addRun({ vendorId: brightBend, colour: "Black", gloss: "gloss", sentOn: back(28), promisedOn: back(23), receivedOn: back(23), inspection: { dft: [2.4, 2.6, 2.9, 2.5], adhesionOk: true, defects: "", by: "cody" } }, [tank.id]);
     await signOff(hr21Delivered, completeSignOff("pto_feedback", "ground_active", 2500), back(18), "ines");
   }
   // Delivered, install only: TF-7's indicator swap.
@@ -157,7 +157,7 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
   if (hr22Ready) {
     const tank = await addPart(hr22Ready, { name: "40 gal round reservoir", kind: "reservoir", material: "aluminum", geometry: roundTank40, leakTest: true, coating: true });
     await passingTest(tank, back(16), "luka", roundSeams);
-    await addRun({ vendorId: quarryRoad, colour: "Gloss black", gloss: "gloss", sentOn: back(14), promisedOn: back(6), receivedOn: back(7), inspection: { dft: [2.2, 2.8, 2.5], adhesionOk: true, defects: "", by: "office" } }, [tank.id]);
+    await addRun({ vendorId: quarryRoad, colour: "Black", gloss: "gloss", sentOn: back(14), promisedOn: back(6), receivedOn: back(7), inspection: { dft: [2.2, 2.8, 2.5], adhesionOk: true, defects: "", by: "office" } }, [tank.id]);
     await signOff(hr22Ready, completeSignOff("pto_feedback", "ground_active", 2500), back(1), "ines");
   }
 
@@ -176,7 +176,7 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
   if (hr27Install) {
     const tank = await addPart(hr27Install, { name: "50 gal round reservoir with sump", kind: "reservoir", material: "aluminum", geometry: { shape: "round", insideDiameterIn: 20, lengthIn: 36.8 }, leakTest: true, coating: true });
     await passingTest(tank, back(11), "luka", roundSeams);
-    await addRun({ vendorId: brightBend, colour: "Gloss black", gloss: "gloss", sentOn: back(9), promisedOn: back(4), receivedOn: back(4), inspection: { dft: [2.5, 2.7, 2.6], adhesionOk: true, defects: "", by: "cody" } }, [tank.id]);
+    await addRun({ vendorId: brightBend, colour: "Black", gloss: "gloss", sentOn: back(9), promisedOn: back(4), receivedOn: back(4), inspection: { dft: [2.5, 2.7, 2.6], adhesionOk: true, defects: "", by: "cody" } }, [tank.id]);
   }
   const tf7Install = job("TF-7", "install");
   if (tf7Install) {
@@ -189,14 +189,14 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
   if (hr21Coating) {
     const tank = await addPart(hr21Coating, { name: "Replacement 40 gal round reservoir", kind: "reservoir", material: "aluminum", geometry: roundTank40, leakTest: true, coating: true });
     await passingTest(tank, back(8), "luka", roundSeams);
-    await addRun({ vendorId: brightBend, colour: "Gloss black", gloss: "gloss", sentOn: back(7), promisedOn: back(2) }, [tank.id]);
+    await addRun({ vendorId: brightBend, colour: "Black", gloss: "gloss", sentOn: back(7), promisedOn: back(2) }, [tank.id]);
   }
   const dellCoating = job("DO-1", "coating");
   if (dellCoating) {
     const battery = await addPart(dellCoating, { name: "Battery box", kind: "box", material: "carbon_steel", shape: "box", leakTest: false, coating: true });
     const tray = await addPart(dellCoating, { name: "Hose tray", kind: "bracket", material: "carbon_steel", leakTest: false, coating: true });
     const sentOn = back(2);
-    await addRun({ vendorId: quarryRoad, colour: "Satin black", gloss: "satin", sentOn, promisedOn: addBusinessDaysTo(sentOn, 8) }, [battery.id, tray.id]);
+    await addRun({ vendorId: quarryRoad, colour: "Black", gloss: "satin", sentOn, promisedOn: addBusinessDaysTo(sentOn, 8) }, [battery.id, tray.id]);
   }
 
   // Pressure test: TF-9's box tank waits for its test; HR-22's second tank failed, was reworked and passed.

@@ -14,7 +14,8 @@ export type LeakTestWarningCode =
   | "gauge_calibration_old"
   | "gauge_calibration_future"
   | "decay_on_box_tank"
-  | "soap_only_drop_exceeds_allowed";
+  | "soap_only_drop_exceeds_allowed"
+  | "pressure_rose_after_correction";
 
 export type LeakTestWarning = { code: LeakTestWarningCode; message: string };
 
@@ -49,10 +50,35 @@ export const ASME_GAUGE_FULL_SCALE_RATIO = { min: 1.5, max: 4 } as const;
 // Recalibrate test gauges yearly: common practice, no published source.
 export const GAUGE_CALIBRATION_YEARS = 1;
 
-// Drops are reported and compared at 0.0001 psi, far finer than any shop gauge reads, so float
+// Drops are stored and compared at 0.0001 psi, far finer than any shop gauge reads, so float
 // noise never turns a pure-cooling drop into a failure.
 const roundPsi = (psi: number) => Math.round(psi * 10_000) / 10_000 + 0;
 const show = (value: number) => String(Number(value.toFixed(3)));
+
+// Drops are shown to 0.01 psi: a low-range test gauge reads no finer (a 0–10 psi gauge of accuracy
+// grade 4A, ±0.1 % of span, is ±0.01 psi; ASME B40.100, from memory), so more digits are noise.
+export const DROP_DISPLAY_DECIMALS = 2;
+export const DROP_PRECISION_NOTE = "Drops are shown to 0.01 psi: a low-range test gauge reads no finer than that.";
+
+/** A pressure drop as the shop reads it: two decimals, and never "-0.00". */
+export function formatDropPsi(psi: number): string {
+  const scale = 10 ** DROP_DISPLAY_DECIMALS;
+  return (Math.round(psi * scale) / scale + 0).toFixed(DROP_DISPLAY_DECIMALS);
+}
+
+/**
+ * How a drop stands against the shop's allowance, in words that agree with the result even when
+ * both round to the same 0.01 psi.
+ */
+export function dropAgainstAllowance(correctedDropPsi: number, allowedDropPsi: number): string {
+  const allowed = `${show(allowedDropPsi)} psi`;
+  if (correctedDropPsi > allowedDropPsi) {
+    return formatDropPsi(correctedDropPsi) === formatDropPsi(allowedDropPsi) ? `just over the allowed ${allowed}` : `over the allowed ${allowed}`;
+  }
+  return `within the allowed ${allowed}`;
+}
+
+export const PRESSURE_ROSE_MESSAGE = "Pressure rose after correcting for temperature: check the thermometer and the gauge, then test again.";
 
 export type PressureReadings = Pick<
   LeakTestInput,
@@ -163,14 +189,19 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
   if (!usesDecay && dropTooLarge) {
     warn(
       "soap_only_drop_exceeds_allowed",
-      `No seam showed bubbles, but the corrected pressure fell ${show(correctedDropPsi)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed (common practice, no published source).`,
+      `No seam showed bubbles, but the corrected pressure fell ${formatDropPsi(correctedDropPsi)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed (common practice, no published source).`,
     );
   }
+
+  // A closed tank cannot gain air, so once the gas law has taken out the temperature change a rise
+  // is a misread thermometer or gauge (or a thermometer reading a different spot). Counted only
+  // when it shows at the gauge's 0.01 psi, so rounding noise is not flagged.
+  if (formatDropPsi(correctedDropPsi).startsWith("-")) warn("pressure_rose_after_correction", PRESSURE_ROSE_MESSAGE);
 
   return { correctedDropPsi, rawDropPsi, result, warnings };
 }
 
-/** Shown on the leak-test form before the tank is pressurised. */
+/** Shown on the leak-test form before the tank is pressurized. */
 export const pneumaticTestCautions: readonly { key: string; text: string }[] = [
   { key: "lowest_pressure", text: "Use the lowest pressure that does the job." },
   {

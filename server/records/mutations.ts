@@ -1,7 +1,7 @@
 import "server-only";
 import { type Transaction, sql } from "kysely";
 import type { DB } from "@/db";
-import type { Database } from "@/db/schema";
+import type { Database, JobScope, Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
 import { ApiError, notFound } from "@/server/http/errors";
 import { evaluateLeakTest, type LeakTestOutcome } from "./leak-test";
@@ -195,15 +195,20 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
 
 export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi" | "result" | "warnings"> {
   test: LeakTestView;
+  /**
+   * The job as it stood when the test was saved: a page opened earlier may hold an older stage or
+   * version, and the offer to send the job back to Fabricate must act on the current one.
+   */
+  job: { id: number; workOrder: string; stage: Stage; scope: JobScope; version: number };
 }
 
 /** Records a leak test: the server corrects the drop for temperature and decides it against the shop's allowance. */
 export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, input: LeakTestRequest, now = new Date()): Promise<LeakTestAnswer> {
-  const { testId, outcome } = await db.transaction().execute(async (trx) => {
+  const { testId, outcome, job } = await db.transaction().execute(async (trx) => {
     const part = await trx
       .selectFrom("part as p")
       .innerJoin("job as j", "j.id", "p.job_id")
-      .select(["p.id", "p.job_id", "p.shape", "p.rework_count", "j.work_order"])
+      .select(["p.id", "p.job_id", "p.shape", "p.rework_count", "j.work_order", "j.stage", "j.scope", "j.version"])
       .where("p.id", "=", partId)
       .executeTakeFirst();
     if (!part) throw notFound("That part");
@@ -226,10 +231,11 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    return { testId: row.id, outcome };
+    const job = { id: part.job_id, workOrder: part.work_order, stage: part.stage, scope: part.scope, version: part.version };
+    return { testId: row.id, outcome, job };
   });
   const [test] = await listLeakTests(db, { testId });
-  return { correctedDropPsi: outcome.correctedDropPsi, result: outcome.result, warnings: outcome.warnings, test };
+  return { correctedDropPsi: outcome.correctedDropPsi, result: outcome.result, warnings: outcome.warnings, test, job };
 }
 
 export async function createVendor(db: DB, input: VendorInput): Promise<VendorView> {

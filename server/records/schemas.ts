@@ -113,7 +113,7 @@ export type LeakTestFormInput = z.input<typeof leakTestInputSchema>;
 export const GLOSS_LEVELS = ["flat", "matte", "satin", "semi_gloss", "gloss", "high_gloss"] as const;
 
 export const coatingFinishSchema = z.object({
-  colour: name("the colour"),
+  colour: name("the color"),
   gloss: z.enum(GLOSS_LEVELS, { error: "Choose the gloss level." }),
 });
 export type CoatingFinish = z.infer<typeof coatingFinishSchema>;

@@ -42,7 +42,7 @@ export function shopToday(clock: ShopClock): string {
 /**
  * Business days from one calendar date to a later one, counted as date-fns does: the weekdays
  * from `fromDate` up to but not including `toDate` (Fri→Mon = 1, Mon→Fri = 4, Sat→Mon = 0).
- * Weekends are excluded; shop and vendor holidays are not modelled and count as business days.
+ * Weekends are excluded; shop and vendor holidays are not modeled and count as business days.
  */
 export function businessDaysBetween(fromDate: string, toDate: string): number {
   return differenceInBusinessDays(parseCalendarDate(toDate), parseCalendarDate(fromDate), { in: calendarZone });

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import * as coatingRunItem from "@/app/api/coating-runs/[id]/route";
 import * as coatingRuns from "@/app/api/coating-runs/route";
+import * as jobItem from "@/app/api/jobs/[id]/route";
+import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as parts from "@/app/api/jobs/[id]/parts/route";
 import * as signOff from "@/app/api/jobs/[id]/sign-off/route";
 import * as leakTests from "@/app/api/parts/[id]/leak-tests/route";
@@ -145,6 +147,45 @@ describe("leak tests", () => {
     const history = (await readBody(await leakTests.GET(request(`/api/parts/${tank.id}/leak-tests`, { cookie: tech.cookie }), params({ id: String(tank.id) })))).leakTests;
     expect(history.map((t: { result: string; allowedDropPsi: number }) => [t.result, t.allowedDropPsi])).toEqual([["pass", 0.1], ["fail", DEFAULT_ALLOWED_DROP_PSI]]);
     await setAllowance(owner.cookie, { leakAllowedDropPsi: DEFAULT_ALLOWED_DROP_PSI });
+  });
+
+  it("a failed test answers with the job as it stands now, so the move back to Fabricate goes through with that version and a note", async () => {
+    const office = await as("office");
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "pressure_test" });
+    const tank = await addPart(tech.cookie, job.id);
+    // The bench opened the page at version 1; the office then edits the job, so the page's copy is stale.
+    const edited = await jobItem.PATCH(request(`/api/jobs/${job.id}`, { method: "PATCH", cookie: office.cookie, body: { version: job.version, notes: "Customer asked for a second drain plug." } }), params({ id: String(job.id) }));
+    expect(edited.status).toBe(200);
+
+    const res = await postTest(tech.cookie, tank.id, { ...goodTest, jobId: job.id, seams: [{ location: "Fill neck", result: "leak" }] });
+    expect(res.status).toBe(201);
+    const answer = await readBody(res);
+    expect(answer.result).toBe("fail");
+    expect(answer.job).toEqual({ id: job.id, workOrder: job.work_order, stage: "pressure_test", scope: "fabrication", version: job.version + 1 });
+
+    const move = (version: number) =>
+      moves.POST(request(`/api/jobs/${job.id}/moves`, { cookie: tech.cookie, body: { toStage: "fabricate", version, note: "Leak test failed: 40 gal round reservoir, leak at Fill neck." } }), params({ id: String(job.id) }));
+    const stale = await move(job.version);
+    expect(stale.status).toBe(409);
+    expect((await readBody(stale)).error.details.job).toEqual(expect.objectContaining({ stage: "pressure_test", version: answer.job.version }));
+    expect((await move(answer.job.version)).status).toBe(200);
+    const event = await db().selectFrom("stage_event").select(["from_stage", "to_stage", "note"]).where("job_id", "=", job.id).orderBy("id", "desc").executeTakeFirstOrThrow();
+    expect(event).toEqual({ from_stage: "pressure_test", to_stage: "fabricate", note: "Leak test failed: 40 gal round reservoir, leak at Fill neck." });
+  });
+
+  it("flags a pressure that rose after the temperature correction, and keeps the flag with the test", async () => {
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "pressure_test" });
+    const tank = await addPart(tech.cookie, job.id);
+    // 70 → 67 °F with the gauge unchanged: cooling should have dropped it, so corrected it "rose".
+    const res = await postTest(tech.cookie, tank.id, { ...goodTest, jobId: job.id, gaugeCalibratedOn: today(), startTempF: 70, endTempF: 67 });
+    expect(res.status).toBe(201);
+    const answer = await readBody(res);
+    expect(answer.correctedDropPsi).toBeLessThan(-0.1);
+    expect(answer.result).toBe("pass");
+    expect(answer.warnings.map((w: { code: string }) => w.code)).toEqual(["pressure_rose_after_correction"]);
+    expect(answer.test.warnings).toEqual(answer.warnings);
   });
 
   it("refuses bad input with the field named and records nothing", async () => {

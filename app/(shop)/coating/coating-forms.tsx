@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
 import { IconStop } from "@/components/icons";
+import { collapseListErrors, fieldErrorSummary } from "@/server/records/form-errors";
 import type { CoatingCandidate, VendorView } from "@/server/records/queries";
 import { GLOSS_LEVELS, glossLabels } from "@/server/records/schemas";
 import { addBusinessDaysTo } from "@/server/records/turnaround";
@@ -111,8 +112,8 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
         )}
       </Field>
       <div className="grid grid-cols-2 gap-3">
-        <Field label="Colour" name="colour" errors={form.fields["finish.colour"]} hint="As the customer chose it.">
-          {(p) => <input {...p} className={inputClass} placeholder="e.g. Gloss black" />}
+        <Field label="Color" name="colour" errors={form.fields["finish.colour"]} hint="As the customer chose it; the gloss goes beside it.">
+          {(p) => <input {...p} className={inputClass} placeholder="e.g. Black, Safety yellow" />}
         </Field>
         <Field label="Gloss" name="gloss" errors={form.fields["finish.gloss"]}>
           {(p) => (
@@ -175,6 +176,13 @@ export function ReceiveForm({ runId, sentOn, today }: { runId: number; sentOn: s
   );
 }
 
+const INSPECTION_ORDER = ["inspection.dftReadingsMils", "inspection.adhesionOk", "inspection.defects"] as const;
+const INSPECTION_NAMES: Record<string, string> = {
+  "inspection.dftReadingsMils": "Film-thickness readings",
+  "inspection.adhesionOk": "Adhesion check",
+  "inspection.defects": "Defects",
+};
+
 /** The receiving inspection: film thickness in mils, adhesion, defects. */
 export function InspectionForm({ runId }: { runId: number }) {
   const router = useRouter();
@@ -194,15 +202,16 @@ export function InspectionForm({ runId }: { runId: number }) {
     },
     () => router.refresh(),
   );
-  const readingErrors = Object.entries(form.fields)
-    .filter(([key]) => key.startsWith("inspection.dftReadingsMils"))
-    .flatMap(([key, messages]) => {
-      const index = key.split(".")[2];
-      return messages.map((m) => (index === undefined ? m : `Reading ${Number(index) + 1}: ${m}`));
-    });
+  const sent = readings.split(/[\s,;]+/).filter(Boolean);
+  // Three readings in µm get one line naming all three, not the same message three times.
+  const readingErrors = collapseListErrors(form.fields, "inspection.dftReadingsMils", { one: "Reading", many: "Readings" }, (i) => sent[i]);
+  const alert =
+    form.failure && Object.keys(form.fields).length
+      ? { ...form.failure, message: `Not recorded. ${fieldErrorSummary(form.fields, INSPECTION_ORDER, (key) => INSPECTION_NAMES[key.split(".").slice(0, 2).join(".")] ?? null)}` }
+      : form.failure;
   return (
     <form onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label={`Receiving inspection of run ${runId}`}>
-      <FormAlert failure={form.failure} />
+      <FormAlert failure={alert} />
       <Field
         label="Dry film thickness readings (mils)"
         name="dftReadings"

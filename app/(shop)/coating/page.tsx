@@ -80,7 +80,7 @@ function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string;
       <ul className="mt-2 space-y-1">
         {run.parts.map((part) => (
           <li key={part.id} className="text-sm">
-            <Link href={`/jobs/${part.jobId}`} className="font-semibold text-bay-800 underline">
+            <Link href={`/jobs/${part.jobId}`} className="font-semibold text-bay-800 underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">
               {part.workOrder}
             </Link>{" "}
             · {part.customerName} · unit {part.unitNumber} · <strong>{part.name}</strong> <span className="text-ink-soft">({STAGE_LABELS[part.jobStage]})</span>
@@ -156,8 +156,8 @@ export default async function CoatingPage() {
         </p>
       </header>
 
-      <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_420px]">
-        <div className="space-y-4">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-4 xl:grid-cols-[minmax(0,1fr)_420px]">
+        <div className="min-w-0 space-y-4">
           <Section title={`Out now (${out.length})`} id="out">
             {out.length === 0 ? <p className="text-ink-soft">Nothing is out at a coater.</p> : (
               <div className="space-y-3">
@@ -223,7 +223,7 @@ export default async function CoatingPage() {
           )}
         </div>
 
-        <div className="space-y-4">
+        <div className="min-w-0 space-y-4">
           <Section title="Send parts out" id="send">
             {office ? (
               <SendRunForm vendors={vendors} candidates={candidates} today={today} />
@@ -243,13 +243,13 @@ export default async function CoatingPage() {
                     {v.phone && (
                       <>
                         {" · "}
-                        <a href={`tel:${v.phone.replace(/[^\d+]/g, "")}`} className="underline">{v.phone}</a>
+                        <a href={`tel:${v.phone.replace(/[^\d+]/g, "")}`} className="underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">{v.phone}</a>
                       </>
                     )}
                     {v.email && (
                       <>
                         {" · "}
-                        <a href={`mailto:${v.email}`} className="underline">{v.email}</a>
+                        <a href={`mailto:${v.email}`} className="underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">{v.email}</a>
                       </>
                     )}
                     {" · "}usually {days(v.usualTurnaroundDays)}

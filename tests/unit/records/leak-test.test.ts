@@ -1,8 +1,11 @@
 import { unit } from "mathjs";
 import { describe, expect, it } from "vitest";
 import {
+  PRESSURE_ROSE_MESSAGE,
+  dropAgainstAllowance,
   evaluateLeakTest,
   expectedEndPressurePsig,
+  formatDropPsi,
   pneumaticTestCautions,
   pressureDrop,
   type LeakTestContext,
@@ -227,6 +230,60 @@ describe("evaluateLeakTest: warnings", () => {
     const outcome = evaluateLeakTest(leakTest({ holdMinutes: 5, gaugeFullScalePsi: 100 }), context);
     expect(outcome.result).toBe("pass");
     expect(codes(outcome)).toEqual(["hold_too_short", "gauge_range"]);
+  });
+});
+
+describe("a pressure that rose after the temperature correction", () => {
+  // Ideal gas law at constant volume: 18.696 psia at 67 °F is 18.696 × 529.67 / 526.67 psia at
+  // 70 °F, so an unchanged gauge over 3 °F of cooling reads as a 0.1065 psi rise once corrected.
+  const rose = leakTest({ startTempF: 70, endTempF: 67 });
+
+  it("is flagged with the caution, and the readings still decide the result", () => {
+    const outcome = evaluateLeakTest(rose, context);
+    expect(outcome.correctedDropPsi).toBeCloseTo(18.696 - (18.696 * 529.67) / 526.67, 4);
+    expect(outcome.correctedDropPsi).toBeCloseTo(-0.1065, 4);
+    expect(outcome.result).toBe("pass");
+    expect(codes(outcome)).toEqual(["pressure_rose_after_correction"]);
+    expect(outcome.warnings[0].message).toBe(PRESSURE_ROSE_MESSAGE);
+    expect(PRESSURE_ROSE_MESSAGE).toBe("Pressure rose after correcting for temperature: check the thermometer and the gauge, then test again.");
+  });
+
+  it("is flagged whatever the method, since it points at the instruments", () => {
+    expect(codes(evaluateLeakTest({ ...rose, method: "soap" }, context))).toEqual(["pressure_rose_after_correction"]);
+    expect(codes(evaluateLeakTest({ ...rose, method: "decay", seams: [] }, context))).toEqual(["pressure_rose_after_correction"]);
+  });
+
+  it("is not flagged for a rise under the gauge's 0.01 psi, nor for no change", () => {
+    // 0.004 psi over what cooling explains: below what a low-range gauge can show.
+    const end = expectedEndPressurePsig({ startPressurePsig: 4, startTempF: 70, endTempF: 69, barometricPsia: 14.696 }) + 0.004;
+    const small = evaluateLeakTest(leakTest({ endTempF: 69, endPressurePsig: end }), context);
+    expect(small.correctedDropPsi).toBeLessThan(0);
+    expect(codes(small)).toEqual([]);
+    const over = evaluateLeakTest(leakTest({ endTempF: 69, endPressurePsig: end + 0.004 }), context);
+    expect(codes(over)).toEqual(["pressure_rose_after_correction"]);
+    expect(codes(evaluateLeakTest(leakTest(), context))).toEqual([]);
+  });
+});
+
+describe("drops as the shop reads them (0.01 psi, a low-range gauge's resolution)", () => {
+  it("shows two decimals and never a negative zero", () => {
+    expect(formatDropPsi(-0.0957)).toBe("-0.10");
+    expect(formatDropPsi(0.0372)).toBe("0.04");
+    expect(formatDropPsi(0)).toBe("0.00");
+    expect(formatDropPsi(-0.0004)).toBe("0.00");
+    expect(formatDropPsi(0.8)).toBe("0.80");
+  });
+
+  it("says 'just over' when the drop and the allowance round to the same figure, so the words agree with a fail", () => {
+    expect(dropAgainstAllowance(0.0501, 0.05)).toBe("just over the allowed 0.05 psi");
+    expect(dropAgainstAllowance(0.12, 0.05)).toBe("over the allowed 0.05 psi");
+    expect(dropAgainstAllowance(0.05, 0.05)).toBe("within the allowed 0.05 psi");
+    expect(dropAgainstAllowance(-0.1, 0.05)).toBe("within the allowed 0.05 psi");
+  });
+
+  it("reports the soap-only drop in the warning to 0.01 psi", () => {
+    const outcome = evaluateLeakTest(leakTest({ method: "soap", endPressurePsig: 3.5 }), context);
+    expect(outcome.warnings[0].message).toContain("fell 0.50 psi");
   });
 });
 

@@ -15,7 +15,7 @@ const central = "US/Central";
 const at = (iso: string) => ({ now: new Date(iso), timeZone: central });
 
 // Calendar used below: 2025-03-07 is a Friday, 2025-03-10 a Monday.
-describe("businessDaysBetween (weekends excluded, holidays not modelled)", () => {
+describe("businessDaysBetween (weekends excluded, holidays not modeled)", () => {
   it.each([
     ["Fri → Mon", "2025-03-07", "2025-03-10", 1],
     ["Mon → Fri", "2025-03-03", "2025-03-07", 4],
@@ -30,7 +30,7 @@ describe("businessDaysBetween (weekends excluded, holidays not modelled)", () =>
     expect(businessDaysBetween(from, to)).toBe(expected);
   });
 
-  it("counts a holiday as a business day (holidays are not modelled)", () => {
+  it("counts a holiday as a business day (holidays are not modeled)", () => {
     // Thu 2025-12-25 → Fri 2025-12-26: the Thursday counts.
     expect(businessDaysBetween("2025-12-25", "2025-12-26")).toBe(1);
   });

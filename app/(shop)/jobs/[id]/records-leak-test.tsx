@@ -1,30 +1,39 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useId, useState } from "react";
+import { useId, useRef, useState } from "react";
+import { ApiRequestError } from "@/components/api";
 import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
 import { IconCheck, IconStop, IconWarn } from "@/components/icons";
 import { type MoveRefusal, refusalOf, sendMove } from "@/components/move-job";
 import { RefusalNote } from "@/components/refusal-note";
-import type { Stage } from "@/db/schema";
+import type { JobScope, Stage } from "@/db/schema";
 import type { PartShape } from "@/db/tables/records";
-import { stageIndex } from "@/server/jobs/stages";
+import { STAGE_LABELS } from "@/server/jobs/stages";
+import { fieldErrorSummary } from "@/server/records/form-errors";
 import {
   ASME_GAUGE_FULL_SCALE_RATIO,
   ASME_MIN_HOLD_MINUTES,
+  DROP_PRECISION_NOTE,
   type LeakTestResult,
   type LeakTestWarning,
+  PRESSURE_ROSE_MESSAGE,
   SEA_LEVEL_PSIA,
   UL142_TEST_PRESSURE_PSIG,
+  dropAgainstAllowance,
+  formatDropPsi,
   pneumaticTestCautions,
 } from "@/server/records/leak-test";
 import type { LeakTestMethod } from "@/server/records/schemas";
+import { canSendBackToFabricate, sendBackNote } from "@/server/records/send-back";
+import { useFocusFirstInvalid } from "./records-form-errors";
 
 export interface LeakTestJob {
   id: number;
   stage: Stage;
   version: number;
   workOrder: string;
+  scope: JobScope;
 }
 
 export interface LeakTestPart {
@@ -38,7 +47,9 @@ interface LeakTestAnswer {
   correctedDropPsi: number;
   result: LeakTestResult;
   warnings: LeakTestWarning[];
-  test: { rawDropPsi: number; allowedDropPsi: number; holdMinutes: number; seams: { location: string; result: "pass" | "leak" }[] };
+  test: { partName: string; rawDropPsi: number; allowedDropPsi: number; holdMinutes: number; seams: { location: string; result: "pass" | "leak" }[] };
+  /** The job as it stood when the test was saved; the page's copy may be older. */
+  job: { id: number; stage: Stage; version: number; scope: JobScope };
 }
 
 type SeamRow = { key: number; location: string; result: "" | "pass" | "leak" };
@@ -53,6 +64,41 @@ const METHODS: { value: LeakTestMethod; label: string; hint: string }[] = [
 const RESERVOIR_SEAMS = ["Sump to shell", "Fill neck", "Suction port", "Return port", "End caps"];
 
 const fmt = (psi: number, digits = 3) => Number(psi.toFixed(digits)).toString();
+
+/** The corrected drop in words: a rise is said as a rise, never as a negative drop. */
+export function correctedDropText(correctedDropPsi: number) {
+  const shown = formatDropPsi(correctedDropPsi);
+  return shown.startsWith("-") ? `pressure rose ${shown.slice(1)} psi after temperature correction` : `corrected drop ${shown} psi`;
+}
+
+/** Warnings as recorded, with the pressure-rise caution first; tests saved before that check get it derived. */
+export function cautionsOf(correctedDropPsi: number, warnings: LeakTestWarning[]): LeakTestWarning[] {
+  const rose = formatDropPsi(correctedDropPsi).startsWith("-");
+  const list = rose && !warnings.some((w) => w.code === "pressure_rose_after_correction")
+    ? [{ code: "pressure_rose_after_correction" as const, message: PRESSURE_ROSE_MESSAGE }, ...warnings]
+    : warnings;
+  return [...list].sort((a, b) => Number(b.code === "pressure_rose_after_correction") - Number(a.code === "pressure_rose_after_correction"));
+}
+
+// The form's fields in screen order, for the summary beside the submit button.
+const FIELD_ORDER = [
+  "method", "testPressurePsig", "holdMinutes", "gaugeFullScalePsi", "gaugeCalibratedOn", "startPressurePsig", "endPressurePsig",
+  "startTempF", "endTempF", "barometricPsia", "seams", "tester",
+] as const;
+const FIELD_NAMES: Record<(typeof FIELD_ORDER)[number], string> = {
+  method: "Method",
+  testPressurePsig: "Test pressure",
+  holdMinutes: "Hold",
+  gaugeFullScalePsi: "Gauge full scale",
+  gaugeCalibratedOn: "Gauge calibration date",
+  startPressurePsig: "Start pressure",
+  endPressurePsig: "End pressure",
+  startTempF: "Start temperature",
+  endTempF: "End temperature",
+  barometricPsia: "Barometric pressure",
+  seams: "Soap check",
+  tester: "Tester",
+};
 
 function bandHint(shape: PartShape) {
   if (shape === "round" || shape === "box") {
@@ -121,10 +167,30 @@ export function LeakTestForm({
     },
   );
 
+  const formRef = useRef<HTMLFormElement>(null);
+  const summaryRef = useRef<HTMLParagraphElement>(null);
+  useFocusFirstInvalid(formRef, form.failure, summaryRef);
+  const summaryId = `${formId}-summary`;
+
   const seamErrors = (key: number, field: "location" | "result") => {
     const index = sentRows.indexOf(key);
     return index < 0 ? undefined : form.fields[`seams.${index}.${field}`];
   };
+  const fieldLabel = (key: string): string | null => {
+    const seam = /^seams\.(\d+)\.(location|result)$/.exec(key);
+    if (seam) {
+      const row = seams.findIndex((s) => s.key === sentRows[Number(seam[1])]);
+      return row < 0 ? null : `${seam[2] === "result" ? "Result" : "Location"} of seam ${row + 1}`;
+    }
+    return (FIELD_NAMES as Record<string, string>)[key] ?? null;
+  };
+  const summary = form.failure
+    ? Object.keys(form.fields).length
+      ? `Not recorded. ${fieldErrorSummary(form.fields, FIELD_ORDER, fieldLabel)}`
+      : form.failure.message
+    : null;
+  // Errors on the whole seam list land on the first seam, or on the button that adds one.
+  const seamListInvalid = Boolean(form.fields.seams) && !Object.keys(form.fields).some((k) => k.startsWith("seams."));
   const pressure = Number(testPressure);
   const gaugeHint =
     testPressure !== "" && Number.isFinite(pressure) && pressure > 0
@@ -136,10 +202,10 @@ export function LeakTestForm({
   const numberInput = (p: object, extra: Record<string, unknown> = {}) => <input {...p} type="text" inputMode="decimal" autoComplete="off" className={inputClass} {...extra} />;
 
   return (
-    <form onSubmit={form.onSubmit} noValidate className="space-y-4" aria-label={`Leak test of ${part.name}`}>
+    <form ref={formRef} onSubmit={form.onSubmit} noValidate className="space-y-4" aria-label={`Leak test of ${part.name}`}>
       <aside aria-label="Pneumatic test cautions" className="rounded-md border-2 border-warn-700/50 bg-warn-100 p-3 text-sm text-ink">
         <p className="flex items-center gap-2 font-bold text-warn-700">
-          <IconWarn /> Before you pressurise the tank
+          <IconWarn /> Before you pressurize the tank
         </p>
         <ul className="mt-1 list-disc space-y-0.5 pl-5">
           {pneumaticTestCautions.map((c) => (
@@ -148,14 +214,14 @@ export function LeakTestForm({
         </ul>
       </aside>
 
-      <FormAlert failure={form.failure} />
+      <FormAlert failure={form.failure && summary ? { ...form.failure, message: summary } : null} />
 
-      <fieldset className="space-y-2">
+      <fieldset className="space-y-2" data-field>
         <legend className="text-sm font-semibold">Method</legend>
         <div className="grid gap-2 sm:grid-cols-3">
           {METHODS.map((m) => (
             <label key={m.value} className={`flex min-h-11 cursor-pointer items-start gap-2 rounded-md border p-2 ${method === m.value ? "border-bay-700 bg-bay-50" : "border-line"}`}>
-              <input type="radio" name={`${formId}-method`} value={m.value} checked={method === m.value} onChange={() => setMethod(m.value)} className="mt-1 h-5 w-5 accent-bay-700" />
+              <input type="radio" name={`${formId}-method`} value={m.value} checked={method === m.value} onChange={() => setMethod(m.value)} aria-invalid={Boolean(form.fields.method)} className="mt-1 h-5 w-5 accent-bay-700" />
               <span>
                 <span className="block font-semibold">{m.label}</span>
                 <span className="block text-sm text-ink-soft">{m.hint}</span>
@@ -206,7 +272,7 @@ export function LeakTestForm({
           {(p) => numberInput(p, { defaultValue: String(SEA_LEVEL_PSIA) })}
         </Field>
         <p className="text-sm text-ink-soft">
-          The server corrects the end pressure to the start temperature (ideal gas law, absolute units) and compares the drop with the shop&apos;s allowed {fmt(allowedDropPsi)} psi.
+          The server corrects the end pressure to the start temperature (ideal gas law, absolute units) and compares the drop with the shop&apos;s allowed {fmt(allowedDropPsi)} psi. {DROP_PRECISION_NOTE}
         </p>
       </fieldset>
 
@@ -219,11 +285,11 @@ export function LeakTestForm({
             const resultErrors = seamErrors(seam.key, "result");
             const update = (change: Partial<SeamRow>) => setSeams((rows) => rows.map((r) => (r.key === seam.key ? { ...r, ...change } : r)));
             return (
-              <li key={seam.key} className="rounded-md border border-line p-2">
+              <li key={seam.key} data-field className={`rounded-md border p-2 ${locationErrors || resultErrors ? "border-stop-700" : "border-line"}`}>
                 <div className="flex flex-wrap items-end gap-2">
                   <label className="min-w-0 flex-1 text-sm font-semibold">
                     Seam {i + 1}
-                    <input value={seam.location} onChange={(e) => update({ location: e.target.value })} aria-invalid={Boolean(locationErrors)} placeholder="Where on the tank" className={`${inputClass} mt-1`} />
+                    <input value={seam.location} onChange={(e) => update({ location: e.target.value })} aria-invalid={Boolean(locationErrors) || (seamListInvalid && i === 0)} placeholder="Where on the tank" className={`${inputClass} mt-1`} />
                   </label>
                   <button
                     type="button"
@@ -238,8 +304,8 @@ export function LeakTestForm({
                 <div className="mt-2">
                   <div role="radiogroup" aria-label={`Seam ${i + 1} result`} className="grid grid-cols-2 gap-2 sm:flex">
                     {(["pass", "leak"] as const).map((r) => (
-                      <label key={r} className={`flex min-h-11 min-w-20 cursor-pointer items-center justify-center gap-1 rounded-md border px-2 font-semibold ${seam.result === r ? (r === "pass" ? "border-ok-700 bg-ok-100 text-ok-700" : "border-stop-700 bg-stop-100 text-stop-700") : "border-line"}`}>
-                        <input type="radio" name={`${formId}-seam-${seam.key}`} checked={seam.result === r} onChange={() => update({ result: r })} className="sr-only" />
+                      <label key={r} className={`flex min-h-11 min-w-20 cursor-pointer items-center justify-center gap-1 rounded-md border px-2 font-semibold has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-bay-600 ${seam.result === r ? (r === "pass" ? "border-ok-700 bg-ok-100 text-ok-700" : "border-stop-700 bg-stop-100 text-stop-700") : "border-line"}`}>
+                        <input type="radio" name={`${formId}-seam-${seam.key}`} checked={seam.result === r} onChange={() => update({ result: r })} aria-invalid={Boolean(resultErrors)} className="sr-only" />
                         {r === "pass" ? <IconCheck /> : <IconStop />} {r === "pass" ? "No bubbles" : "Leak"}
                       </label>
                     ))}
@@ -250,15 +316,26 @@ export function LeakTestForm({
             );
           })}
         </ul>
-        <button type="button" className={buttonClass.secondary} onClick={() => setSeams((rows) => [...rows, { key: Math.max(-1, ...rows.map((r) => r.key)) + 1, location: "", result: "" }])}>
+        <button
+          type="button"
+          className={buttonClass.secondary}
+          data-invalid={seamListInvalid && seams.length === 0}
+          onClick={() => setSeams((rows) => [...rows, { key: Math.max(-1, ...rows.map((r) => r.key)) + 1, location: "", result: "" }])}
+        >
           + Add a seam
         </button>
       </fieldset>
 
       <Field label="Tester" name="tester" errors={form.fields.tester}>{(p) => <input {...p} defaultValue={tester} autoComplete="name" className={inputClass} />}</Field>
 
+      {summary && (
+        <p ref={summaryRef} id={summaryId} tabIndex={-1} className="flex gap-2 rounded-md border border-stop-700/40 bg-stop-100 px-3 py-2 text-sm font-medium text-stop-700">
+          <IconStop className="mt-0.5 h-4 w-4 shrink-0" />
+          <span>{summary}</span>
+        </p>
+      )}
       <div className="flex flex-wrap gap-2">
-        <button type="submit" className={`${buttonClass.primary} flex-1 sm:flex-none`} disabled={form.pending}>
+        <button type="submit" className={`${buttonClass.primary} flex-1 sm:flex-none`} disabled={form.pending} aria-describedby={summary ? summaryId : undefined}>
           {form.pending ? "Recording…" : "Record the test"}
         </button>
         <button type="button" className={buttonClass.secondary} onClick={onClose}>
@@ -286,30 +363,59 @@ function Reading({ label, spoken, name, errors }: { label: string; spoken: strin
   );
 }
 
-function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTestJob; part: LeakTestPart; answer: LeakTestAnswer; onAgain: () => void; onClose: () => void }) {
+/**
+ * The offer to send a job back to Fabricate after a failed leak test. It acts on the freshest copy
+ * of the job it has (the page's, or the one the test answered with), and when someone moved or
+ * changed the card in between it takes the job as it now stands and asks again.
+ */
+export function SendBackOffer({ job, seen, note }: { job: LeakTestJob; seen?: { stage: Stage; version: number } | null; note: string }) {
   const router = useRouter();
+  const [latest, setLatest] = useState<{ stage: Stage; version: number } | null>(null);
   const [moved, setMoved] = useState(false);
   const [refusal, setRefusal] = useState<MoveRefusal | null>(null);
   const [pending, setPending] = useState(false);
-  const pass = answer.result === "pass";
-  const canSendBack = !pass && stageIndex(job.stage) > stageIndex("fabricate") && job.stage !== "delivered";
-  const leaks = answer.test.seams.filter((s) => s.result === "leak").map((s) => s.location);
+  const current = [job, seen, latest].reduce<{ stage: Stage; version: number }>((a, b) => (b && b.version > a.version ? b : a), job);
+
+  if (moved) return <p className="font-semibold text-ink">✓ {job.workOrder} is back in Fabricate.</p>;
+  if (!canSendBackToFabricate({ stage: current.stage, scope: job.scope })) return null;
 
   async function sendBack() {
     setPending(true);
     setRefusal(null);
     try {
-      const why = leaks.length ? `leak at ${leaks.join(", ")}` : `corrected drop ${fmt(answer.correctedDropPsi)} psi`;
-      await sendMove(job.id, { toStage: "fabricate", version: job.version, note: `Leak test failed on ${part.name}: ${why}.` });
+      await sendMove(job.id, { toStage: "fabricate", version: current.version, note });
       setMoved(true);
-      router.refresh();
     } catch (err) {
-      setRefusal(refusalOf(err));
-      router.refresh();
+      const r = refusalOf(err);
+      const now = err instanceof ApiRequestError ? (err.failure.details?.job as { stage: Stage; version: number } | undefined) : undefined;
+      if (r.kind === "stale" && now) {
+        setLatest({ stage: now.stage, version: now.version });
+        setRefusal({ ...r, message: `${r.message} It is now in ${STAGE_LABELS[now.stage]}.` });
+      } else setRefusal(r);
     } finally {
       setPending(false);
+      router.refresh();
     }
   }
+
+  return (
+    <div className="space-y-2">
+      <button type="button" className={`${buttonClass.danger} w-full sm:w-auto`} disabled={pending} onClick={sendBack}>
+        {pending ? "Moving…" : `Send ${job.workOrder} back to Fabricate`}
+      </button>
+      {refusal && <RefusalNote refusal={refusal} />}
+    </div>
+  );
+}
+
+function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTestJob; part: LeakTestPart; answer: LeakTestAnswer; onAgain: () => void; onClose: () => void }) {
+  const pass = answer.result === "pass";
+  const leaks = answer.test.seams.filter((s) => s.result === "leak").map((s) => s.location);
+  const raw = answer.test.rawDropPsi;
+  const cautions = cautionsOf(answer.correctedDropPsi, answer.warnings);
+  const drop = correctedDropText(answer.correctedDropPsi);
+  // A rise is no drop to weigh against the allowance; the caution below says what to check.
+  const rose = formatDropPsi(answer.correctedDropPsi).startsWith("-");
 
   return (
     <div role="status" aria-live="polite" className={`space-y-2 rounded-md border-2 p-3 ${pass ? "border-ok-700 bg-ok-100" : "border-stop-700 bg-stop-100"}`}>
@@ -318,26 +424,29 @@ function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTes
         {pass ? "Pass" : "Fail"} — {part.name}
       </p>
       <p className="text-ink">
-        Corrected drop <strong>{fmt(answer.correctedDropPsi, 4)} psi</strong> over {fmt(answer.test.holdMinutes, 1)} min; the shop allows {fmt(answer.test.allowedDropPsi)} psi. The gauge itself fell {fmt(answer.test.rawDropPsi, 4)} psi before the temperature correction.
+        <strong>{drop.charAt(0).toUpperCase() + drop.slice(1)}</strong> over {fmt(answer.test.holdMinutes, 1)} min
+        {rose ? "." : `, ${dropAgainstAllowance(answer.correctedDropPsi, answer.test.allowedDropPsi)}.`}{" "}
+        {formatDropPsi(Math.abs(raw)) === "0.00" ? "The gauge itself did not move." : `Before the correction the gauge ${raw < 0 ? "rose" : "fell"} ${formatDropPsi(Math.abs(raw))} psi.`}
       </p>
+      <p className="text-sm text-ink-soft">{DROP_PRECISION_NOTE}</p>
       {leaks.length > 0 && <p className="font-semibold text-stop-700">Leak seen at: {leaks.join(", ")}.</p>}
-      {answer.warnings.length > 0 && (
+      {cautions.length > 0 && (
         <ul className="space-y-1">
-          {answer.warnings.map((w) => (
-            <li key={w.code} className="flex gap-2 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">
+          {cautions.map((w) => (
+            <li key={w.code} className={`flex gap-2 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700 ${w.code === "pressure_rose_after_correction" ? "border-2 border-warn-700/50 font-semibold" : ""}`}>
               <IconWarn className="mt-0.5 h-4 w-4 shrink-0" /> <span>{w.message}</span>
             </li>
           ))}
         </ul>
       )}
       {!pass && <p className="text-sm text-ink">Repair it, mark the part reworked, and record a new test: a failed tank cannot go out for coating.</p>}
-      {canSendBack && !moved && (
-        <button type="button" className={`${buttonClass.danger} w-full sm:w-auto`} disabled={pending} onClick={sendBack}>
-          {pending ? "Moving…" : `Send ${job.workOrder} back to Fabricate`}
-        </button>
+      {!pass && (
+        <SendBackOffer
+          job={job}
+          seen={answer.job}
+          note={sendBackNote({ partName: part.name, seams: answer.test.seams, correctedDropPsi: answer.correctedDropPsi, allowedDropPsi: answer.test.allowedDropPsi })}
+        />
       )}
-      {moved && <p className="font-semibold text-ink">✓ {job.workOrder} is back in Fabricate.</p>}
-      {refusal && <RefusalNote refusal={refusal} />}
       <div className="flex flex-wrap gap-2">
         <button type="button" className={buttonClass.secondary} onClick={onAgain}>
           Record another test

@@ -11,7 +11,8 @@ import { tankFill } from "@/server/kit-calc/tank";
 import { formatShopTime } from "@/server/records/calendar";
 import type { LeakTestView, PartView } from "@/server/records/queries";
 import { type PartGeometry, glossLabels, partKindLabels, partMaterialLabels } from "@/server/records/schemas";
-import { type LeakTestJob, LeakTestForm } from "./records-leak-test";
+import { sendBackNote } from "@/server/records/send-back";
+import { type LeakTestJob, LeakTestForm, SendBackOffer, cautionsOf, correctedDropText } from "./records-leak-test";
 import { PartForm } from "./records-part-form";
 
 type Panel = { partId: number; mode: "test" | "edit" | "rework" } | { partId: null; mode: "add" } | null;
@@ -49,7 +50,7 @@ function CoatingStatus({ part }: { part: PartView }) {
   const c = part.coating;
   if (!c) return <Status tone="warn" icon={<IconClock />}>Not sent for coating yet</Status>;
   const run = (
-    <Link href={`/coating#run-${c.runId}`} className="underline">
+    <Link href={`/coating#run-${c.runId}`} className="underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">
       run {c.runId}
     </Link>
   );
@@ -114,10 +115,10 @@ function TestHistory({ tests, timeZone }: { tests: LeakTestView[]; timeZone: str
               {!t.current && <span className="ml-1 rounded bg-line px-1.5 text-ink-soft">before a rework: no longer counts</span>}
             </p>
             <p className="text-ink-soft">
-              {t.testPressurePsig} psig held {t.holdMinutes} min ({t.method === "both" ? "soap and decay" : t.method === "soap" ? "soap" : "pressure decay"}); {t.startPressurePsig} → {t.endPressurePsig} psig at {t.startTempF} → {t.endTempF} °F; corrected drop {t.correctedDropPsi} psi (allowed {t.allowedDropPsi} psi)
+              {t.testPressurePsig} psig held {t.holdMinutes} min ({t.method === "both" ? "soap and decay" : t.method === "soap" ? "soap" : "pressure decay"}); {t.startPressurePsig} → {t.endPressurePsig} psig at {t.startTempF} → {t.endTempF} °F; {correctedDropText(t.correctedDropPsi)} (allowed {t.allowedDropPsi} psi)
             </p>
             {t.seams.some((s) => s.result === "leak") && <p className="text-stop-700">Leak at: {t.seams.filter((s) => s.result === "leak").map((s) => s.location).join(", ")}</p>}
-            {t.warnings.map((w) => (
+            {cautionsOf(t.correctedDropPsi, t.warnings).map((w) => (
               <p key={w.code} className="text-warn-700">
                 <IconWarn /> {w.message}
               </p>
@@ -164,6 +165,7 @@ export function RecordsParts({
       <ul className="space-y-3">
         {parts.map((part) => {
           const open = panel && panel.partId === part.id ? panel.mode : null;
+          const failedTest = part.leak.lastResult === "fail" ? leakTests.find((t) => t.partId === part.id && t.current) : undefined;
           return (
             <li key={part.id} className="rounded-md border border-line p-3" data-part={part.name}>
               <h3 className="text-lg font-bold">{part.name}</h3>
@@ -177,6 +179,11 @@ export function RecordsParts({
                 <LeakStatus part={part} />
                 <CoatingStatus part={part} />
               </div>
+              {failedTest && !open && (
+                <div className="mt-2">
+                  <SendBackOffer job={job} note={sendBackNote(failedTest)} />
+                </div>
+              )}
               {part.reworkedAt && (
                 <p className="mt-1 text-sm text-ink-soft">
                   Reworked {dateTime(part.reworkedAt, timeZone)}
