@@ -1,6 +1,7 @@
 import "server-only";
 import type { DB } from "@/db";
 import type { Stage } from "@/db/schema";
+import type { EmailMessageTable } from "@/db/tables/messaging";
 import { STAGE_LABELS, isStage } from "@/server/jobs/stages";
 import { emailLinkFor, retryLinkFor } from "@/server/status/links";
 import { statusUrl } from "@/server/status/tokens";
@@ -112,16 +113,7 @@ function fromAddress(shopName: string, configured: string): string {
   return name ? `"${name}" <${configured}>` : configured;
 }
 
-interface StoredMessage {
-  from_address: string;
-  to_addresses: string;
-  reply_to: string | null;
-  subject: string;
-  html: string;
-  text: string;
-  status_link_id: number | null;
-  revision: number;
-}
+type StoredMessage = Pick<EmailMessageTable, "from_address" | "to_addresses" | "reply_to" | "subject" | "html" | "text" | "status_link_id" | "revision">;
 
 type Prepared = { skip: string } | { message: StoredMessage; token: string };
 
