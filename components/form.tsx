@@ -3,6 +3,8 @@
 import { type ReactNode, useId, useState } from "react";
 import { type ApiFailure, ApiRequestError, api } from "./api";
 
+import { buttonClass } from "./styles";
+
 export { buttonClass, inputClass } from "./styles";
 
 /** A labelled field with its error beside it, announced to screen readers. */
@@ -67,4 +69,18 @@ export function num(v: FormDataEntryValue | undefined): number | undefined | str
   if (s === "") return undefined;
   const n = Number(s);
   return Number.isFinite(n) ? n : s;
+}
+
+/** A form's closing row: the submit button (with its pending wording) and Cancel. */
+export function FormActions({ pending, label, pendingLabel, onCancel, describedBy }: { pending: boolean; label: string; pendingLabel: string; onCancel: () => void; describedBy?: string }) {
+  return (
+    <div className="flex flex-wrap gap-2">
+      <button type="submit" className={`${buttonClass.primary} flex-1 sm:flex-none`} disabled={pending} aria-describedby={describedBy}>
+        {pending ? pendingLabel : label}
+      </button>
+      <button type="button" className={buttonClass.secondary} onClick={onCancel}>
+        Cancel
+      </button>
+    </div>
+  );
 }

@@ -3,7 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useId, useRef, useState } from "react";
 import { ApiRequestError } from "@/components/api";
-import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
+import { buttonClass, Field, FormActions, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import { IconCheck, IconStop, IconWarn } from "@/components/icons";
 import { type MoveRefusal, refusalOf, sendMove } from "@/components/move-job";
 import { RefusalNote } from "@/components/refusal-note";
@@ -334,14 +334,7 @@ export function LeakTestForm({
           <span>{summary}</span>
         </p>
       )}
-      <div className="flex flex-wrap gap-2">
-        <button type="submit" className={`${buttonClass.primary} flex-1 sm:flex-none`} disabled={form.pending} aria-describedby={summary ? summaryId : undefined}>
-          {form.pending ? "Recording…" : "Record the test"}
-        </button>
-        <button type="button" className={buttonClass.secondary} onClick={onClose}>
-          Cancel
-        </button>
-      </div>
+      <FormActions pending={form.pending} label="Record the test" pendingLabel="Recording…" onCancel={onClose} describedBy={summary ? summaryId : undefined} />
     </form>
   );
 }

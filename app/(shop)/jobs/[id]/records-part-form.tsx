@@ -2,7 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
-import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
+import { Field, FormActions, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import type { PartKind, PartMaterial, PartShape } from "@/db/tables/records";
 import type { PartView } from "@/server/records/queries";
 import { PART_KINDS, PART_MATERIALS, PART_SHAPES, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/schemas";
@@ -173,14 +173,7 @@ export function PartForm({
       <Field label="Notes" name="notes" errors={form.fields.notes}>
         {(p) => <textarea {...p} rows={2} defaultValue={part?.notes ?? ""} className={inputClass} />}
       </Field>
-      <div className="flex flex-wrap gap-2">
-        <button type="submit" className={buttonClass.primary} disabled={form.pending}>
-          {form.pending ? "Saving…" : part ? "Save the part" : "Add the part"}
-        </button>
-        <button type="button" className={buttonClass.secondary} onClick={onCancel}>
-          Cancel
-        </button>
-      </div>
+      <FormActions pending={form.pending} label={part ? "Save the part" : "Add the part"} pendingLabel="Saving…" onCancel={onCancel} />
     </form>
   );
 }

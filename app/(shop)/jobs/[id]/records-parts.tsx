@@ -4,7 +4,7 @@ import { format, parseISO } from "date-fns";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { FormAlert, buttonClass, inputClass, useApiForm } from "@/components/form";
+import { buttonClass, FormActions, FormAlert, inputClass, useApiForm } from "@/components/form";
 import { IconCheck, IconClock, IconStop, IconWarn } from "@/components/icons";
 import type { JobScope } from "@/db/schema";
 import { tankFill } from "@/server/kit-calc/tank";
@@ -90,14 +90,7 @@ function ReworkForm({ part, onDone, onCancel }: { part: PartView; onDone: () => 
         <textarea name="reworkNote" rows={2} maxLength={500} className={`${inputClass} mt-1`} placeholder="e.g. rewelded the sump seam" />
       </label>
       {form.fields.reworkNote && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.reworkNote.join(" ")}</p>}
-      <div className="flex flex-wrap gap-2">
-        <button type="submit" className={buttonClass.primary} disabled={form.pending}>
-          {form.pending ? "Saving…" : "Mark reworked"}
-        </button>
-        <button type="button" className={buttonClass.secondary} onClick={onCancel}>
-          Cancel
-        </button>
-      </div>
+      <FormActions pending={form.pending} label="Mark reworked" pendingLabel="Saving…" onCancel={onCancel} />
     </form>
   );
 }
