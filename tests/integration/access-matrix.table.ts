@@ -82,6 +82,7 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/jobs/[id]"),
   anyStaff("PATCH /api/jobs/[id]"),
   anyStaff("POST /api/jobs/[id]/moves"),
+  anyStaff("POST /api/jobs/[id]/undo"),
   anyStaff("GET /api/jobs/[id]/kit-spec"),
   officeUp("PUT /api/jobs/[id]/kit-spec"),
   anyStaff("POST /api/kit-calc"),
