@@ -1,14 +1,13 @@
 import { mkdirSync } from "node:fs";
-import { dirname, resolve } from "node:path";
+import { dirname } from "node:path";
 import SQLite from "better-sqlite3";
 import { Kysely, type KyselyPlugin, SqliteDialect, type SqliteDatabase } from "kysely";
+import { databasePath } from "./paths";
 import type { Database } from "./schema";
 
 export type DB = Kysely<Database>;
 
-export function databasePath(): string {
-  return resolve(/*turbopackIgnore: true*/ process.env.DATABASE_PATH ?? "data/baywright.db");
-}
+export { databasePath } from "./paths";
 
 /**
  * Pragmas set on every connection, checked after setting (see DEVELOPERS.md, "Speed").
