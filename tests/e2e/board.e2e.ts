@@ -239,7 +239,7 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     const handle = (await page.locator(`li[data-card="${wo}"] [data-drag-handle]`).boundingBox())!;
     const start = { x: handle.x + handle.width / 2, y: handle.y + handle.height / 2 };
     const cdp = await context.newCDPSession(page);
-    const touch = (type: string, p?: { x: number; y: number }) => cdp.send("Input.dispatchTouchEvent", { type, touchPoints: p ? [{ x: p.x, y: p.y }] : [] });
+    const touch = (type: "touchStart" | "touchMove" | "touchEnd", p?: { x: number; y: number }) => cdp.send("Input.dispatchTouchEvent", { type, touchPoints: p ? [{ x: p.x, y: p.y }] : [] });
     const stageAt = (x: number, y: number) =>
       page.evaluate(([px, py]) => {
         for (const el of document.elementsFromPoint(px, py)) {

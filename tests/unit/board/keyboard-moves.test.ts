@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { nextKeyboardTarget } from "@/app/(shop)/board/board-dnd";
+import { type DropTarget, nextKeyboardTarget } from "@/app/(shop)/board/board-dnd";
 import { BOARD_STAGES, stagesFor } from "@/server/jobs/stages";
 
 const board = stagesFor("fabrication").filter((s) => s !== "delivered");
@@ -8,7 +8,7 @@ const count = (s: keyof typeof counts) => counts[s];
 
 describe("keyboard moves on the board", () => {
   it("Right from Fabricate reaches each later column once, in the board's order, and stops at the last", () => {
-    let at = { stage: "fabricate" as const as (typeof board)[number], index: 3 };
+    let at: DropTarget = { stage: "fabricate", index: 3 };
     const visited: string[] = [];
     for (let i = 0; i < 7; i++) {
       at = nextKeyboardTarget("ArrowRight", at, board, count)!;
@@ -20,7 +20,7 @@ describe("keyboard moves on the board", () => {
   });
 
   it("Left walks back one column at a time to Queued", () => {
-    let at = { stage: "ready" as (typeof board)[number], index: 0 };
+    let at: DropTarget = { stage: "ready", index: 0 };
     const visited: string[] = [];
     while (at.stage !== "queued") {
       at = nextKeyboardTarget("ArrowLeft", at, board, count)!;
