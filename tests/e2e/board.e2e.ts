@@ -1,3 +1,4 @@
+import { createRequire } from "node:module";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
@@ -44,6 +45,17 @@ async function mouseDrag(page: Page, workOrder: string, to: { x: number; y: numb
   await page.mouse.move(from.x + from.width / 2 + 12, from.y + from.height / 2 + 4, { steps: 3 });
   await page.mouse.move(to.x, to.y, { steps: 20 });
   await page.mouse.up();
+}
+
+/** axe's serious and critical findings on the page as it is now, each as "rule: target". */
+async function axeFindings(page: Page) {
+  await page.addScriptTag({ path: createRequire(import.meta.url).resolve("axe-core/axe.min.js") });
+  const found = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; impact: string; nodes: { target: string[] }[] }[] }> } }).axe;
+    const result = await axe.run(document, { resultTypes: ["violations"] });
+    return result.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`);
+  });
+  return found;
 }
 
 describe.skipIf(!enabled)("the board in Chromium", () => {
@@ -154,6 +166,7 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
       await expect.poll(() => news.textContent()).toContain(`over ${LABELS[stage]},`);
       expect(await page.locator(`ul[data-stage="${stage}"].border-dashed`).count(), `${stage} is marked as the target`).toBe(1);
       visited.push(stage);
+      if (stage === "install") await page.screenshot({ path: "screenshots/board-desk-keyboard-drag.png" });
     }
     expect(visited).toEqual(["pressure_test", "coating", "install", "wire", "ready"]);
     await page.keyboard.press("ArrowLeft");
@@ -265,7 +278,13 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     for (let i = 1; i <= 5; i++) await touch("touchMove", { x: 8 + ((middle.x - 8) * i) / 5, y: middle.y });
     await touch("touchEnd");
     await waitForCard(page, wo, "pressure_test");
+    await page.waitForTimeout(1000);
     await page.screenshot({ path: "screenshots/board-phone-touch-drop.png" });
+    const dropped = (await page.locator(`li[data-card="${wo}"]`).boundingBox())!;
+    expect(dropped.x, "the dropped card is in view").toBeGreaterThanOrEqual(0);
+    expect(dropped.x + dropped.width).toBeLessThanOrEqual(PHONE.viewport.width + 1);
+    expect(dropped.y).toBeGreaterThanOrEqual(0);
+    expect(dropped.y).toBeLessThan(PHONE.viewport.height);
     await page.locator("[data-move-toast]").getByRole("button", { name: /^Undo/ }).click();
     await waitForCard(page, wo, "install");
     await context.close();
@@ -279,5 +298,28 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     expect(await page.getByRole("note").textContent()).toMatch(/for the office and the owner/);
     expect(await page.getByRole("link", { name: "New job" }).count()).toBe(0);
     await context.close();
+  });
+
+  it("axe finds nothing serious on the board at desk and phone size, with a move's confirmation and a refusal showing", async () => {
+    for (const size of [DESK, PHONE]) {
+      const context = await browser.newContext(size);
+      const page = await signIn(context, "owner");
+      expect(await axeFindings(page)).toEqual([]);
+      const wo = await firstCardIn(page, "wire");
+      await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
+      await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
+      await page.locator(`li[data-card="${wo}"] [role="alert"]`).waitFor();
+      expect(await axeFindings(page)).toEqual([]);
+      await page.getByRole("button", { name: "Dismiss" }).first().click();
+      const queued = (await page.locator('ul[data-stage="queued"] > li[data-card]:has(option[value="fabricate"])').first().getAttribute("data-card"))!;
+      await page.locator(`li[data-card="${queued}"] select[data-move-to]`).selectOption("fabricate");
+      await page.getByRole("button", { name: `Move ${queued} to Fabricate` }).click();
+      const toast = page.locator("[data-move-toast]");
+      await toast.waitFor();
+      expect(await axeFindings(page)).toEqual([]);
+      await toast.getByRole("button", { name: /^Undo/ }).click();
+      await waitForCard(page, queued, "queued");
+      await context.close();
+    }
   });
 });
