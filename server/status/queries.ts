@@ -4,6 +4,7 @@ import type { DB } from "@/db";
 import type { JobScope, Stage } from "@/db/schema";
 import { notifySettings } from "@/server/email/settings";
 import { stageIndex } from "@/server/jobs/stages";
+import { jobRoute } from "./route";
 import { type LinkState, linkState } from "./rules";
 import { hashToken, looksLikeToken } from "./tokens";
 
@@ -56,7 +57,11 @@ export async function shopContact(db: DB) {
 export interface StatusView {
   shop: { name: string; phone: string; timeZone: string };
   truck: { unitNumber: string; year: number; description: string; vinTail: string };
+  /** The work order and the work description as the office wrote it: a unit with two open jobs reads as two jobs. */
+  job: { workOrder: string; description: string };
   stage: Stage;
+  /** The job's own route (server/status/route.ts), from its work and parts as they are now. */
+  route: Stage[];
   scope: JobScope;
   readyBy: string | null;
   /** How long the link keeps working after pickup (the shop's setting). */
@@ -73,6 +78,8 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
       "job.stage",
       "job.scope",
       "job.due_on as readyBy",
+      "job.work_order as workOrder",
+      "job.description as workDescription",
       "truck.unit_number as unitNumber",
       "truck.year",
       "truck.description",
@@ -81,7 +88,7 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
     .where("job.id", "=", jobId)
     .executeTakeFirst();
   if (!job) return null;
-  const [events, photos, shop, settings] = await Promise.all([
+  const [events, photos, shop, settings, parts] = await Promise.all([
     db.selectFrom("stage_event").select(["from_stage", "to_stage", "at"]).where("job_id", "=", jobId).orderBy("id").execute(),
     db
       .selectFrom("photo")
@@ -92,11 +99,14 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
       .execute(),
     shopContact(db),
     notifySettings(db),
+    db.selectFrom("part").select(["needs_leak_test", "needs_coating"]).where("job_id", "=", jobId).execute(),
   ]);
   return {
     shop,
     truck: { unitNumber: job.unitNumber, year: job.year, description: job.description, vinTail: job.vinTail },
+    job: { workOrder: job.workOrder, description: job.workDescription },
     stage: job.stage,
+    route: jobRoute(job.scope, parts.map((p) => ({ needsLeakTest: p.needs_leak_test === 1, needsCoating: p.needs_coating === 1 }))),
     scope: job.scope,
     readyBy: job.readyBy,
     linkDays: settings.statusLinkDays,
