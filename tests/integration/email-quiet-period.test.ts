@@ -1,7 +1,11 @@
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { createElement } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { MessagesSection } from "@/app/(shop)/jobs/[id]/messages-section";
 import * as jobMessages from "@/app/api/jobs/[id]/messages/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as jobLinks from "@/app/api/jobs/[id]/status-links/route";
@@ -13,6 +17,7 @@ import { type Fakes, startFakes } from "@/fakes/server.mjs";
 import { dispatchDueOutbox } from "@/server/email/dispatcher";
 import { BACK_WHERE_TOLD, REPLACED_BY_LATER_MOVE } from "@/server/email/outbox";
 import { type EmailSender, resendSender } from "@/server/email/sender";
+import { findJob } from "@/server/jobs/queries";
 import { openStatusLink } from "@/server/status/queries";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeCustomer, makeJob, makeStaff, makeTruck } from "../support/factories";
@@ -223,6 +228,36 @@ describe("Send now and Send again", () => {
     expect(refusedAgain.status).toBe(409);
     expect((await readBody(refusedAgain)).error.message).toMatch(/later move replaced/);
     expect(await outbox(job.id)).toHaveLength(2);
+  });
+});
+
+describe("the job page", () => {
+  async function jobPage(jobId: number, role: "office" | "tech") {
+    const { staff } = await as(role);
+    return renderToStaticMarkup(
+      createElement(QueryClientProvider, { client: new QueryClient() }, await MessagesSection({ job: (await findJob(db(), jobId))!, user: { id: staff.id, name: staff.name, email: staff.email, role } })),
+    );
+  }
+
+  it("says when the waiting e-mail goes out on the shop's clock, with Send now for the office, and offers no Send again on a replaced message", async () => {
+    const { job } = await customerJob();
+    const { cookie } = await as("tech");
+    await move(cookie, job.id, "fabricate");
+    await dispatchDueOutbox(db(), later(QUIET_S + 1), sender);
+    await move(cookie, job.id, "pressure_test");
+    await move(cookie, job.id, "queued");
+    const due = "2031-06-02T15:42:00.000Z";
+    await db().updateTable("outbox").set({ next_attempt_at: due }).where("job_id", "=", job.id).where("status", "=", "pending").execute();
+    // The test shop is on US/Central: 15:42 UTC is 10:42 there in June.
+    const html = await jobPage(job.id, "office");
+    expect(html).toContain("E-mail goes out at 10:42 unless the card moves again.");
+    expect(html.match(/>Send now</g)).toHaveLength(1);
+    // Sent (fabricate) offers Send again; replaced (pressure test) does not; waiting (back to queued) has Send now.
+    expect(html.match(/>Send again</g)).toHaveLength(1);
+    expect(html).toContain(REPLACED_BY_LATER_MOVE);
+    const techHtml = await jobPage(job.id, "tech");
+    expect(techHtml).toContain("E-mail goes out at 10:42");
+    expect(techHtml).not.toMatch(/>Send now<|>Send again</);
   });
 });
 

@@ -34,6 +34,8 @@ export function MessagesPanel(props: {
   initialLinks: Link[];
   initialShop: NotifySettings;
   timeZone: string;
+  /** EMAIL_QUIET_SECONDS, when the server sets the quiet period itself. */
+  quietOverrideSeconds?: number | null;
 }) {
   const office = props.role === "office" || props.role === "owner";
   return (
@@ -47,7 +49,7 @@ export function MessagesPanel(props: {
       />
       <EmailSettingsBox jobId={props.jobId} office={office} initial={props.initialSettings} />
       <MessageList jobId={props.jobId} office={office} emailConfigured={props.emailConfigured} initial={props.initialMessages} timeZone={props.timeZone} />
-      {office && <ShopNotifyBox initial={props.initialShop} />}
+      {office && <ShopNotifyBox initial={props.initialShop} quietOverrideSeconds={props.quietOverrideSeconds ?? null} />}
     </div>
   );
 }
@@ -353,7 +355,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
   );
 }
 
-function ShopNotifyBox({ initial }: { initial: NotifySettings }) {
+function ShopNotifyBox({ initial, quietOverrideSeconds }: { initial: NotifySettings; quietOverrideSeconds: number | null }) {
   const [stages, setStages] = useState<Stage[]>(initial.notifyStages);
   const [days, setDays] = useState(String(initial.statusLinkDays));
   const [quiet, setQuiet] = useState(String(initial.quietMinutes));
@@ -407,7 +409,11 @@ function ShopNotifyBox({ initial }: { initial: NotifySettings }) {
           </label>
           <input id={`${ids}-quiet`} type="number" inputMode="numeric" min={0} max={60} value={quiet} onChange={(e) => setQuiet(e.target.value)} aria-invalid={Boolean(quietError)} aria-describedby={`${ids}-quiet-msg`} className={`${inputClass} max-w-40`} />
           <p id={`${ids}-quiet-msg`} aria-live="polite" className={quietError ? "text-sm font-medium text-stop-700" : "text-sm text-ink-soft"}>
-            {quietError ? `⚠ ${quietError}` : "A card moved again in this time sends one e-mail about where it ended up; moved straight back, none."}
+            {quietError
+              ? `⚠ ${quietError}`
+              : quietOverrideSeconds !== null
+                ? `This server waits ${quietOverrideSeconds} s instead (EMAIL_QUIET_SECONDS is set), whatever is saved here.`
+                : "A card moved again in this time sends one e-mail about where it ended up; moved straight back, none."}
           </p>
         </div>
         <div className="flex items-center gap-3">
