@@ -116,7 +116,7 @@ describe.skipIf(!enabled)("customer e-mail and the status page follow the job's 
       expect(heading).toContain(`Unit ${pick.unit}`);
       expect(heading).toContain(job.workOrder);
       expect(heading).toContain(description);
-      const steps = (await status.locator("#timeline-title + ol > li").allTextContents()).map((t) => t.split(" · ")[0].trim());
+      const steps = (await status.locator("#timeline-title + ol > li > div > p:first-child").allTextContents()).map((t) => t.split(" · ")[0].trim());
       expect(steps).toEqual(["Booked in", "Fabrication", "Pressure test", "Install", "Wiring and run test", "Ready for pickup", "Picked up"]);
       expect(await status.locator("main").textContent()).not.toMatch(/powder coat|coater/i);
       expect(await status.getByTestId("what-next").textContent()).toBe("Next, we install the kit on your truck.");

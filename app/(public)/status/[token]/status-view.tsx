@@ -52,9 +52,8 @@ export function StatusView({ view, token, repliesRead }: { view: View; token: st
       <header className="mb-4">
         <p className="text-sm font-semibold text-bay-700">{view.shop.name}</p>
         <h1 className="mt-1 text-2xl font-bold leading-tight [overflow-wrap:anywhere]" data-testid="job-heading">
-          <span className="block">
-            Unit {view.truck.unitNumber} <span className="whitespace-nowrap text-lg font-semibold text-ink-soft">· Work order {view.job.workOrder}</span>
-          </span>
+          <span className="block">Unit {view.truck.unitNumber}</span>
+          <span className="block text-lg font-semibold text-ink-soft">Work order {view.job.workOrder}</span>
           {view.job.description && <span className="mt-1 block text-xl font-semibold">{view.job.description}</span>}
         </h1>
         <p className="mt-1 text-ink-soft">
