@@ -1,6 +1,6 @@
 import { BackupError, DEFAULT_KEEP, backupShop } from "@/db/backup";
 
-const usage = "Usage: npm run db:backup [folder] [-- --keep N]   (folder defaults to BACKUP_DIR or ./backups; N to BACKUP_KEEP or 14)";
+const usage = "Usage: npm run db:backup -- [folder] [--keep N]   (folder defaults to BACKUP_DIR or ./backups; N to BACKUP_KEEP or 14)";
 
 function parse(argv: string[]) {
   let into: string | undefined;
