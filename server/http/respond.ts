@@ -2,7 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { quoteBareNonFiniteNumbers } from "./bare-numbers";
-import { ApiError, validationError } from "./errors";
+import { ApiError, uniqueConflict, validationError } from "./errors";
 import { CROSS_SITE_MESSAGE, NO_ORIGIN_MESSAGE, writeOrigin } from "./origin";
 
 /** JSON answers hold the shop's data for one signed-in person: no browser or proxy may keep a copy. */
@@ -28,6 +28,8 @@ export async function respond(work: () => Promise<Response>): Promise<Response> 
   } catch (err) {
     if (err instanceof ApiError) return errorResponse(err);
     if (err instanceof z.ZodError) return errorResponse(validationError(err));
+    const conflict = uniqueConflict(err);
+    if (conflict) return errorResponse(conflict);
     console.error(err);
     return NextResponse.json(
       { error: { code: "internal", message: "Something went wrong on the server. Try again; if it keeps happening, tell the shop owner." } },
