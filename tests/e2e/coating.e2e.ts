@@ -17,7 +17,7 @@ async function version(api: APIRequestContext, jobId: number) {
 
 /** A move into Install is refused by the gate, with the reason given, and the job stays where it is. */
 async function expectRefused(api: APIRequestContext, jobId: number, reason: RegExp) {
-  const res = await api.post(`${baseUrl()}/api/jobs/${jobId}/moves`, { data: { toStage: "install", version: await version(api, jobId) } });
+  const res = await api.post(`${baseUrl()}/api/jobs/${jobId}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: await version(api, jobId) } });
   expect(res.status()).toBe(422);
   expect((await res.json()).error.details.unmet).toEqual([expect.stringMatching(reason)]);
 }

@@ -1,7 +1,8 @@
+import Database from "better-sqlite3";
 import type { Browser, Page } from "playwright-core";
 import sharp from "sharp";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DESK, PHONE, baseUrl, launch, signIn } from "./browser";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { DEMO, DESK, PHONE, baseUrl, launch, signIn } from "./browser";
 
 const enabled = Boolean(baseUrl());
 
@@ -109,6 +110,24 @@ describe.skipIf(!enabled)("the app under its Content-Security-Policy", () => {
       expect(res.headers.get("strict-transport-security")).toBeNull();
     }
     expect((await fetch(`${baseUrl()}/api/me`)).headers.get("cache-control")).toBe("no-store");
+  });
+
+  it("a due date that is not a real day, written straight into the database, breaks neither the jobs list nor the job page", async () => {
+    const sqlite = new Database(inject("databasePath"));
+    const job = sqlite.prepare("select id, due_on from job order by id limit 1").get() as { id: number; due_on: string | null };
+    sqlite.prepare("update job set due_on = '2026-02-31' where id = ?").run(job.id);
+    try {
+      const signedIn = await fetch(`${baseUrl()}/api/session`, { method: "POST", headers: { "content-type": "application/json", origin: baseUrl() }, body: JSON.stringify({ email: DEMO.office, password: DEMO.password }) });
+      const cookie = (signedIn.headers.get("set-cookie") ?? "").split(";")[0];
+      for (const path of ["/jobs?sort=due", `/jobs/${job.id}`, "/board"]) {
+        const res = await fetch(`${baseUrl()}${path}`, { headers: { cookie } });
+        expect(res.status, path).toBe(200);
+        if (path !== "/board") expect(await res.text(), path).toContain("2026-02-31 (not a real date: correct it)");
+      }
+    } finally {
+      sqlite.prepare("update job set due_on = ? where id = ?").run(job.due_on, job.id);
+      sqlite.close();
+    }
   });
 
   it("a path with a broken %-escape answers 400, not 500", async () => {
