@@ -37,6 +37,8 @@ export interface Board {
   cards: BoardCard[];
   techs: { id: string; name: string }[];
   customers: { id: number; name: string }[];
+  /** For an empty, unfiltered board: what the shop has on file, so the board can show the first steps. */
+  firstSteps: { customers: number; trucks: number } | null;
 }
 
 /** Every job on the board (all stages but delivered), ordered by column position, filtered as asked. */
@@ -98,5 +100,10 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       coating: coating.get(r.id) ?? null,
     };
   });
-  return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers };
+  const unfiltered = !filter.q && !filter.tech && !filter.customer && !filter.due;
+  const firstSteps =
+    cards.length === 0 && unfiltered
+      ? { customers: customers.length, trucks: Number((await db.selectFrom("truck").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n) }
+      : null;
+  return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers, firstSteps };
 }

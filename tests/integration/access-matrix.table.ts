@@ -118,6 +118,7 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/uploadthing"),
   anyStaff("POST /api/uploadthing"),
   anyStaff("GET /api/jobs/[id]/photos"),
+  anyStaff("GET /api/jobs/[id]/photos/line"),
   anyStaff("GET /api/photos/[id]"),
   anyStaff("PATCH /api/photos/[id]"),
   officeUp("DELETE /api/photos/[id]"),
