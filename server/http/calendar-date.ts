@@ -16,10 +16,11 @@ export function isCalendarDate(raw: unknown): raw is string {
 
 /** The one schema for a calendar date in every form and route. */
 export function calendarDate(what: string) {
-  return z
-    .string({ error: `Enter ${what} as a date like 2026-12-24.` })
-    .regex(/^\d{4}-\d{2}-\d{2}$/, { error: `Enter ${what} as a date like 2026-12-24.` })
-    .refine(isCalendarDate, { error: `${what[0].toUpperCase()}${what.slice(1)} is not a day on the calendar (check the month and day).` });
+  const shape = `Enter ${what} as a date like 2026-12-24.`;
+  const notADay = `${what[0].toUpperCase()}${what.slice(1)} is not a day on the calendar (check the month and day).`;
+  return z.string({ error: shape }).refine(isCalendarDate, {
+    error: (issue) => (/^\d{4}-\d{2}-\d{2}$/.test(String(issue.input)) ? notADay : shape),
+  });
 }
 
 /**
