@@ -107,6 +107,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
   const firstSteps =
     cards.length === 0 && unfiltered
       ? {
+          // Every customer on file (the filter's list holds only those with a job on the board).
           customers: Number((await db.selectFrom("customer").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n),
           trucks: Number((await db.selectFrom("truck").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n),
         }
