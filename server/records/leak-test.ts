@@ -83,7 +83,7 @@ export function dropAgainstAllowance(correctedDropPsi: number, allowedDropPsi: n
   return `within the allowed ${allowed}`;
 }
 
-export const PRESSURE_ROSE_MESSAGE = "Pressure rose after correcting for temperature: check the thermometer and the gauge, then test again.";
+export const PRESSURE_ROSE_MESSAGE = "Pressure rose after correcting for temperature: check the thermometer and the gauge before trusting this reading.";
 
 export type PressureReadings = Pick<
   LeakTestInput,
