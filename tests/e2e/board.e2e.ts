@@ -234,7 +234,8 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
   it("a refused move stays put, says what it needs, and takes the focus", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "tech");
-    const wo = await firstCardIn(page, "wire");
+    // A Wire & verify card that still needs something (its sign-off) before Ready for pickup.
+    const wo = (await page.locator('ul[data-stage="wire"] > li[data-card]', { hasText: "Needs before it can move to Ready for pickup" }).first().getAttribute("data-card"))!;
     await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
     await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
     const alert = page.locator(`li[data-card="${wo}"] [role="alert"]`);
@@ -340,7 +341,7 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
       const context = await browser.newContext(size);
       const page = await signIn(context, "owner");
       expect(await axeFindings(page)).toEqual([]);
-      const wo = await firstCardIn(page, "wire");
+      const wo = (await page.locator('ul[data-stage="wire"] > li[data-card]', { hasText: "Needs before it can move to Ready for pickup" }).first().getAttribute("data-card"))!;
       await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
       await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
       await page.locator(`li[data-card="${wo}"] [role="alert"]`).waitFor();
