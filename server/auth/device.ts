@@ -36,14 +36,15 @@ function verifiedEntry(entry: string, now: number): string | null {
   return staffId;
 }
 
-/** The accounts this device has signed in to (verified signatures only). */
-export function knownAccounts(cookieValue: string | null, now = Date.now()): Set<string> {
-  const out = new Set<string>();
+/**
+ * This device's key for the account, when it has signed in to it before (verified signature), or
+ * null. The key is the entry's signature: each device has its own allowance of tries.
+ */
+export function deviceKeyFor(cookieValue: string | null, staffId: string, now = Date.now()): string | null {
   for (const entry of (cookieValue ?? "").split("~")) {
-    const id = entry && verifiedEntry(entry, now);
-    if (id) out.add(id);
+    if (entry && verifiedEntry(entry, now) === staffId) return entry.split(".")[2];
   }
-  return out;
+  return null;
 }
 
 export function deviceCookieHeader(value: string): string {

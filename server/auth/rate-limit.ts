@@ -8,8 +8,9 @@ import { ApiError } from "@/server/http/errors";
  * - Per account: 5 tries in 15 minutes from devices that never signed in to it, then a 15-minute
  *   pause. A try is counted BEFORE the password is checked (consume, then refund on success), so
  *   thirty tries at once get five password checks, not thirty.
- * - Per account and signed-in device: a device that signed in to the account before has its own 10
- *   tries, so strangers' failures never keep the right person out.
+ * - Per account and device: a device that signed in to the account before (or is signed in now,
+ *   changing its password) has its own 10 tries, so strangers' failures never keep the right
+ *   person out.
  * - Per address: 20 tries in 15 minutes, only when the app is told it sits behind a proxy
  *   (TRUST_PROXY_HOPS); otherwise the address is whatever the client wrote and is not used.
  */
@@ -50,10 +51,12 @@ async function take(limiter: RateLimiterMemory, key: string): Promise<RateLimite
 
 /**
  * Counts one try before the password is checked, and waits a little longer after each failure.
- * Throws 429 when the allowance is used up. `knownDevice`: this device signed in to the account before.
+ * Throws 429 when the allowance is used up. `deviceKey`: set when this device signed in to the
+ * account before (or is signed in now); it then has its own allowance.
  */
-export async function beginSignIn(account: string, address: string | null, knownDevice: boolean): Promise<SignInTry> {
-  const accountKey = account.trim().toLowerCase();
+export async function beginSignIn(account: string, address: string | null, deviceKey: string | null): Promise<SignInTry> {
+  const knownDevice = deviceKey !== null;
+  const accountKey = knownDevice ? `${account.trim().toLowerCase()}:${deviceKey}` : account.trim().toLowerCase();
   const limiter = knownDevice ? perDevice : perAccount;
   const taken: [RateLimiterMemory, string][] = [];
   const refund = async () => {

@@ -11,7 +11,7 @@ export async function POST(req: Request) {
   return respond(async () => {
     const input = await readJson(req, signInSchema);
     const device = readCookie(req.headers.get("cookie"), DEVICE_COOKIE);
-    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req), device);
+    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req), device, req.headers.get("user-agent") ?? "");
     const cookie = lucia.createSessionCookie(session.id);
     const headers = new Headers();
     headers.append("Set-Cookie", cookie.serialize());
