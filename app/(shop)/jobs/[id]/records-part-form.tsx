@@ -111,7 +111,18 @@ export function PartForm({
         </Field>
       </div>
       {(kind === "reservoir" || kind === "box") && (
-        <Field label="Shape" name="shape" errors={form.fields.shape} hint="Sets the usual test pressure and whether pressure decay is valid.">
+        <Field
+          label="Shape"
+          name="shape"
+          errors={form.fields.shape}
+          hint={
+            shape === "box"
+              ? "Flat walls flex: a box tank is checked with soap on every seam, at the box tank's test pressure."
+              : shape === "round"
+                ? "A round tank is tested at the round tank's pressure, with soap, pressure decay or both."
+                : "No set test pressure for this shape: the tester uses the lowest pressure that finds a leak."
+          }
+        >
           {(p) => (
             <select {...p} value={shape} onChange={(e) => setShape(e.target.value as PartShape)} className={inputClass}>
               {PART_SHAPES.map((s) => (
@@ -141,7 +152,7 @@ export function PartForm({
       )}
       <div className="space-y-2">
         {installOnly && (
-          <p className="text-sm text-ink-soft">This job is install only: its parts get no leak test and no outside coating. Change the job&apos;s scope first if the shop builds parts for it.</p>
+          <p className="text-sm text-ink-soft">This job is install only: its parts get no leak test and no outside coating. Change the job&apos;s Work to fabricated parts first if the shop builds parts for it.</p>
         )}
         <label className="flex min-h-11 items-center gap-3">
           <input
