@@ -16,7 +16,7 @@ export default async function ShopLayout({ children }: { children: React.ReactNo
     { href: "/customers", label: "Customers" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
-    ...(user.role === "owner" ? [{ href: "/staff", label: "Staff" }] : []),
+    ...(user.role === "owner" ? [{ href: "/staff", label: "Staff" }, { href: "/audit", label: "Audit" }] : []),
   ];
   return (
     <Providers>

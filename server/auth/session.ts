@@ -5,12 +5,15 @@ import { cache } from "react";
 import type { Role } from "@/db/schema";
 import { ApiError } from "@/server/http/errors";
 import { SESSION_COOKIE, lucia } from "./lucia";
+import { clientAddress } from "./rate-limit";
 
 export interface StaffUser {
   id: string;
   name: string;
   email: string;
   role: Role;
+  /** Where the request came from (route handlers only), for the audit trail. */
+  address?: string;
 }
 
 function readCookie(header: string | null, name: string): string | null {
@@ -42,7 +45,7 @@ export async function requireStaff(req: Request, roles?: readonly Role[]): Promi
   const found = await sessionFromRequest(req);
   if (!found) throw new ApiError("unauthenticated", "Sign in first.");
   assertRole(found.user, roles);
-  return found.user;
+  return { ...found.user, address: clientAddress(req) };
 }
 
 export function assertRole(user: StaffUser, roles?: readonly Role[]) {

@@ -66,6 +66,7 @@ export const ACCESS_MATRIX: Row[] = [
   staffPage("PAGE /jobs/[id]"),
   officePage("PAGE /jobs/new"),
   ownerPage("PAGE /staff"),
+  ownerPage("PAGE /audit"),
   staffPage("PAGE /trucks"),
   staffPage("PAGE /trucks/[id]"),
   officePage("PAGE /trucks/new"),
@@ -136,6 +137,7 @@ export const ACCESS_MATRIX: Row[] = [
 
   // Staff and shop settings: the owner.
   ownerOnly("GET /api/staff"),
+  ownerOnly("GET /api/audit"),
   ownerOnly("POST /api/staff"),
   ownerOnly("PATCH /api/staff/[id]"),
   anyStaff("GET /api/shop-settings"),

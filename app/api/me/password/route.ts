@@ -17,7 +17,7 @@ export async function PUT(req: Request) {
     if (!(await verifyPassword(row.password_hash, input.currentPassword))) {
       throw new ApiError("validation", "The current password is not right.", { fields: { currentPassword: ["The current password is not right."] } });
     }
-    await updateStaff(db, user.id, user.id, { password: input.newPassword });
+    await updateStaff(db, user, user.id, { password: input.newPassword });
     const session = await lucia.createSession(user.id, {});
     return json({ ok: true }, { headers: { "Set-Cookie": lucia.createSessionCookie(session.id).serialize() } });
   });
