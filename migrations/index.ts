@@ -5,6 +5,7 @@ import * as m0003 from "./0003_records";
 import * as m0004 from "./0004_kit_spec";
 import * as m0005 from "./0005_photos_and_messages";
 import * as m0009 from "./0009_audit_trail";
+import * as m0010 from "./0010_indexes";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
@@ -14,6 +15,7 @@ export const migrations: Record<string, Migration> = {
   "0004_kit_spec": m0004,
   "0005_photos_and_messages": m0005,
   "0009_audit_trail": m0009,
+  "0010_indexes": m0010,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

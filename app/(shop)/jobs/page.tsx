@@ -11,7 +11,7 @@ import { STAGE_LABELS } from "@/server/jobs/stages";
 export const metadata = { title: "Jobs" };
 
 const SORTS = { newest: "Newest first", due: "Due (soonest first)", customer: "Customer (A–Z)", stage: "Stage (first to last)" } as const;
-const LIMIT = 500;
+const PAGE = 50;
 
 export default async function JobsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requirePageStaff();
@@ -19,7 +19,11 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
   const stage = STAGES.includes(sp.stage as Stage) ? (sp.stage as Stage) : undefined;
   const sort = sp.sort && sp.sort in SORTS ? (sp.sort as keyof typeof SORTS) : "newest";
   const q = (sp.q ?? "").slice(0, 60);
-  const rows = await listJobs(getDb(), { stage, q: q || undefined, sort, limit: LIMIT });
+  const page = /^[1-9]\d{0,4}$/.test(sp.page ?? "") ? Number(sp.page) : 1;
+  // One row more than a page tells whether there is a next page, without counting every job.
+  const found = await listJobs(getDb(), { stage, q: q || undefined, sort, limit: PAGE + 1, offset: (page - 1) * PAGE });
+  const rows = found.slice(0, PAGE);
+  const hasNext = found.length > PAGE;
   const href = (over: Record<string, string | undefined>) => {
     const params = new URLSearchParams(Object.entries({ stage, sort, q: q || undefined, ...over }).filter(([, v]) => v) as [string, string][]);
     return `/jobs?${params}`;
@@ -52,7 +56,6 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
         <input type="hidden" name="sort" value={sort} />
         <button className={buttonClass.secondary}>Show</button>
       </form>
-      {rows.length === LIMIT && <p role="status" className="text-sm text-warn-700">Showing the first {LIMIT} in this order. Search or choose a stage to narrow the list.</p>}
       <div className="overflow-x-auto rounded-lg border border-line bg-panel">
         <table className="w-full min-w-[720px] text-left text-sm">
           <thead className="bg-bay-50 text-bay-900">
@@ -93,6 +96,17 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
           </tbody>
         </table>
       </div>
+      {(page > 1 || hasNext) && (
+        <nav aria-label="Pages of jobs" className="flex flex-wrap items-center justify-between gap-2">
+          {page > 1 ? (
+            <Link href={href({ page: page > 2 ? String(page - 1) : undefined })} className={buttonClass.secondary}>← Previous {PAGE}</Link>
+          ) : <span />}
+          <span className="text-sm text-ink-soft">Jobs {(page - 1) * PAGE + 1}–{(page - 1) * PAGE + rows.length}</span>
+          {hasNext ? (
+            <Link href={href({ page: String(page + 1) })} className={buttonClass.secondary}>Next {PAGE} →</Link>
+          ) : <span />}
+        </nav>
+      )}
     </section>
   );
 }
