@@ -97,10 +97,14 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
                   {formatShopTime(l.at, timeZone, "d MMM yyyy, HH:mm:ss")}
                 </time>
                 <span className="font-semibold">{AUDIT_KIND_LABELS[l.kind]}</span>
-                <span>
-                  <span className="text-ink-soft lg:hidden">By </span>
-                  {l.actorName || "—"}
-                </span>
+                {l.actorName ? (
+                  <span>
+                    <span className="text-ink-soft lg:hidden">By </span>
+                    {l.actorName}
+                  </span>
+                ) : (
+                  <span className="hidden text-ink-soft lg:inline">—</span>
+                )}
                 <span className="break-all text-ink-soft">
                   <span className="lg:hidden">From </span>
                   {l.address || "—"}
