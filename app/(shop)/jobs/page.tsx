@@ -1,4 +1,4 @@
-import { format, parseISO } from "date-fns";
+import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { buttonClass, inputClass } from "@/components/styles";
 import { StageBadge } from "@/components/stage-badge";
@@ -82,7 +82,7 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
                 </td>
                 <td className="p-2">{j.customerName}</td>
                 <td className="p-2"><StageBadge stage={j.stage} /></td>
-                <td className="p-2">{j.dueOn ? format(parseISO(j.dueOn), "d MMM yyyy") : "—"}</td>
+                <td className="p-2">{j.dueOn ? showStoredDate(j.dueOn, "d MMM yyyy") : "—"}</td>
                 <td className="p-2">Unit {j.unitNumber}</td>
                 <td className="max-w-72 truncate p-2" title={j.description}>{j.description}</td>
                 <td className="p-2">{j.techName ?? "—"}</td>
