@@ -70,13 +70,33 @@ describe("a crash in a burst of moves", () => {
     try {
       expect(sqlite.pragma("integrity_check", { simple: true })).toBe("ok");
       const eventOf = sqlite.prepare("select id, job_id, from_stage, to_stage, at from stage_event where id = ?");
-      const outboxAt = sqlite.prepare("select payload from outbox where job_id = ? and created_at = ?");
       for (const move of [...first.answered, ...second.answered]) {
-        const event = eventOf.get(move.eventId) as { job_id: number; from_stage: string; to_stage: string; at: string } | undefined;
-        expect(event, `event ${move.eventId}`).toMatchObject({ job_id: move.jobId, from_stage: move.from, to_stage: move.to });
-        const outbox = outboxAt.all(move.jobId, event!.at) as { payload: string }[];
-        if (move.from !== move.to) expect(outbox.map((o) => JSON.parse(o.payload)), `outbox of event ${move.eventId}`).toEqual([{ from: move.from, to: move.to }]);
-        else expect(outbox).toEqual([]);
+        expect(eventOf.get(move.eventId), `event ${move.eventId}`).toMatchObject({ job_id: move.jobId, from_stage: move.from, to_stage: move.to });
+      }
+      // The customer's messages follow the committed moves exactly, move by move: a stage change
+      // queues one (replacing the one still waiting, told from where that one started), a move
+      // back to where the waiting one started queues none, a reorder none. Nothing is sent here,
+      // so every message is still waiting or replaced.
+      const eventsOf = sqlite.prepare("select id, from_stage, to_stage, at from stage_event where job_id = ? and from_stage is not null order by id");
+      const messagesOf = sqlite.prepare("select payload, created_at, status from outbox where job_id = ? and kind = 'stage_changed' order by created_at, rowid");
+      for (const jobId of jobs) {
+        const events = eventsOf.all(jobId) as { id: number; from_stage: string; to_stage: string; at: string }[];
+        const messages = messagesOf.all(jobId) as { payload: string; created_at: string; status: string }[];
+        let waitingFrom: string | null = null;
+        let next = 0;
+        for (const event of events) {
+          if (event.from_stage === event.to_stage) continue;
+          const before: string = waitingFrom ?? event.from_stage;
+          if (before === event.to_stage) {
+            waitingFrom = null;
+            continue;
+          }
+          const message = messages[next++];
+          expect(message && { ...JSON.parse(message.payload), at: message.created_at }, `message for event ${event.id}`).toEqual({ from: before, to: event.to_stage, at: event.at });
+          waitingFrom = before;
+        }
+        expect(next, `messages of job ${jobId}`).toBe(messages.length);
+        expect(messages.filter((m) => m.status === "pending").length).toBe(waitingFrom === null ? 0 : 1);
       }
 
       // Each card stands where its last event put it, at least as new as its last answered move.
