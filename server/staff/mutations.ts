@@ -39,7 +39,6 @@ export async function updateStaff(db: DB, actor: AuditActor, id: string, patch: 
   if (id === actorId && (patch.active === false || (patch.role && patch.role !== "owner"))) {
     throw new ApiError("conflict", "You cannot demote or deactivate yourself; ask another owner.");
   }
-  const password_hash = patch.password ? await hashPassword(patch.password) : undefined;
   await db.transaction().execute(async (trx) => {
     if ((patch.active === false || (patch.role && patch.role !== "owner")) && existing.role === "owner") {
       const owners = await trx.selectFrom("staff").select("id").where("role", "=", "owner").where("active", "=", 1).where("id", "!=", id).execute();
@@ -51,12 +50,11 @@ export async function updateStaff(db: DB, actor: AuditActor, id: string, patch: 
         ...(patch.name !== undefined ? { name: patch.name } : {}),
         ...(patch.role !== undefined ? { role: patch.role } : {}),
         ...(patch.active !== undefined ? { active: patch.active ? 1 : 0 } : {}),
-        ...(password_hash ? { password_hash } : {}),
       })
       .where("id", "=", id)
       .execute();
-    // A deactivated member or a reset password ends every session of theirs at once.
-    if (patch.active === false || password_hash || patch.role !== undefined) {
+    // A deactivated member or a new role ends every session of theirs at once.
+    if (patch.active === false || patch.role !== undefined) {
       await trx.deleteFrom("session").where("staff_id", "=", id).execute();
     }
     await auditStaffChange(trx, actor, existing, patch);
@@ -84,7 +82,7 @@ export async function createFirstOwner(db: DB, input: z.infer<typeof firstRunSch
   return id;
 }
 
-/** One line for what changed (name, role, active), one for a password reset: they matter differently. */
+/** One line for what changed: name, role, active. */
 async function auditStaffChange(trx: DB, actor: AuditActor, before: { id: string; name: string; role: keyof typeof ROLE_WORDS; active: number }, patch: z.infer<typeof staffPatchSchema>) {
   const changes: string[] = [];
   const details: Record<string, unknown> = { staffId: before.id };
@@ -101,9 +99,4 @@ async function auditStaffChange(trx: DB, actor: AuditActor, before: { id: string
     details.active = [before.active === 1, patch.active];
   }
   if (changes.length) await recordAudit(trx, { kind: "staff_changed", actor, subject: before.name, summary: `${actor.name} changed ${before.name}: ${changes.join(", ")}.`, details });
-  if (patch.password && actor.id === before.id) {
-    await recordAudit(trx, { kind: "password_changed", actor, subject: before.name, summary: `${actor.name} changed their own password; their other signed-in devices were signed out.`, details: { staffId: before.id } });
-  } else if (patch.password) {
-    await recordAudit(trx, { kind: "password_reset", actor, subject: before.name, summary: `${actor.name} reset ${before.name}'s password; their signed-in devices were signed out.`, details: { staffId: before.id } });
-  }
 }

@@ -9,6 +9,7 @@ import * as partItem from "@/app/api/parts/[id]/route";
 import * as photoItem from "@/app/api/photos/[id]/route";
 import * as session from "@/app/api/session/route";
 import * as shopSettings from "@/app/api/shop-settings/route";
+import * as passwordReset from "@/app/api/staff/[id]/password-reset/route";
 import * as staffItem from "@/app/api/staff/[id]/route";
 import * as staff from "@/app/api/staff/route";
 import * as linkItem from "@/app/api/status-links/[id]/route";
@@ -86,18 +87,21 @@ describe("the audit trail records", () => {
     expect(added.status).toBe(201);
     const rosa = (await readBody(added)).staff as { id: string };
     await staffItem.PATCH(request(`/api/staff/${rosa.id}`, { cookie, method: "PATCH", body: { role: "office" } }), params({ id: rosa.id }));
-    await staffItem.PATCH(request(`/api/staff/${rosa.id}`, { cookie, method: "PATCH", body: { active: false, password: "another-long-password" } }), params({ id: rosa.id }));
+    const reset = await passwordReset.POST(request(`/api/staff/${rosa.id}/password-reset`, { cookie, method: "POST", headers: { origin: "http://localhost:3000" } }), params({ id: rosa.id }));
+    expect(reset.status).toBe(200);
+    await staffItem.PATCH(request(`/api/staff/${rosa.id}`, { cookie, method: "PATCH", body: { active: false } }), params({ id: rosa.id }));
     const ownCookie = await sessionCookieFor(owner.id);
-    const own = await password.PUT(request("/api/me/password", { cookie: ownCookie, method: "PUT", body: { currentPassword: TEST_PASSWORD, newPassword: "owner-new-password-1" } }));
+    await sessionCookieFor(owner.id); // a second signed-in device, signed out by the change
+    const own = await password.POST(request("/api/me/password", { cookie: ownCookie, body: { currentPassword: TEST_PASSWORD, newPassword: "owner-new-password-1", confirmPassword: "owner-new-password-1" } }));
     expect(own.status).toBe(200);
 
     const all = await lines();
     expect(all.map((l) => [l.kind, l.actor_id, l.subject, l.summary])).toEqual([
       ["staff_added", owner.id, "Rosa Quill", `${owner.name} added Rosa Quill (rosa@shop.example) as tech.`],
       ["staff_changed", owner.id, "Rosa Quill", `${owner.name} changed Rosa Quill: role tech → office.`],
+      ["password_reset", owner.id, "Rosa Quill", `${owner.name} reset Rosa Quill's password to a temporary one; their signed-in devices were signed out.`],
       ["staff_changed", owner.id, "Rosa Quill", `${owner.name} changed Rosa Quill: deactivated.`],
-      ["password_reset", owner.id, "Rosa Quill", `${owner.name} reset Rosa Quill's password; their signed-in devices were signed out.`],
-      ["password_changed", owner.id, owner.name, `${owner.name} changed their own password; their other signed-in devices were signed out.`],
+      ["password_changed", owner.id, owner.name, `${owner.name} changed their own password; 2 other signed-in devices were signed out.`],
     ]);
     expect(all[0].address).toBe(clientAddress(from("198.51.100.4", "/")));
     expect(JSON.parse(all[1].details!)).toEqual({ staffId: rosa.id, role: ["tech", "office"] });

@@ -12,7 +12,7 @@ export async function POST(req: Request) {
     const input = await readJson(req, signInSchema);
     const address = clientAddress(req);
     const db = getDb();
-    const { session, user } = await signIn(db, input.email, input.password, address).catch(async (err: unknown) => {
+    const { session, user } = await signIn(db, input.email, input.password, address, req.headers.get("user-agent") ?? "").catch(async (err: unknown) => {
       await auditSignInRefused(db, err, input.email, address);
       throw err;
     });
