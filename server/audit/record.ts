@@ -5,15 +5,15 @@ import type { AuditKind } from "@/db/tables/audit";
 export interface AuditActor {
   id: string;
   name: string;
-  /** Where the request came from, as `requireStaff` read it. */
-  address?: string;
+  /** Where the request came from, as `requireStaff` read it (null when the app cannot know). */
+  address?: string | null;
 }
 
 export interface AuditEntry {
   kind: AuditKind;
   actor: AuditActor | null;
   /** For entries without a signed-in actor (a failed sign-in), or to override the actor's. */
-  address?: string;
+  address?: string | null;
   /** Who or what it concerns: a staff member, a work order, the e-mail typed at sign-in. */
   subject?: string;
   /** What happened, in a sentence the owner reads. */

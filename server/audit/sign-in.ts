@@ -17,12 +17,12 @@ function firstRefusalInWindow(key: string, now: number): boolean {
   return true;
 }
 
-export async function auditSignedIn(db: DB, user: { id: string; name: string }, address: string) {
+export async function auditSignedIn(db: DB, user: { id: string; name: string }, address: string | null) {
   await recordAudit(db, { kind: "sign_in", actor: user, address, subject: user.name, summary: `${user.name} signed in.` });
 }
 
 /** Notes a refused sign-in (wrong password, unknown e-mail, deactivated account, too many tries). */
-export async function auditSignInRefused(db: DB, err: unknown, email: string, address: string) {
+export async function auditSignInRefused(db: DB, err: unknown, email: string, address: string | null) {
   if (!(err instanceof ApiError) || (err.code !== "invalid_credentials" && err.code !== "rate_limited")) return;
   const typed = email.trim().toLowerCase().slice(0, 200);
   if (err.code === "rate_limited" && !firstRefusalInWindow(`${typed}\n${address}`, Date.now())) return;

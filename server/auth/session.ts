@@ -12,8 +12,8 @@ export interface StaffUser {
   name: string;
   email: string;
   role: Role;
-  /** Where the request came from (route handlers only), for the audit trail. */
-  address?: string;
+  /** Where the request came from (route handlers behind a trusted proxy only), for the audit trail. */
+  address?: string | null;
   /** Set by the owner's reset: until they choose their own password they may only do that. */
   mustChangePassword?: boolean;
 }

@@ -62,7 +62,7 @@ export async function updateStaff(db: DB, actor: AuditActor, id: string, patch: 
   return (await findStaff(db, id))!;
 }
 
-export async function createFirstOwner(db: DB, input: z.infer<typeof firstRunSchema>, address = "") {
+export async function createFirstOwner(db: DB, input: z.infer<typeof firstRunSchema>, address: string | null = null) {
   const password_hash = await hashPassword(input.password);
   const id = randomUUID();
   await db.transaction().execute(async (trx) => {
