@@ -68,6 +68,7 @@ export const ACCESS_MATRIX: Row[] = [
   ownerPage("PAGE /staff"),
   ownerPage("PAGE /audit"),
   staffPage("PAGE /account"),
+  ownerPage("PAGE /settings"),
   staffPage("PAGE /trucks"),
   staffPage("PAGE /trucks/[id]"),
   officePage("PAGE /trucks/new"),
