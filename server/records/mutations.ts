@@ -443,14 +443,14 @@ export async function updateLeakAllowance(db: DB, actor: AuditActor, allowedDrop
 }
 
 const PROCEDURE_WORDS: Record<keyof LeakTestProcedure, string> = {
-  minHoldMinutes: "shortest hold (minutes)",
-  gaugeRatioMin: "lowest gauge ratio",
-  gaugeRatioMax: "highest gauge ratio",
-  roundMinPsig: "round tank's lowest test pressure (psig)",
-  roundMaxPsig: "round tank's highest test pressure (psig)",
-  boxMinPsig: "box tank's lowest test pressure (psig)",
-  boxMaxPsig: "box tank's highest test pressure (psig)",
-  calibrationMonths: "gauge calibration good for (months)",
+  minHoldMinutes: "shortest hold (min)",
+  gaugeRatioMin: "lowest gauge ratio (×)",
+  gaugeRatioMax: "highest gauge ratio (×)",
+  roundMinPsig: "round tank lowest test pressure (psig)",
+  roundMaxPsig: "round tank highest test pressure (psig)",
+  boxMinPsig: "box tank lowest test pressure (psig)",
+  boxMaxPsig: "box tank highest test pressure (psig)",
+  calibrationMonths: "oldest gauge calibration (months)",
 };
 
 /** The owner's change to the leak-test procedure. Tests already recorded keep the decision they were saved with. */
@@ -476,14 +476,14 @@ export async function updateLeakTestProcedure(db: DB, actor: AuditActor, patch: 
       })
       .where("id", "=", 1)
       .execute();
-    const changed = (Object.keys(merged) as (keyof LeakTestProcedure)[]).filter((k) => merged[k] !== before[k]);
+    const changed = (Object.keys(merged) as (keyof LeakTestProcedure)[]).filter((key) => merged[key] !== before[key]);
     if (changed.length) {
       await recordAudit(trx, {
         kind: "settings_changed",
         actor,
         subject: "Leak-test procedure",
-        summary: `${actor.name} changed the leak-test procedure: ${changed.map((k) => `${PROCEDURE_WORDS[k]} ${before[k]} → ${merged[k]}`).join(", ")}.`,
-        details: Object.fromEntries(changed.map((k) => [k, [before[k], merged[k]]])),
+        summary: `${actor.name} changed the leak-test procedure: ${changed.map((key) => `${PROCEDURE_WORDS[key]} from ${before[key]} to ${merged[key]}`).join("; ")}.`,
+        details: Object.fromEntries(changed.map((key) => [key, [before[key], merged[key]]])),
       });
     }
     return merged;

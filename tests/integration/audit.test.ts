@@ -177,7 +177,7 @@ describe("the audit trail records", () => {
       ["photo_deleted", office.id, `${office.name} deleted the photo "Frame rail before drilling" from work order ${wo}.`],
       ["settings_changed", owner.id, `${owner.name} changed the allowed leak-test drop from 0.05 psi to 0.1 psi.`],
       ["settings_changed", owner.id, expect.stringMatching(new RegExp(`^${owner.name} changed customer e-mail settings: e-mail at stages .+ → ready; status links last 60 → 30 days after delivery\\.$`))],
-      ["settings_changed", owner.id, `${owner.name} changed the leak-test procedure: shortest hold (minutes) 15 → 20.`],
+      ["settings_changed", owner.id, `${owner.name} changed the leak-test procedure: shortest hold (min) from 15 to 20.`],
     ]);
     // Saving the same settings again changes nothing, and says nothing.
     await shopSettings.PATCH(request("/api/shop-settings", { cookie: ownerCookie, method: "PATCH", body: { leakAllowedDropPsi: 0.1 } }));
