@@ -1,47 +1,14 @@
-import Link from "next/link";
-import { BaywrightMark } from "@/components/mark";
 import { Providers } from "@/components/providers";
-import { type NavItem, ShellNav, SignOutButton } from "@/components/shell-nav";
+import { Shell } from "@/components/shell";
 import { requirePageStaff } from "@/server/auth/session";
 
 export const dynamic = "force-dynamic";
 
-const ROLE_WORDS = { owner: "Owner", office: "Office", tech: "Tech" } as const;
-
 export default async function ShopLayout({ children }: { children: React.ReactNode }) {
   const user = await requirePageStaff();
-  const items: NavItem[] = [
-    { href: "/board", label: "Board" },
-    { href: "/jobs", label: "Jobs" },
-    { href: "/customers", label: "Customers" },
-    { href: "/coating", label: "Coating" },
-    { href: "/calculator", label: "Calculator" },
-    ...(user.role === "owner" ? [{ href: "/staff", label: "Staff" }] : []),
-  ];
   return (
     <Providers>
-      <header className="border-b border-line bg-panel">
-        <div className="mx-auto flex max-w-[1600px] flex-col gap-2 px-4 py-2 md:flex-row md:items-center md:gap-6">
-          <div className="flex items-center justify-between gap-3">
-            <Link href="/board" className="flex items-center gap-2 font-bold tracking-tight">
-              <BaywrightMark />
-              <span className="text-lg">Baywright</span>
-            </Link>
-            <div className="flex items-center gap-1 md:hidden">
-              <span className="text-sm text-ink-soft">{user.name.split(" ")[0]} · {ROLE_WORDS[user.role]}</span>
-              <SignOutButton />
-            </div>
-          </div>
-          <ShellNav items={items} />
-          <div className="ml-auto hidden items-center gap-2 md:flex">
-            <span className="text-sm text-ink-soft" data-testid="signed-in-as">
-              {user.name} · {ROLE_WORDS[user.role]}
-            </span>
-            <SignOutButton />
-          </div>
-        </div>
-      </header>
-      <main className="mx-auto max-w-[1600px] px-4 py-4">{children}</main>
+      <Shell user={user}>{children}</Shell>
     </Providers>
   );
 }
