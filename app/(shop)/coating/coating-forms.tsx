@@ -43,7 +43,7 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
     },
   );
 
-  if (vendors.length === 0) return <p className="text-ink-soft">Add a coater to the vendors list first.</p>;
+  if (vendors.length === 0) return <p className="text-ink-soft">No coater on file yet: add one under “Coaters” on this page first.</p>;
 
   const partError = (partId: number) => {
     const index = chosen.indexOf(partId);
@@ -251,7 +251,7 @@ export function InspectionForm({ runId }: { runId: number }) {
   );
 }
 
-/** Adds a coater to the vendors list. */
+/** Adds a coater to the shop's list. */
 export function VendorForm() {
   const router = useRouter();
   const [added, setAdded] = useState<string | null>(null);
