@@ -9,7 +9,7 @@ export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refus
   const [reason, setReason] = useState("");
   return (
     <div role="alert" className="space-y-2 rounded-md border border-stop-700/40 bg-stop-100 p-2 text-sm text-stop-700">
-      <p className="font-semibold"><IconStop /> {refusal.kind === "gate" ? "Not moved — the gate is not met:" : refusal.message}</p>
+      <p className="font-semibold"><IconStop /> {refusal.kind === "gate" ? "Not moved — it needs these first:" : refusal.message}</p>
       {refusal.unmet.length > 0 && (
         <ul className="list-disc space-y-0.5 pl-5">
           {refusal.unmet.map((u) => (
