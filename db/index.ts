@@ -1,25 +1,33 @@
 import { mkdirSync } from "node:fs";
-import { dirname, resolve } from "node:path";
+import { dirname } from "node:path";
 import SQLite from "better-sqlite3";
-import { Kysely, type KyselyPlugin, SqliteDialect } from "kysely";
+import { Kysely, type KyselyPlugin, SqliteDialect, type SqliteDatabase } from "kysely";
+import { databasePath } from "./paths";
 import type { Database } from "./schema";
 
 export type DB = Kysely<Database>;
 
-export function databasePath(): string {
-  return resolve(/*turbopackIgnore: true*/ process.env.DATABASE_PATH ?? "data/baywright.db");
-}
+export { databasePath } from "./paths";
 
 /**
- * Pragmas set on every connection. `synchronous=FULL` costs a little write speed but a power cut
- * in a shop office must never lose a recorded leak test or stage move; WAL keeps reads (the
- * board) from waiting on writes.
+ * Pragmas set on every connection, checked after setting (see DEVELOPERS.md, "Speed").
+ * - WAL: readers read the last committed snapshot while a write is in progress.
+ * - synchronous=NORMAL: a commit is appended to the WAL file without waiting for the disk; the
+ *   WAL is flushed at each checkpoint. A killed or crashed server process loses nothing it has
+ *   answered (the commit is in the OS's file cache, which outlives the process); a power cut or
+ *   kernel crash can lose the last commits since the previous checkpoint, and never corrupts the
+ *   file. FULL cost one disk flush per commit, on the one event loop every reader shares.
+ * - cache_size / temp_store / mmap_size: keep the working set (the active board, recent jobs)
+ *   in memory, so a 100,000-job history does not push it out.
  */
 export const PRAGMAS = {
   journal_mode: "wal",
-  synchronous: 2, // FULL
+  synchronous: 1, // NORMAL
   foreign_keys: 1,
   busy_timeout: 5000,
+  cache_size: -65536, // KiB: 64 MiB of page cache per connection
+  temp_store: 2, // MEMORY
+  mmap_size: 268435456, // 256 MiB
 } as const;
 
 export function openSqlite(path: string): SQLite.Database {
@@ -29,25 +37,32 @@ export function openSqlite(path: string): SQLite.Database {
   sqlite.pragma(`synchronous = ${PRAGMAS.synchronous}`);
   sqlite.pragma(`foreign_keys = ${PRAGMAS.foreign_keys}`);
   sqlite.pragma(`busy_timeout = ${PRAGMAS.busy_timeout}`);
+  sqlite.pragma(`cache_size = ${PRAGMAS.cache_size}`);
+  sqlite.pragma(`temp_store = ${PRAGMAS.temp_store}`);
+  sqlite.pragma(`mmap_size = ${PRAGMAS.mmap_size}`);
   checkPragmas(sqlite, path);
   return sqlite;
 }
 
-function checkPragmas(sqlite: SQLite.Database, path: string) {
-  const got = {
+/** The pragmas as the connection reports them. */
+export function readPragmas(sqlite: SQLite.Database) {
+  return {
     journal_mode: sqlite.pragma("journal_mode", { simple: true }),
     synchronous: sqlite.pragma("synchronous", { simple: true }),
     foreign_keys: sqlite.pragma("foreign_keys", { simple: true }),
     busy_timeout: sqlite.pragma("busy_timeout", { simple: true }),
+    cache_size: sqlite.pragma("cache_size", { simple: true }),
+    temp_store: sqlite.pragma("temp_store", { simple: true }),
+    mmap_size: sqlite.pragma("mmap_size", { simple: true }),
   };
-  const wantJournal = path === ":memory:" ? "memory" : PRAGMAS.journal_mode;
-  if (
-    got.journal_mode !== wantJournal ||
-    got.synchronous !== PRAGMAS.synchronous ||
-    got.foreign_keys !== PRAGMAS.foreign_keys ||
-    got.busy_timeout !== PRAGMAS.busy_timeout
-  ) {
-    throw new Error(`SQLite pragmas did not hold on ${path}: ${JSON.stringify(got)}`);
+}
+
+function checkPragmas(sqlite: SQLite.Database, path: string) {
+  const got = readPragmas(sqlite);
+  const memory = path === ":memory:";
+  const want = { ...PRAGMAS, journal_mode: memory ? "memory" : PRAGMAS.journal_mode, mmap_size: memory ? got.mmap_size : PRAGMAS.mmap_size };
+  for (const key of Object.keys(want) as (keyof typeof want)[]) {
+    if (got[key] !== want[key]) throw new Error(`SQLite pragmas did not hold on ${path}: ${JSON.stringify(got)}`);
   }
 }
 
@@ -68,8 +83,32 @@ const writeCounter: KyselyPlugin = {
   },
 };
 
+/**
+ * better-sqlite3 compiles a statement on every prepare, and Kysely prepares on every query; the
+ * app runs the same few hundred statements over and over, so each connection keeps its compiled
+ * statements (least recently used dropped past `size`). SQLite recompiles a kept statement by
+ * itself if a migration changes the schema under it.
+ */
+export function withStatementCache(sqlite: SQLite.Database, size = 500): SqliteDatabase {
+  const kept = new Map<string, SQLite.Statement>();
+  return {
+    close: () => sqlite.close(),
+    prepare(text: string) {
+      let statement = kept.get(text);
+      if (statement) {
+        kept.delete(text);
+      } else {
+        statement = sqlite.prepare(text);
+        if (kept.size >= size) kept.delete(kept.keys().next().value!);
+      }
+      kept.set(text, statement);
+      return statement;
+    },
+  };
+}
+
 export function createDb(path = databasePath()): DB {
-  return new Kysely<Database>({ dialect: new SqliteDialect({ database: openSqlite(path) }), plugins: [writeCounter] });
+  return new Kysely<Database>({ dialect: new SqliteDialect({ database: withStatementCache(openSqlite(path)) }), plugins: [writeCounter] });
 }
 
 const holder = globalThis as unknown as { __baywrightDb?: { path: string; db: DB; sqlite: SQLite.Database } };
@@ -79,7 +118,7 @@ export function getDb(): DB {
   const path = databasePath();
   if (!holder.__baywrightDb || holder.__baywrightDb.path !== path) {
     const sqlite = openSqlite(path);
-    holder.__baywrightDb = { path, sqlite, db: new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }), plugins: [writeCounter] }) };
+    holder.__baywrightDb = { path, sqlite, db: new Kysely<Database>({ dialect: new SqliteDialect({ database: withStatementCache(sqlite) }), plugins: [writeCounter] }) };
   }
   return holder.__baywrightDb.db;
 }

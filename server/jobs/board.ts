@@ -76,7 +76,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
   const ids = rows.map((r) => r.id);
   const [records, coating] = await Promise.all([loadGateRecords(db, ids), coatingFlags(db, ids, now)]);
   const [techs, customers] = await Promise.all([
-    db.selectFrom("staff").select(["id", "name"]).where("active", "=", 1).orderBy("name").execute(),
+    db.selectFrom("staff").select(["id", "name"]).where("active", "=", 1).where("role", "=", "tech").orderBy("name").execute(),
     db.selectFrom("customer").select(["id", "name"]).orderBy("name").execute(),
   ]);
   const cards: BoardCard[] = rows.map((r) => {

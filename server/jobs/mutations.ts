@@ -1,15 +1,15 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
-import type { Transaction } from "kysely";
+import { sql, type Transaction } from "kysely";
 import type { DB } from "@/db";
 import type { Database, Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
 import { ApiError } from "@/server/http/errors";
 import { loadGateRecords } from "./gate-records";
-import { checkMove } from "./gates";
+import { checkMove, GATED_STAGES, NO_RECORDS } from "./gates";
 import { findJob } from "./queries";
 import type { JobPatch, MoveInput, NewJobInput } from "./schemas";
-import { STAGE_LABELS, stagesFor } from "./stages";
+import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
 import { formatWorkOrder } from "./work-order";
 
 type Trx = Transaction<Database>;
@@ -30,11 +30,33 @@ async function assertTech(trx: Trx, staffId: string | null | undefined) {
   if (!staff) throw fieldError("assignedTechId", "Choose an active staff member.");
 }
 
-/** Columns are kept dense (0, 1, 2…) so no two cards share a place and none is lost. */
-async function renumber(trx: Trx, stage: Stage, orderedIds: number[]) {
-  for (let i = 0; i < orderedIds.length; i++) {
-    await trx.updateTable("job").set({ position: i }).where("id", "=", orderedIds[i]).where("position", "!=", i).execute();
+/**
+ * Columns are kept dense (0, 1, 2…) so no two cards share a place and none is lost. A move shifts
+ * only the cards after the two places it touches, in one statement, whatever the column's length:
+ * the card leaves position `from.position` of `from.stage` (the cards after it close the gap) and
+ * enters position `at` of `toStage` (counted with the card already gone; the cards from there on
+ * make room). Same column or two columns, the one expression below does both; `(a > b)` is 0 or 1.
+ */
+async function shiftColumns(trx: Trx, cardId: number, from: { stage: Stage; position: number }, toStage: Stage, at: number) {
+  await sql`update job set position = position
+      - (stage = ${from.stage} and position > ${from.position})
+      + (stage = ${toStage} and position - (stage = ${from.stage} and position > ${from.position}) >= ${at})
+    where id != ${cardId} and ((stage = ${from.stage} and position > ${from.position}) or (stage = ${toStage} and position >= ${at}))`.execute(trx);
+}
+
+/** Where the card lands in `toStage`, counted as if it had already left its own column. */
+async function landingPosition(trx: Trx, card: { id: number; stage: Stage; position: number }, toStage: Stage, beforeJobId: number | null | undefined) {
+  const closesGap = (p: number) => (card.stage === toStage && p > card.position ? 1 : 0);
+  if (beforeJobId) {
+    const before = await trx.selectFrom("job").select(["stage", "position"]).where("id", "=", beforeJobId).executeTakeFirst();
+    if (!before || before.stage !== toStage || beforeJobId === card.id) {
+      throw new ApiError("validation", "beforeJobId must be a card in the stage the card moves to.", { fields: { beforeJobId: ["Not a card in that stage."] } });
+    }
+    return before.position - closesGap(before.position);
   }
+  const last = await trx.selectFrom("job").select((eb) => eb.fn.max("position").as("p")).where("stage", "=", toStage).where("id", "!=", card.id).executeTakeFirst();
+  if (last?.p === null || last?.p === undefined) return 0;
+  return Number(last.p) - closesGap(Number(last.p)) + 1;
 }
 
 async function columnIds(trx: Trx, stage: Stage, exceptId?: number) {
@@ -126,12 +148,14 @@ export interface MoveResult {
  */
 export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveInput): Promise<MoveResult> {
   const eventId = await db.transaction().execute(async (trx) => {
-    const job = await trx.selectFrom("job").select(["id", "stage", "scope", "version"]).where("id", "=", id).executeTakeFirst();
+    const job = await trx.selectFrom("job").select(["id", "stage", "scope", "version", "position"]).where("id", "=", id).executeTakeFirst();
     if (!job) throw new ApiError("not_found", "That job was not found.");
     if (job.version !== move.version) {
       throw new ApiError("stale", "Someone else moved or changed this card first. The board now shows where it is.", { job: await findJob(trx, id) });
     }
-    const records = (await loadGateRecords(trx, [id])).get(id)!;
+    // Only a forward move into or past a gated stage reads the records (once, in this transaction).
+    const gatesAhead = stageIndex(move.toStage) > stageIndex(job.stage) && GATED_STAGES.some((g) => stageIndex(g) <= stageIndex(move.toStage));
+    const records = gatesAhead ? (await loadGateRecords(trx, [id])).get(id)! : NO_RECORDS;
     const check = checkMove(job.stage, move.toStage, job.scope, records);
     if (check.unmet.length) {
       if (check.impossible) throw new ApiError("gate_unmet", check.unmet[0], { unmet: check.unmet, canOverride: false });
@@ -142,23 +166,16 @@ export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveIn
     }
     const overrideReason = check.unmet.length && move.override ? move.override.reason : null;
 
-    const target = await columnIds(trx, move.toStage, id);
-    let index = target.length;
-    if (move.beforeJobId) {
-      index = target.indexOf(move.beforeJobId);
-      if (index < 0) throw new ApiError("validation", "beforeJobId must be a card in the stage the card moves to.", { fields: { beforeJobId: ["Not a card in that stage."] } });
-    }
-    target.splice(index, 0, id);
+    const position = await landingPosition(trx, job, move.toStage, move.beforeJobId);
     const at = new Date().toISOString();
+    await shiftColumns(trx, id, job, move.toStage, position);
     const updated = await trx
       .updateTable("job")
-      .set({ stage: move.toStage, version: job.version + 1, updated_at: at })
+      .set({ stage: move.toStage, position, version: job.version + 1, updated_at: at })
       .where("id", "=", id)
       .where("version", "=", move.version)
       .executeTakeFirst();
     if (Number(updated.numUpdatedRows) !== 1) throw new ApiError("stale", "Someone else moved this card first.");
-    await renumber(trx, move.toStage, target);
-    if (job.stage !== move.toStage) await renumber(trx, job.stage, await columnIds(trx, job.stage, id));
 
     const event = await trx
       .insertInto("stage_event")

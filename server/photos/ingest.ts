@@ -66,7 +66,7 @@ export async function ingestUploadedPhoto(db: DB, meta: UploadMetadata, file: { 
 async function checkAndRecord(db: DB, meta: UploadMetadata, file: { key: string; name: string; ufsUrl: string }): Promise<IngestResult> {
   const bytes = await fetchLimited(file.ufsUrl, MAX_PHOTO_BYTES);
   if (bytes === "too_large") return { refused: `${file.name}: the photo is over the 8 MB limit.` };
-  const check = await checkAndDerive(bytes);
+  const check = await checkAndDerive(bytes, { jobId: meta.jobId, name: file.name, uploadedBy: meta.uploadedBy });
   if (!check.ok) return { refused: `${file.name}: ${check.reason}` };
   const job = await db.selectFrom("job").select("id").where("id", "=", meta.jobId).executeTakeFirst();
   if (!job) return { refused: `${file.name}: the job was removed while the photo was uploading.` };

@@ -1,11 +1,9 @@
 import "server-only";
 import { mkdir, readFile, rename, rm, writeFile } from "node:fs/promises";
-import { join, resolve } from "node:path";
+import { join } from "node:path";
+import { photosDir } from "@/db/paths";
 
-/** Derived photos live on the shop's own disk (gitignored data/), never in a public folder. */
-export function photosDir(): string {
-  return resolve(/*turbopackIgnore: true*/ process.env.PHOTOS_DIR || "data/photos");
-}
+export { photosDir };
 
 export type PhotoSize = "display" | "thumb";
 

@@ -20,6 +20,13 @@ export async function staffCount(db: DB) {
   return Number(row.n);
 }
 
-export function listTechs(db: DB) {
-  return db.selectFrom("staff").select(["id", "name", "role"]).where("active", "=", 1).orderBy("name").execute();
+/** The shop's active techs, for "Assigned to"; a job's current assignee stays in the list even if not a tech, so editing it keeps the choice. */
+export function listTechs(db: DB, keepId?: string | null) {
+  return db
+    .selectFrom("staff")
+    .select(["id", "name", "role"])
+    .where("active", "=", 1)
+    .where((eb) => (keepId ? eb.or([eb("role", "=", "tech"), eb("id", "=", keepId)]) : eb("role", "=", "tech")))
+    .orderBy("name")
+    .execute();
 }

@@ -1,8 +1,8 @@
 import "server-only";
 import { createHash, createHmac, randomBytes } from "node:crypto";
 import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
-import { dirname, join } from "node:path";
-import { databasePath } from "@/db";
+import { dirname } from "node:path";
+import { statusLinkSecretPath } from "@/db/paths";
 import { emailEnv } from "@/server/email/env";
 
 /**
@@ -19,7 +19,7 @@ const secrets = new Map<string, Buffer>();
 function linkSecret(): Buffer {
   const fromEnv = emailEnv().STATUS_LINK_SECRET;
   if (fromEnv) return Buffer.from(fromEnv, "utf8");
-  const file = join(dirname(databasePath()), "status-link.secret");
+  const file = statusLinkSecretPath();
   const cached = secrets.get(file);
   if (cached) return cached;
   if (!existsSync(file)) {

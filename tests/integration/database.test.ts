@@ -1,6 +1,7 @@
+import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import * as health from "@/app/api/health/route";
-import { createDb, openSqlite } from "@/db";
+import { createDb, openSqlite, readPragmas } from "@/db";
 import { seedDemo } from "@/db/seed";
 import { migrateToLatest, migrations, migrator } from "@/migrations";
 import { vinProblem } from "@/server/vehicles/vin";
@@ -10,13 +11,27 @@ import { readBody } from "../support/http";
 const { db } = useFreshDatabase();
 
 describe("the database", () => {
-  it("holds its pragmas on every open: WAL, foreign keys, busy timeout, synchronous FULL", () => {
+  it("holds its pragmas on every open: WAL, synchronous NORMAL, foreign keys, busy timeout, memory for cache and temp", () => {
     const sqlite = openSqlite(process.env.DATABASE_PATH!);
-    expect(sqlite.pragma("journal_mode", { simple: true })).toBe("wal");
-    expect(sqlite.pragma("foreign_keys", { simple: true })).toBe(1);
-    expect(sqlite.pragma("busy_timeout", { simple: true })).toBe(5000);
-    expect(sqlite.pragma("synchronous", { simple: true })).toBe(2);
+    // Values as SQLite reports them: synchronous 1 is NORMAL, temp_store 2 is MEMORY, a negative
+    // cache_size is in KiB.
+    expect(readPragmas(sqlite)).toEqual({
+      journal_mode: "wal",
+      synchronous: 1,
+      foreign_keys: 1,
+      busy_timeout: 5000,
+      cache_size: -65536,
+      temp_store: 2,
+      mmap_size: 268435456,
+    });
     sqlite.close();
+  });
+
+  it("gives the server's own connection (the one every route uses) the same pragmas", async () => {
+    const read = async (name: string) => (await sql.raw<Record<string, unknown>>(`pragma ${name}`).execute(db())).rows[0];
+    expect(await read("journal_mode")).toEqual({ journal_mode: "wal" });
+    expect(await read("synchronous")).toEqual({ synchronous: 1 });
+    expect(await read("foreign_keys")).toEqual({ foreign_keys: 1 });
   });
 
   it("reports healthy once migrated", async () => {

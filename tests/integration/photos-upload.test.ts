@@ -202,6 +202,28 @@ describe("uploading photos through the upload service", () => {
     expect(await checkAndDerive(oversized)).toEqual({ ok: false, reason: "The photo is 8.0 MB; the limit is 8 MB." });
   });
 
+  it("refuses a photo over 50 megapixels by its header, saying what to do, and records nothing", async () => {
+    const { cookie } = await as("tech");
+    const job = await makeJob(db());
+    // 8000 × 7000 = 56 million pixels, a small file all the same (one flat colour).
+    const huge = await sharp({ create: { width: 8000, height: 7000, channels: 3, background: { r: 90, g: 120, b: 140 } } }).jpeg({ quality: 30 }).toBuffer();
+    expect(huge.length).toBeLessThan(8 * 1024 * 1024);
+    const done = await upload([{ name: "panorama.jpg", type: "image/jpeg", bytes: huge }], { jobId: job.id, stage: "queued" }, { cookie });
+    expect(done.results[0].status).toBe(200);
+    expect(done.results[0].serverData.refused).toBe(
+      "panorama.jpg: The photo is 8000 × 7000 pixels (56 megapixels); the shop takes up to 50 megapixels, what a phone camera makes. Send it at the camera's normal size, or shrink it first.",
+    );
+    expect(await db().selectFrom("photo").select("id").where("job_id", "=", job.id).execute()).toEqual([]);
+    expect(await uploadsAtFake()).toEqual([]);
+  });
+
+  it("takes a photo just under 50 megapixels", async () => {
+    // 7000 × 7000 = 49 million pixels.
+    const large = await sharp({ create: { width: 7000, height: 7000, channels: 3, background: { r: 40, g: 40, b: 40 } } }).jpeg({ quality: 30 }).toBuffer();
+    const check = await checkAndDerive(large);
+    expect(check).toMatchObject({ ok: true, type: "image/jpeg", width: 2048, height: 2048 });
+  });
+
   it("refuses more than ten photos at once, HEIC with advice, and a job that does not exist", async () => {
     const { cookie } = await as("tech");
     const job = await makeJob(db());

@@ -33,7 +33,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const db = getDb();
   const job = await findJob(db, Number(raw));
   if (!job) notFound();
-  const [events, techs, shop] = await Promise.all([stageEvents(db, job.id), listTechs(db), shopSettings(db)]);
+  const [events, techs, shop] = await Promise.all([stageEvents(db, job.id), listTechs(db, job.assignedTechId), shopSettings(db)]);
   const route = stagesFor(job.scope);
 
   return (

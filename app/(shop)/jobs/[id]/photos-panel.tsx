@@ -14,7 +14,15 @@ import { MAX_PHOTOS_PER_UPLOAD, MAX_PHOTO_BYTES, PHOTO_TYPES } from "@/server/ph
 
 const { uploadFiles } = generateReactHelpers<PhotoRouter>();
 
-const photoKeys = { job: (jobId: number) => ["job", jobId, "photos"] as const };
+const photoKeys = { job: (jobId: number) => ["job", jobId, "photos"] as const, line: (jobId: number) => ["job", jobId, "photos", "line"] as const };
+
+type LineEntry = { name: string; state: "waiting" | "decoding"; ahead: number };
+
+/** What a photo that reached the server is doing: the server checks and resizes one photo at a time. */
+function checkingWords(entry: LineEntry | undefined) {
+  if (!entry || entry.state === "decoding") return "Checking and saving…";
+  return `In line: ${entry.ahead} ${entry.ahead === 1 ? "photo" : "photos"} ahead`;
+}
 
 type Sending = { id: string; name: string; bytes: number; progress: number; state: "uploading" | "checking" | "saved" | "refused" | "failed"; reason?: string };
 
@@ -59,6 +67,15 @@ export function PhotosPanel({
   const pickRef = useRef<HTMLInputElement>(null);
   const ids = useId();
   const busy = sending.some((s) => s.state === "uploading" || s.state === "checking");
+  const checking = sending.some((s) => s.state === "checking");
+  const line = useQuery({
+    queryKey: photoKeys.line(jobId),
+    queryFn: () => api<{ line: LineEntry[] }>(`/api/jobs/${jobId}/photos/line`).then((r) => r.line),
+    enabled: checking,
+    refetchInterval: checking ? 1000 : false,
+    staleTime: 0,
+  });
+  const lineByName = new Map((checking ? (line.data ?? []) : []).map((e) => [e.name, e]));
 
   function update(id: string, patch: Partial<Sending>) {
     setSending((list) => list.map((s) => (s.id === id ? { ...s, ...patch } : s)));
@@ -172,7 +189,9 @@ export function PhotosPanel({
                   <div className="h-2 flex-1 overflow-hidden rounded-full bg-bay-50" role="progressbar" aria-label={`Upload of ${s.name}`} aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(s.progress)}>
                     <div className="h-full bg-bay-600 transition-[width]" style={{ width: `${s.progress}%` }} />
                   </div>
-                  <span className="w-36 text-right">{s.state === "checking" ? "Checking and saving…" : `Uploading ${Math.round(s.progress)} %`}</span>
+                  <span className="w-48 text-right" data-testid="photo-progress">
+                    {s.state === "checking" ? checkingWords(lineByName.get(s.name)) : `Uploading ${Math.round(s.progress)} %`}
+                  </span>
                 </div>
               )}
               {s.state === "saved" && <p className="mt-1 font-medium text-ok-700">✓ Saved</p>}

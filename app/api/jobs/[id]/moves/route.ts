@@ -3,6 +3,7 @@ import { requireStaff } from "@/server/auth/session";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
 import { moveJob } from "@/server/jobs/mutations";
 import { moveSchema } from "@/server/jobs/schemas";
+import { formerPlace, rememberFormerPlace } from "@/server/jobs/undo";
 
 /** Moves a card to a stage (or to another place in its column). Every staff role works the board. */
 export async function POST(req: Request, ctx: { params: Promise<{ id: string }> }) {
@@ -10,6 +11,11 @@ export async function POST(req: Request, ctx: { params: Promise<{ id: string }> 
     const actor = await requireStaff(req);
     const id = parseId((await ctx.params).id, "Job");
     const move = await readJson(req, moveSchema);
-    return json(await moveJob(getDb(), actor, id, move));
+    const db = getDb();
+    // Where the card stood, kept for its mover's undo.
+    const place = await formerPlace(db, id);
+    const result = await moveJob(db, actor, id, move);
+    rememberFormerPlace(result.eventId, place);
+    return json(result);
   });
 }

@@ -1,0 +1,143 @@
+/**
+ * Who may use what: every route handler method, page and server action in `app/`, for each kind
+ * of visitor. `access-matrix.test.ts` walks `app/` and fails for anything this table does not
+ * list (it prints the row to paste), then calls each one as each visitor and compares.
+ *
+ * Visitors: `none` (no cookie), `statusLink` (a customer holding a live status link: on
+ * `/status/[token]` routes the link is in the URL; elsewhere it is tried as a session cookie),
+ * `tech`, `office`, `owner`, `deactivated` (a staff member turned off while still holding a
+ * signed-in device).
+ *
+ * Outcomes
+ * - route handlers: `"ok"` (reached its work: any answer but 401/403, never 500), or the refusal
+ *   status `401` / `403` / `404` (404 where a wrong link must look like no link at all);
+ * - pages: `"ok"` (renders), `"404"`, or `"→/path"` (redirects there);
+ * - server actions: `"ok"`, `"refused"` (answers with a message and changes nothing), `"→/path"`.
+ *
+ * Requests carry an empty JSON body and ids of rows that exist, so "ok" means access was granted,
+ * not that the write succeeded.
+ */
+export const WHO = ["none", "statusLink", "tech", "office", "owner", "deactivated"] as const;
+export type Who = (typeof WHO)[number];
+export type Outcome = "ok" | 401 | 403 | 404 | "404" | "refused" | `→/${string}`;
+export type Row = { key: string } & Record<Who, Outcome>;
+
+const row = (key: string, none: Outcome, statusLink: Outcome, tech: Outcome, office: Outcome, owner: Outcome, deactivated: Outcome): Row => ({
+  key,
+  none,
+  statusLink,
+  tech,
+  office,
+  owner,
+  deactivated,
+});
+
+// Shorthands for the common shapes.
+const anyStaff = (key: string) => row(key, 401, 401, "ok", "ok", "ok", 401);
+const officeUp = (key: string) => row(key, 401, 401, 403, "ok", "ok", 401);
+const ownerOnly = (key: string) => row(key, 401, 401, 403, 403, "ok", 401);
+const open = (key: string) => row(key, "ok", "ok", "ok", "ok", "ok", "ok");
+const staffPage = (key: string) => row(key, "→/sign-in", "→/sign-in", "ok", "ok", "ok", "→/sign-in");
+const officePage = (key: string) => row(key, "→/sign-in", "→/sign-in", "→/board?denied=1", "ok", "ok", "→/sign-in");
+const ownerPage = (key: string) => row(key, "→/sign-in", "→/sign-in", "→/board?denied=1", "→/board?denied=1", "ok", "→/sign-in");
+
+export const ACCESS_MATRIX: Row[] = [
+  // Open to everyone: health, signing in and out.
+  open("GET /api/health"),
+  open("POST /api/session"),
+  open("DELETE /api/session"),
+  // The customer's status link: the link in the URL is the key, and a wrong one looks like no link.
+  row("PAGE /status/[token]", "404", "ok", "404", "404", "404", "404"),
+  row("GET /status/[token]/photos/[photoId]", 404, "ok", 404, 404, 404, 404),
+  // Signing in and first run (first run answers only while no one works here).
+  row("PAGE /", "→/board", "→/board", "→/board", "→/board", "→/board", "→/board"),
+  row("PAGE /sign-in", "ok", "ok", "→/board", "→/board", "→/board", "ok"),
+  row("PAGE /first-run", "→/sign-in", "→/sign-in", "→/sign-in", "→/sign-in", "→/sign-in", "→/sign-in"),
+  row("ACTION app/(auth)/first-run/actions.ts#createOwnerAction", "refused", "refused", "refused", "refused", "refused", "refused"),
+
+  // Pages.
+  staffPage("PAGE /board"),
+  staffPage("PAGE /calculator"),
+  staffPage("PAGE /coating"),
+  staffPage("PAGE /customers"),
+  staffPage("PAGE /customers/[id]"),
+  officePage("PAGE /customers/new"),
+  staffPage("PAGE /jobs"),
+  staffPage("PAGE /jobs/[id]"),
+  officePage("PAGE /jobs/new"),
+  ownerPage("PAGE /staff"),
+  staffPage("PAGE /trucks"),
+  staffPage("PAGE /trucks/[id]"),
+  officePage("PAGE /trucks/new"),
+
+  // The signed-in staff member.
+  anyStaff("GET /api/me"),
+  anyStaff("PUT /api/me/password"),
+  anyStaff("GET /api/ping"),
+
+  // Board and jobs: a tech moves cards and edits a job's notes; office and owner create and plan.
+  anyStaff("GET /api/board"),
+  anyStaff("GET /api/jobs"),
+  officeUp("POST /api/jobs"),
+  anyStaff("GET /api/jobs/[id]"),
+  anyStaff("PATCH /api/jobs/[id]"),
+  anyStaff("POST /api/jobs/[id]/moves"),
+  anyStaff("POST /api/jobs/[id]/undo"),
+  anyStaff("GET /api/jobs/[id]/kit-spec"),
+  officeUp("PUT /api/jobs/[id]/kit-spec"),
+  anyStaff("POST /api/kit-calc"),
+
+  // Customers and trucks.
+  anyStaff("GET /api/customers"),
+  officeUp("POST /api/customers"),
+  anyStaff("GET /api/customers/[id]"),
+  officeUp("PATCH /api/customers/[id]"),
+  anyStaff("GET /api/trucks"),
+  officeUp("POST /api/trucks"),
+  anyStaff("GET /api/trucks/[id]"),
+  officeUp("PATCH /api/trucks/[id]"),
+
+  // Records: any staff records work; office and owner delete parts, add coaters and send runs.
+  anyStaff("GET /api/jobs/[id]/parts"),
+  anyStaff("POST /api/jobs/[id]/parts"),
+  anyStaff("GET /api/parts/[id]"),
+  anyStaff("PATCH /api/parts/[id]"),
+  officeUp("DELETE /api/parts/[id]"),
+  anyStaff("GET /api/parts/[id]/leak-tests"),
+  anyStaff("POST /api/parts/[id]/leak-tests"),
+  anyStaff("GET /api/jobs/[id]/sign-off"),
+  anyStaff("PUT /api/jobs/[id]/sign-off"),
+  anyStaff("GET /api/coating-runs"),
+  officeUp("POST /api/coating-runs"),
+  anyStaff("GET /api/coating-runs/[id]"),
+  anyStaff("PATCH /api/coating-runs/[id]"),
+  anyStaff("GET /api/vendors"),
+  officeUp("POST /api/vendors"),
+
+  // Photos: any staff uploads and captions; office and owner delete.
+  anyStaff("GET /api/uploadthing"),
+  anyStaff("POST /api/uploadthing"),
+  anyStaff("GET /api/jobs/[id]/photos"),
+  anyStaff("GET /api/jobs/[id]/photos/line"),
+  anyStaff("GET /api/photos/[id]"),
+  anyStaff("PATCH /api/photos/[id]"),
+  officeUp("DELETE /api/photos/[id]"),
+
+  // Customer e-mail and status links: office and owner.
+  anyStaff("GET /api/jobs/[id]/email-settings"),
+  officeUp("PUT /api/jobs/[id]/email-settings"),
+  anyStaff("GET /api/jobs/[id]/messages"),
+  officeUp("POST /api/messages/[id]/resend"),
+  anyStaff("GET /api/notify-settings"),
+  officeUp("PUT /api/notify-settings"),
+  anyStaff("GET /api/jobs/[id]/status-links"),
+  officeUp("POST /api/jobs/[id]/status-links"),
+  officeUp("DELETE /api/status-links/[id]"),
+
+  // Staff and shop settings: the owner.
+  ownerOnly("GET /api/staff"),
+  ownerOnly("POST /api/staff"),
+  ownerOnly("PATCH /api/staff/[id]"),
+  anyStaff("GET /api/shop-settings"),
+  ownerOnly("PATCH /api/shop-settings"),
+];
