@@ -9,6 +9,9 @@ const archivo = localFont({
   display: "swap",
 });
 
+// Every page is rendered per request, so Next can put this request's CSP nonce on its scripts.
+export const dynamic = "force-dynamic";
+
 export const metadata: Metadata = {
   title: { default: "Baywright", template: "%s · Baywright" },
   description: "Job tracking for truck upfit shops",

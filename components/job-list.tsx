@@ -1,6 +1,6 @@
-import { format, parseISO } from "date-fns";
 import Link from "next/link";
 import type { Stage } from "@/db/schema";
+import { showStoredDate } from "@/server/http/calendar-date";
 import { StageBadge } from "./stage-badge";
 
 export interface JobListRow {
@@ -17,7 +17,7 @@ export interface JobListRow {
 
 export type JobSortKey = "newest" | "customer" | "stage" | "due";
 
-const due = (iso: string | null) => (iso ? format(parseISO(iso), "d MMM yyyy") : null);
+const due = (iso: string | null) => (iso ? showStoredDate(iso, "d MMM yyyy") : null);
 
 /**
  * Jobs as a table on a desk and as a list of rows on a phone, where the work order stays on one

@@ -15,13 +15,31 @@ export interface MoveRefusal {
   message: string;
   unmet: string[];
   canOverride: boolean;
+  /** The stage the card was headed for, when the caller knows it. */
+  toStage?: Stage;
+}
+
+export interface MoveAnswer {
+  job: { id: number; stage: Stage; version: number };
+  /** The move's stage event, which its mover can take back for a short while. */
+  eventId: number;
 }
 
 export async function sendMove(jobId: number, body: MoveBody) {
-  return api<{ job: { id: number; stage: Stage; version: number } }>(`/api/jobs/${jobId}/moves`, { method: "POST", body });
+  return api<MoveAnswer>(`/api/jobs/${jobId}/moves`, { method: "POST", body });
 }
 
-export function refusalOf(err: unknown): MoveRefusal {
+/** Takes back the caller's own last move of the card. */
+export async function sendUndo(jobId: number, eventId: number) {
+  return api<MoveAnswer>(`/api/jobs/${jobId}/undo`, { method: "POST", body: { eventId } });
+}
+
+export function refusalOf(err: unknown, toStage?: Stage): MoveRefusal {
+  const refusal = refusalWithout(err);
+  return toStage ? { ...refusal, toStage } : refusal;
+}
+
+function refusalWithout(err: unknown): MoveRefusal {
   if (!(err instanceof ApiRequestError)) return { kind: "other", message: "The move did not go through. Try again.", unmet: [], canOverride: false };
   const f = err.failure;
   const unmet = Array.isArray(f.details?.unmet) ? (f.details.unmet as string[]) : [];

@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { STAGE_LABELS } from "@/server/jobs/stages";
 import { IconStop } from "./icons";
 import type { MoveRefusal } from "./move-job";
 
@@ -8,8 +9,8 @@ import type { MoveRefusal } from "./move-job";
 export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refusal: MoveRefusal; onOverride?: (reason: string) => void; onDismiss?: () => void; jobHref?: string }) {
   const [reason, setReason] = useState("");
   return (
-    <div role="alert" className="space-y-2 rounded-md border border-stop-700/40 bg-stop-100 p-2 text-sm text-stop-700">
-      <p className="font-semibold"><IconStop /> {refusal.kind === "gate" ? "Not moved — it needs these first:" : refusal.message}</p>
+    <div role="alert" tabIndex={-1} data-refusal className="space-y-2 rounded-md border border-stop-700/40 bg-stop-100 p-2 text-sm text-stop-700">
+      <p className="font-semibold"><IconStop /> {refusal.kind === "gate" ? (refusal.toStage ? `Not moved. Needs before it can move to ${STAGE_LABELS[refusal.toStage]}:` : "Not moved. It still needs:") : refusal.message}</p>
       {refusal.unmet.length > 0 && (
         <ul className="list-disc space-y-0.5 pl-5">
           {refusal.unmet.map((u) => (
@@ -31,7 +32,7 @@ export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refus
           }}
         >
           <label className="block font-semibold text-ink">
-            Override as owner — write the reason (kept on the job's timeline)
+            Override as owner: write the reason (kept on the job's timeline)
             <textarea value={reason} onChange={(e) => setReason(e.target.value)} rows={2} className="mt-1 block w-full rounded border border-line bg-panel p-2 text-ink" />
           </label>
           <button type="submit" className="min-h-11 rounded-md bg-warn-700 px-3 font-semibold text-white disabled:opacity-50" disabled={reason.trim().length < 5}>

@@ -57,7 +57,9 @@ export function describePhotos(root: string): PhotoFile[] {
 
 /** Every table's rows, in rowid order: what the drill and the restore compare. */
 export function tableNames(sqlite: SQLite.Database): string[] {
-  return (sqlite.prepare("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' order by name").all() as { name: string }[]).map((r) => r.name);
+  // Ordinary tables only: a full-text index (the Jobs search) and its shadow tables are derived
+  // from them, and some of those have no rowid to order by.
+  return (sqlite.prepare("select name from pragma_table_list where schema = 'main' and type = 'table' and name not like 'sqlite_%' order by name").all() as { name: string }[]).map((r) => r.name);
 }
 
 export function tableCounts(sqlite: SQLite.Database): Record<string, number> {

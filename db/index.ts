@@ -1,7 +1,7 @@
 import { mkdirSync } from "node:fs";
 import { dirname } from "node:path";
 import SQLite from "better-sqlite3";
-import { Kysely, type KyselyPlugin, SqliteDialect, type SqliteDatabase } from "kysely";
+import { Kysely, type KyselyPlugin, type RootOperationNode, SqliteDialect, type SqliteDatabase } from "kysely";
 import { databasePath } from "./paths";
 import type { Database } from "./schema";
 
@@ -73,9 +73,15 @@ function checkPragmas(sqlite: SQLite.Database, path: string) {
 // Kept on globalThis: the production build can hold several copies of this module, and they
 // must all count into (and read) the same number.
 const writes = ((globalThis as unknown as { __baywrightWrites?: { n: number } }).__baywrightWrites ??= { n: 0 });
+// A raw statement that starts with SELECT or EXPLAIN only reads (the status page's one read is raw SQL).
+function isRead(node: RootOperationNode) {
+  if (node.kind === "SelectQueryNode") return true;
+  return node.kind === "RawNode" && /^\s*(select|explain)\b/i.test(node.sqlFragments[0] ?? "");
+}
+
 const writeCounter: KyselyPlugin = {
   transformQuery(args) {
-    if (args.node.kind !== "SelectQueryNode") writes.n++;
+    if (!isRead(args.node)) writes.n++;
     return args.node;
   },
   async transformResult(args) {

@@ -184,6 +184,8 @@ async function photoBench(runs: number): Promise<NonNullable<BenchStatusResult["
   });
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
   const app = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  // The uploader's write carries the app's own origin, as a browser on its pages would.
+  process.env.APP_URL = app;
   try {
     const photo = await fiveMegabytePhoto();
     const runsMs: number[] = [];
@@ -191,7 +193,7 @@ async function photoBench(runs: number): Promise<NonNullable<BenchStatusResult["
       const started = performance.now();
       const action = await fetch(`${app}/api/uploadthing?actionType=upload&slug=jobPhoto`, {
         method: "POST",
-        headers: { "content-type": "application/json", cookie },
+        headers: { "content-type": "application/json", cookie, origin: app },
         body: JSON.stringify({ files: [{ name: `bench-${i}.jpg`, size: photo.length, type: "image/jpeg", lastModified: Date.now() }], input: { jobId: job.id, stage: "fabricate" } }),
       });
       if (!action.ok) throw new Error(`upload request answered ${action.status}: ${await action.text()}`);

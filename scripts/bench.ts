@@ -123,7 +123,7 @@ async function main() {
 
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
-  const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env: { ...process.env, DATABASE_PATH: dbPath, NODE_ENV: "production" }, stdio: "ignore", detached: true });
+  const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env: { ...process.env, DATABASE_PATH: dbPath, NODE_ENV: "production", APP_URL: base }, stdio: "ignore", detached: true });
   const stop = () => {
     try {
       if (server.pid) process.kill(-server.pid, "SIGTERM");

@@ -54,3 +54,31 @@ export function validationError(error: z.ZodError): ApiError {
 export function notFound(what: string) {
   return new ApiError("not_found", `${what} was not found.`);
 }
+
+/**
+ * What each unique column means to the person who sent it, by `table.column` as SQLite names it
+ * in "UNIQUE constraint failed: staff.email". The API field is the name the form uses.
+ */
+const UNIQUE_FIELDS: Record<string, { field: string; message: string }> = {
+  "staff.email": { field: "email", message: "Someone on the staff already uses that e-mail." },
+  "truck.vin": { field: "vin", message: "That VIN is already on file for another truck." },
+  "job.work_order": { field: "workOrder", message: "That work order number is already used; save again to get the next one." },
+  "vendor.name": { field: "name", message: "A coater with that name is already on the list." },
+  "coating_run_part.part_id": { field: "partIds", message: "One of those parts is already out on another coating run." },
+  "sign_off.job_id": { field: "expectedVersion", message: "Someone saved this sign-off at the same moment; reload it and save again." },
+};
+
+/**
+ * A unique constraint hit by two requests at once (both passed the check, one insert lost) is a
+ * 409 naming the field, never a 500. Returns null for any other error.
+ */
+export function uniqueConflict(err: unknown): ApiError | null {
+  const e = err as { code?: unknown; message?: unknown } | null;
+  if (!e || e.code !== "SQLITE_CONSTRAINT_UNIQUE" || typeof e.message !== "string") return null;
+  const columns = /UNIQUE constraint failed: (.+)$/.exec(e.message)?.[1]?.split(",").map((c) => c.trim()) ?? [];
+  const known = columns.map((c) => UNIQUE_FIELDS[c]).find(Boolean);
+  if (known) return new ApiError("conflict", known.message, { fields: { [known.field]: [known.message] } });
+  const field = columns[0]?.split(".").pop()?.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase()) ?? "_";
+  const message = `That ${field} is already used by another record; choose another.`;
+  return new ApiError("conflict", message, { fields: { [field]: [message] } });
+}

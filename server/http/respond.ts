@@ -2,15 +2,23 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { quoteBareNonFiniteNumbers } from "./bare-numbers";
-import { ApiError, validationError } from "./errors";
+import { ApiError, uniqueConflict, validationError } from "./errors";
+import { CROSS_SITE_MESSAGE, NO_ORIGIN_MESSAGE, writeOrigin } from "./origin";
+
+/** JSON answers hold the shop's data for one signed-in person: no browser or proxy may keep a copy. */
+function noStore(headers?: HeadersInit): Headers {
+  const out = new Headers(headers);
+  if (!out.has("cache-control")) out.set("Cache-Control", "no-store");
+  return out;
+}
 
 export function json<T>(body: T, init?: ResponseInit) {
-  return NextResponse.json(body, init);
+  return NextResponse.json(body, { ...init, headers: noStore(init?.headers) });
 }
 
 export function errorResponse(err: ApiError) {
   const body = { error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) } };
-  return NextResponse.json(body, { status: err.status, headers: err.headers });
+  return NextResponse.json(body, { status: err.status, headers: noStore(err.headers) });
 }
 
 /** Runs a handler body and turns known failures into the API's error shape; anything else is logged and a 500. */
@@ -20,10 +28,12 @@ export async function respond(work: () => Promise<Response>): Promise<Response> 
   } catch (err) {
     if (err instanceof ApiError) return errorResponse(err);
     if (err instanceof z.ZodError) return errorResponse(validationError(err));
+    const conflict = uniqueConflict(err);
+    if (conflict) return errorResponse(conflict);
     console.error(err);
     return NextResponse.json(
       { error: { code: "internal", message: "Something went wrong on the server. Try again; if it keeps happening, tell the shop owner." } },
-      { status: 500 },
+      { status: 500, headers: noStore() },
     );
   }
 }
@@ -81,22 +91,11 @@ async function readCapped(req: Request, cap: number): Promise<string> {
   return Buffer.concat(chunks).toString("utf8");
 }
 
+/** Refuses a write that did not come from the app's own pages (see `server/http/origin.ts`). */
 export function assertSameOrigin(req: Request) {
-  const site = req.headers.get("sec-fetch-site");
-  if (site && site !== "same-origin" && site !== "none") {
-    throw new ApiError("cross_site", "Requests from other sites are refused.");
-  }
-  const origin = req.headers.get("origin");
-  if (origin) {
-    const host = req.headers.get("x-forwarded-host") ?? req.headers.get("host") ?? new URL(req.url).host;
-    let originHost: string;
-    try {
-      originHost = new URL(origin).host;
-    } catch {
-      throw new ApiError("cross_site", "Requests from other sites are refused.");
-    }
-    if (originHost !== host) throw new ApiError("cross_site", "Requests from other sites are refused.");
-  }
+  const verdict = writeOrigin(req.headers);
+  if (verdict === "cross-site") throw new ApiError("cross_site", CROSS_SITE_MESSAGE);
+  if (verdict === "no-origin") throw new ApiError("cross_site", NO_ORIGIN_MESSAGE);
 }
 
 /** Route params of another shape (a job id that is not a number) are a 404, never a crash. */

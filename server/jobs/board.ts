@@ -37,6 +37,8 @@ export interface Board {
   cards: BoardCard[];
   techs: { id: string; name: string }[];
   customers: { id: number; name: string }[];
+  /** For an empty, unfiltered board: what the shop has on file, so the board can show the first steps. */
+  firstSteps: { customers: number; trucks: number } | null;
 }
 
 /** Every job on the board (all stages but delivered), ordered by column position, filtered as asked. */
@@ -52,7 +54,9 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       "job.id", "job.work_order", "job.stage", "job.version", "job.scope", "job.priority",
       "job.due_on", "customer.name as customer_name", "truck.unit_number", "truck.vin", "staff.name as tech_name",
     ])
-    .where("job.stage", "!=", "delivered");
+    // The board's stages by name, not "not delivered": the index finds them without reading the
+    // shop's delivered history.
+    .where("job.stage", "in", BOARD_STAGES);
   if (filter.tech === "none") query = query.where("job.assigned_tech_id", "is", null);
   else if (filter.tech) query = query.where("job.assigned_tech_id", "=", filter.tech);
   if (filter.customer) query = query.where("job.customer_id", "=", filter.customer);
@@ -77,7 +81,8 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
   const [records, coating] = await Promise.all([loadGateRecords(db, ids), coatingFlags(db, ids, now)]);
   const [techs, customers] = await Promise.all([
     db.selectFrom("staff").select(["id", "name"]).where("active", "=", 1).where("role", "=", "tech").orderBy("name").execute(),
-    db.selectFrom("customer").select(["id", "name"]).orderBy("name").execute(),
+    // Only customers with a job on the board: the filter offers what it can show.
+    db.selectFrom("customer").select(["id", "name"]).where("id", "in", db.selectFrom("job").select("customer_id").where("stage", "in", BOARD_STAGES)).orderBy("name").execute(),
   ]);
   const cards: BoardCard[] = rows.map((r) => {
     const gate = nextGateState(r.stage, r.scope, records.get(r.id)!);
@@ -98,5 +103,10 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       coating: coating.get(r.id) ?? null,
     };
   });
-  return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers };
+  const unfiltered = !filter.q && !filter.tech && !filter.customer && !filter.due;
+  const firstSteps =
+    cards.length === 0 && unfiltered
+      ? { customers: customers.length, trucks: Number((await db.selectFrom("truck").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n) }
+      : null;
+  return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers, firstSteps };
 }

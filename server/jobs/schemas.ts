@@ -1,7 +1,8 @@
 import { z } from "zod";
+import { calendarDate } from "@/server/http/calendar-date";
 import { STAGES } from "@/db/schema";
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-12-24.").refine((s) => !Number.isNaN(Date.parse(s)), "That date does not exist.");
+const isoDate = calendarDate("the due date");
 const id = (what: string) => z.number({ message: `Choose a ${what}.` }).int(`Choose a ${what}.`).positive(`Choose a ${what}.`);
 
 export const stageSchema = z.enum(STAGES, { message: "Unknown stage. Use one of: " + STAGES.join(", ") + "." });

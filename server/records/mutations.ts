@@ -241,7 +241,10 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
 export async function createVendor(db: DB, input: VendorInput): Promise<VendorView> {
   const id = await db.transaction().execute(async (trx) => {
     const same = await trx.selectFrom("vendor").select("id").where(sql<boolean>`name = ${input.name} collate nocase`).executeTakeFirst();
-    if (same) throw fieldErrors({ name: `A coater named “${input.name}” is already on the list.` });
+    if (same) {
+      const message = `A coater named “${input.name}” is already on the list.`;
+      throw new ApiError("conflict", message, { fields: { name: [message] } });
+    }
     const row = await trx
       .insertInto("vendor")
       .values({

@@ -1,11 +1,12 @@
 import { z } from "zod";
+import { calendarDate } from "@/server/http/calendar-date";
 import { expectedEndPressurePsig, SEA_LEVEL_PSIA } from "./leak-test";
 import { INDICATOR_INPUTS, INDICATOR_SOURCES, SIGN_OFF_CHECK_KEYS, type SignOffCheckKey } from "./sign-off";
 
 // Numbers arrive as numbers: the form converts its fields before parsing, so an empty box is
 // "missing", never a silent 0.
 
-const isoDate = (what: string) => z.iso.date({ error: `Enter ${what} as a date (YYYY-MM-DD).` });
+const isoDate = calendarDate;
 
 const name = (what: string) =>
   z

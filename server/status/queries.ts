@@ -4,6 +4,8 @@ import type { DB } from "@/db";
 import type { JobScope, Stage } from "@/db/schema";
 import { notifySettings } from "@/server/email/settings";
 import { stageIndex } from "@/server/jobs/stages";
+import { DEFAULT_STATUS_LINK_DAYS } from "@/server/email/schemas";
+import { queueLinkOpened } from "./opened";
 import { type LinkState, linkState } from "./rules";
 import { hashToken, looksLikeToken } from "./tokens";
 
@@ -42,10 +44,12 @@ export async function openStatusLink(db: DB, rawToken: string, now = new Date())
   return { state, linkId: link.id, jobId: link.job_id, lastOpenedAt: link.last_opened_at };
 }
 
-/** Kept coarse (once per ten minutes) so a page reload is a read, not a disk write. */
-export async function noteLinkOpened(db: DB, link: { linkId: number; lastOpenedAt: string | null }, now = new Date()) {
-  if (link.lastOpenedAt && now.getTime() - Date.parse(link.lastOpenedAt) < 10 * 60_000) return;
-  await db.updateTable("status_link").set({ last_opened_at: now.toISOString() }).where("id", "=", link.linkId).execute();
+/**
+ * Notes that a working link was opened, at most once an hour per link, and never on the request:
+ * the write is queued and made a moment later with any others (`server/status/opened.ts`).
+ */
+export function noteLinkOpened(db: DB, link: { linkId: number; lastOpenedAt: string | null }, now = new Date()) {
+  queueLinkOpened(db, link, now);
 }
 
 export async function shopContact(db: DB) {
@@ -100,11 +104,71 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
     scope: job.scope,
     readyBy: job.readyBy,
     linkDays: settings.statusLinkDays,
-    // A reorder inside a column is the shop's business, not a step of the job.
-    timeline: events
-      .filter((e) => e.from_stage !== e.to_stage)
-      .map((e) => ({ toStage: e.to_stage, back: e.from_stage !== null && stageIndex(e.to_stage) < stageIndex(e.from_stage), at: e.at })),
+    timeline: timelineOf(events),
     photos,
+  };
+}
+
+type EventRow = { from_stage: Stage | null; to_stage: Stage; at: string };
+
+// A reorder inside a column is the shop's business, not a step of the job.
+function timelineOf(events: EventRow[]): StatusView["timeline"] {
+  return events
+    .filter((e) => e.from_stage !== e.to_stage)
+    .map((e) => ({ toStage: e.to_stage, back: e.from_stage !== null && stageIndex(e.to_stage) < stageIndex(e.from_stage), at: e.at }));
+}
+
+export interface StatusPageRead {
+  link: OpenedLink;
+  view: StatusView | null;
+  shop: StatusView["shop"];
+}
+
+/**
+ * Everything the status page shows, in one statement: the link and whether it still works, the
+ * job, the truck, the timeline, the customer's photos, the shop's contact and link setting. The
+ * shop's row comes back even for an unknown token, for the "link not working" page.
+ */
+export async function readStatusPage(db: DB, rawToken: string, now = new Date()): Promise<StatusPageRead> {
+  const tokenHash = looksLikeToken(rawToken) ? hashToken(rawToken) : null;
+  const { rows } = await sql<{
+    linkId: number | null; jobId: number | null; revokedAt: string | null; lastOpenedAt: string | null;
+    stage: Stage | null; scope: JobScope | null; readyBy: string | null; unitNumber: string | null; year: number | null; description: string | null; vinTail: string | null;
+    deliveredAt: string | null; events: string | null; photos: string | null;
+    shopName: string | null; shopPhone: string | null; shopTimeZone: string | null; linkDays: number | null;
+  }>`select l.id as "linkId", l.job_id as "jobId", l.revoked_at as "revokedAt", l.last_opened_at as "lastOpenedAt",
+      j.stage, j.scope, j.due_on as "readyBy", t.unit_number as "unitNumber", t.year, t.description, substr(t.vin, -6) as "vinTail",
+      case when j.stage = 'delivered' then (select e.at from stage_event e where e.job_id = j.id and e.to_stage = 'delivered' order by e.id desc limit 1) end as "deliveredAt",
+      case when j.id is not null then (select json_group_array(json_array(e.from_stage, e.to_stage, e.at) order by e.id) from stage_event e where e.job_id = j.id) end as events,
+      case when j.id is not null then (select json_group_array(json_object('id', p.id, 'caption', p.caption, 'stage', p.stage, 'width', p.width, 'height', p.height) order by p.id)
+        from photo p where p.job_id = j.id and p.customer_visible = 1) end as photos,
+      s.name as "shopName", s.phone as "shopPhone", s.time_zone as "shopTimeZone", m.status_link_days as "linkDays"
+    from (select 1) as one
+    left join status_link l on l.token_hash = ${tokenHash}
+    left join job j on j.id = l.job_id
+    left join truck t on t.id = j.truck_id
+    left join shop s on s.id = 1
+    left join message_setting m on m.id = 1`.execute(db);
+  const row = rows[0];
+  const shop = { name: row.shopName ?? "The shop", phone: row.shopPhone ?? "", timeZone: row.shopTimeZone ?? "US/Central" };
+  if (row.linkId === null || row.jobId === null || row.stage === null) return { link: { state: "unknown" }, view: null, shop };
+  const linkDays = row.linkDays ?? DEFAULT_STATUS_LINK_DAYS;
+  const state = linkState({ revoked_at: row.revokedAt }, { stage: row.stage, deliveredAt: row.deliveredAt }, linkDays, now);
+  if (state !== "active") return { link: { state, linkId: row.linkId }, view: null, shop };
+  const events = (JSON.parse(row.events ?? "[]") as [Stage | null, Stage, string][]).map(([from_stage, to_stage, at]) => ({ from_stage, to_stage, at }));
+  return {
+    link: { state, linkId: row.linkId, jobId: row.jobId, lastOpenedAt: row.lastOpenedAt },
+    shop,
+    view: {
+      shop,
+      truck: { unitNumber: row.unitNumber ?? "", year: row.year ?? 0, description: row.description ?? "", vinTail: row.vinTail ?? "" },
+      stage: row.stage,
+      scope: row.scope!,
+      readyBy: row.readyBy,
+      linkDays,
+      timeline: timelineOf(events),
+      photos: JSON.parse(row.photos ?? "[]") as StatusView["photos"],
+    },
   };
 }
 

@@ -4,8 +4,14 @@ import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
 
 const enabled = Boolean(baseUrl());
 
+const ROUTE = ["queued", "fabricate", "pressure_test", "coating", "install", "wire", "ready"] as const;
+const LABELS: Record<string, string> = {
+  queued: "Queued", fabricate: "Fabricate", pressure_test: "Pressure test", coating: "Outside coating",
+  install: "Install", wire: "Wire & verify", ready: "Ready for pickup",
+};
+
 async function cardsIn(page: Page, stage: string) {
-  return page.locator(`ul[data-stage="${stage}"] > li[data-card]`).evaluateAll((els) => els.map((e) => e.getAttribute("data-card")));
+  return page.locator(`ul[data-stage="${stage}"] > li[data-card]`).evaluateAll((els) => els.map((e) => e.getAttribute("data-card")!));
 }
 
 async function firstCardIn(page: Page, stage: string) {
@@ -16,6 +22,28 @@ async function firstCardIn(page: Page, stage: string) {
 
 async function waitForCard(page: Page, workOrder: string, stage: string) {
   await page.locator(`ul[data-stage="${stage}"] > li[data-card="${workOrder}"]`).waitFor({ timeout: 10_000 });
+}
+
+/** Counts the move and undo requests the page sends, to prove that nothing was sent. */
+function countMoves(page: Page) {
+  const seen: string[] = [];
+  page.on("request", (r) => {
+    if (/\/api\/jobs\/\d+\/(moves|undo)$/.test(r.url())) seen.push(r.url());
+  });
+  return seen;
+}
+
+async function focusedCard(page: Page) {
+  return page.evaluate(() => document.activeElement?.closest("li[data-card]")?.getAttribute("data-card") ?? null);
+}
+
+async function mouseDrag(page: Page, workOrder: string, to: { x: number; y: number }) {
+  const from = (await page.locator(`li[data-card="${workOrder}"] [data-drag-handle]`).boundingBox())!;
+  await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2);
+  await page.mouse.down();
+  await page.mouse.move(from.x + from.width / 2 + 12, from.y + from.height / 2 + 4, { steps: 3 });
+  await page.mouse.move(to.x, to.y, { steps: 20 });
+  await page.mouse.up();
 }
 
 describe.skipIf(!enabled)("the board in Chromium", () => {
@@ -32,61 +60,224 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     const page = await signIn(context, "tech");
     await shot(page, "board-desk");
     const wo = await firstCardIn(page, "fabricate");
-    const handle = page.locator(`li[data-card="${wo}"] button[aria-label^="Drag"]`);
-    const target = page.locator('ul[data-stage="pressure_test"]');
-    const from = (await handle.boundingBox())!;
-    const to = (await target.boundingBox())!;
-    await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2);
-    await page.mouse.down();
-    await page.mouse.move(from.x + 30, from.y + 10, { steps: 5 });
+    const target = (await page.locator('ul[data-stage="pressure_test"]').boundingBox())!;
     // Aim near the top of the column: its bottom can sit below the window on a busy board.
-    await page.mouse.move(to.x + to.width / 2, to.y + 40, { steps: 15 });
-    await page.mouse.up();
+    await mouseDrag(page, wo, { x: target.x + target.width / 2, y: target.y + 40 });
     await waitForCard(page, wo, "pressure_test");
+    await page.locator("[data-move-toast]", { hasText: `Moved ${wo} to Pressure test` }).waitFor();
     await page.waitForResponse((r) => r.url().includes("/api/board"), { timeout: 10_000 }).catch(() => undefined);
     await page.reload();
     await waitForCard(page, wo, "pressure_test");
     await context.close();
   });
 
-  it("the demo tech moves a card with the keyboard", async () => {
+  it("ArrowDown on a focused 'Move to…' only changes the choice; Move (or Enter) moves, and Undo puts the card back in the same place", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "tech");
+    const moves = countMoves(page);
+    const before = await cardsIn(page, "install");
+    expect(before.length, "Install holds at least two cards").toBeGreaterThanOrEqual(2);
+    const wo = before[1]!;
+    const list = page.locator(`li[data-card="${wo}"] select[data-move-to]`);
+    await list.focus();
+    await page.keyboard.press("ArrowDown");
+    await page.keyboard.press("ArrowDown");
+    expect(await list.inputValue(), "the arrow keys changed the choice").not.toBe("");
+    await page.waitForTimeout(1500);
+    expect(moves).toEqual([]);
+    expect(await cardsIn(page, "install")).toEqual(before);
+
+    // A backward move is always allowed: choose Pressure test and press Move.
+    await list.selectOption("pressure_test");
+    expect(moves).toEqual([]);
+    await page.locator(`li[data-card="${wo}"]`).getByRole("button", { name: `Move ${wo} to Pressure test` }).click();
+    await waitForCard(page, wo, "pressure_test");
+    const toast = page.locator("[data-move-toast]");
+    await toast.getByText(`Moved ${wo} to Pressure test`).waitFor();
+    expect(await focusedCard(page)).toBe(wo);
+    await shot(page, "board-desk-moved");
+    await toast.getByRole("button", { name: `Undo: put ${wo} back in Install` }).click();
+    await toast.getByText(`${wo} is back in Install.`).waitFor();
+    expect(await cardsIn(page, "install")).toEqual(before);
+    expect(await focusedCard(page)).toBe(wo);
+    await page.reload();
+    await waitForCard(page, wo, "install");
+    expect(await cardsIn(page, "install")).toEqual(before);
+    expect(moves).toHaveLength(2);
+
+    // Enter on the list moves too.
+    const again = page.locator(`li[data-card="${wo}"] select[data-move-to]`);
+    await again.selectOption("pressure_test");
+    await again.press("Enter");
+    await waitForCard(page, wo, "pressure_test");
+    await page.locator("[data-move-toast]").getByRole("button", { name: /^Undo/ }).click();
+    await waitForCard(page, wo, "install");
+    expect(await cardsIn(page, "install")).toEqual(before);
+    await context.close();
+  });
+
+  it("a mouse drop into an empty column lands in the column under the pointer at 10 %, 50 % and 90 % of its width", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "owner");
+    const wo = await firstCardIn(page, "wire");
+    // Searching for the one work order empties every other column on screen.
+    await page.goto(`${baseUrl()}/board?q=${encodeURIComponent(wo)}`);
+    await waitForCard(page, wo, "wire");
+    // Backward moves are always allowed, so each drop is decided by where the pointer is alone.
+    for (const [stage, share] of [["install", 0.1], ["coating", 0.5], ["pressure_test", 0.9]] as const) {
+      expect(await cardsIn(page, stage), `${stage} is empty on screen`).toEqual([]);
+      const column = (await page.locator(`[data-drop-stage="${stage}"]`).boundingBox())!;
+      await mouseDrag(page, wo, { x: column.x + column.width * share, y: column.y + 80 });
+      await waitForCard(page, wo, stage);
+      await page.locator("[data-move-toast]", { hasText: `Moved ${wo} to ${LABELS[stage]}` }).waitFor();
+    }
+    await page.reload();
+    await waitForCard(page, wo, "pressure_test");
+    // Back where it was: Wire & verify, its records unchanged.
+    await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("wire");
+    await page.getByRole("button", { name: `Move ${wo} to Wire & verify` }).click();
+    await waitForCard(page, wo, "wire");
+    await context.close();
+  });
+
+  it("Right pressed from Fabricate visits every stage after it in order; Escape leaves the card where it was, focused", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "tech");
     const wo = await firstCardIn(page, "fabricate");
-    const handle = page.locator(`li[data-card="${wo}"] button[aria-label^="Drag"]`);
-    await handle.focus();
+    await page.locator(`li[data-card="${wo}"] [data-drag-handle]`).focus();
+    await page.keyboard.press("Space");
+    await page.waitForTimeout(200);
+    const news = page.locator("[data-drag-news]");
+    const visited: string[] = [];
+    for (const stage of ROUTE.slice(2)) {
+      await page.keyboard.press("ArrowRight");
+      await expect.poll(() => news.textContent()).toContain(`over ${LABELS[stage]},`);
+      expect(await page.locator(`ul[data-stage="${stage}"].border-dashed`).count(), `${stage} is marked as the target`).toBe(1);
+      visited.push(stage);
+    }
+    expect(visited).toEqual(["pressure_test", "coating", "install", "wire", "ready"]);
+    await page.keyboard.press("ArrowLeft");
+    await expect.poll(() => news.textContent()).toContain("over Wire & verify,");
+    await page.keyboard.press("Escape");
+    await page.waitForTimeout(300);
+    expect(await cardsIn(page, "fabricate")).toContain(wo);
+    await expect.poll(() => focusedCard(page)).toBe(wo);
+    await context.close();
+  });
+
+  it("after a keyboard drop the focus is on the moved card, in its new column", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "tech");
+    const wo = await firstCardIn(page, "fabricate");
+    await page.locator(`li[data-card="${wo}"] [data-drag-handle]`).focus();
     await page.keyboard.press("Space");
     await page.waitForTimeout(200);
     await page.keyboard.press("ArrowRight");
-    await page.waitForTimeout(300);
+    await page.keyboard.press("ArrowDown");
     await page.keyboard.press("Space");
     await waitForCard(page, wo, "pressure_test");
+    await expect.poll(() => focusedCard(page)).toBe(wo);
+    await page.locator("[data-move-toast]", { hasText: `Moved ${wo} to Pressure test` }).waitFor();
     await page.reload();
     await waitForCard(page, wo, "pressure_test");
     await context.close();
   });
 
-  it("a refused move snaps back and says why", async () => {
+  it("a refused move stays put, says what it needs, and takes the focus", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "tech");
     const wo = await firstCardIn(page, "wire");
-    await page.locator(`li[data-card="${wo}"] select`).selectOption("ready");
+    await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
+    await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
     const alert = page.locator(`li[data-card="${wo}"] [role="alert"]`);
     await alert.waitFor();
+    expect(await alert.textContent()).toMatch(/Needs before it can move to Ready for pickup/);
     expect(await alert.textContent()).toMatch(/sign-off/i);
+    expect(await alert.textContent()).not.toMatch(/gate/i);
+    await expect.poll(() => page.evaluate(() => document.activeElement?.hasAttribute("data-refusal") ?? false)).toBe(true);
     await waitForCard(page, wo, "wire");
     await shot(page, "board-refused");
     await context.close();
   });
 
-  it("works on a phone: the columns scroll sideways and a card moves with 'Move to…'", async () => {
+  it("on a 390 px phone the first screen shows cards, the filters fold into one button, and a card moves with 'Move to…'", async () => {
     const context = await browser.newContext(PHONE);
     const page = await signIn(context, "tech");
-    await shot(page, "board-phone");
+    await page.screenshot({ path: "screenshots/board-phone-first-screen.png" });
+    const firstCard = (await page.locator("li[data-card]").first().boundingBox())!;
+    expect(firstCard.y + 80, "a card shows in the first screen").toBeLessThan(PHONE.viewport.height);
+    expect(await page.locator("#board-filters").isVisible()).toBe(false);
+    const filterButton = page.getByRole("button", { name: /^Filter/ });
+    await filterButton.click();
+    await page.getByLabel("Due").selectOption("overdue");
+    await expect.poll(() => filterButton.textContent()).toBe("Filter · 1 on");
+    await page.getByRole("button", { name: "Clear filters" }).click();
+    await filterButton.click();
+
     const card = page.locator('ul[data-stage="queued"] > li[data-card]:has(option[value="fabricate"])').first();
     const wo = (await card.getAttribute("data-card"))!;
     await card.locator("select").selectOption("fabricate");
+    await card.getByRole("button", { name: `Move ${wo} to Fabricate` }).click();
     await waitForCard(page, wo, "fabricate");
+    const toast = page.locator("[data-move-toast]");
+    await toast.waitFor();
+    await page.waitForTimeout(800);
+    const moved = (await page.locator(`li[data-card="${wo}"]`).boundingBox())!;
+    expect(moved.x, "the moved card is scrolled into view").toBeGreaterThanOrEqual(0);
+    expect(moved.x + moved.width).toBeLessThanOrEqual(PHONE.viewport.width + 1);
+    expect(moved.y).toBeLessThan(PHONE.viewport.height);
+    await page.screenshot({ path: "screenshots/board-phone-moved.png" });
+    await context.close();
+  });
+
+  it("a touch drag carries a card two columns on a 390 px phone, the board stepping one column at a time at the edge", async () => {
+    const context = await browser.newContext(PHONE);
+    const page = await signIn(context, "tech");
+    const wo = await firstCardIn(page, "install");
+    await page.getByRole("link", { name: /^Install/ }).click();
+    await page.waitForTimeout(800);
+    const handle = (await page.locator(`li[data-card="${wo}"] [data-drag-handle]`).boundingBox())!;
+    const start = { x: handle.x + handle.width / 2, y: handle.y + handle.height / 2 };
+    const cdp = await context.newCDPSession(page);
+    const touch = (type: "touchStart" | "touchMove" | "touchEnd", p?: { x: number; y: number }) => cdp.send("Input.dispatchTouchEvent", { type, touchPoints: p ? [{ x: p.x, y: p.y }] : [] });
+    const stageAt = (x: number, y: number) =>
+      page.evaluate(([px, py]) => {
+        for (const el of document.elementsFromPoint(px, py)) {
+          if (el.closest("[data-drag-overlay]")) continue;
+          const s = el.closest<HTMLElement>("[data-drop-stage]");
+          if (s) return s.dataset.dropStage ?? null;
+        }
+        return null;
+      }, [x, y] as const);
+    await touch("touchStart", start);
+    await page.waitForTimeout(300);
+    for (let i = 1; i <= 10; i++) await touch("touchMove", { x: start.x - ((start.x - 8) * i) / 10, y: start.y });
+    const middle = { x: PHONE.viewport.width / 2, y: start.y };
+    const seen: string[] = [];
+    // Held at the left edge, the board steps back one column at a time: Outside coating, then Pressure test.
+    for (let t = 0; t < 60; t++) {
+      const stage = await stageAt(middle.x, middle.y);
+      if (stage && seen.at(-1) !== stage) seen.push(stage);
+      if (stage === "pressure_test") break;
+      await page.waitForTimeout(100);
+    }
+    expect(seen).toEqual(["install", "coating", "pressure_test"]);
+    for (let i = 1; i <= 5; i++) await touch("touchMove", { x: 8 + ((middle.x - 8) * i) / 5, y: middle.y });
+    await touch("touchEnd");
+    await waitForCard(page, wo, "pressure_test");
+    await page.screenshot({ path: "screenshots/board-phone-touch-drop.png" });
+    await page.locator("[data-move-toast]").getByRole("button", { name: /^Undo/ }).click();
+    await waitForCard(page, wo, "install");
+    await context.close();
+  });
+
+  it("a tech sent away from an office page is told why on the board", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "tech");
+    await page.goto(`${baseUrl()}/staff`);
+    await page.waitForURL(/\/board\?denied=1/);
+    expect(await page.getByRole("note").textContent()).toMatch(/for the office and the owner/);
+    expect(await page.getByRole("link", { name: "New job" }).count()).toBe(0);
     await context.close();
   });
 });

@@ -17,7 +17,7 @@ async function version(api: APIRequestContext, jobId: number) {
 
 /** A move into Install is refused by the gate, with the reason given, and the job stays where it is. */
 async function expectRefused(api: APIRequestContext, jobId: number, reason: RegExp) {
-  const res = await api.post(`${baseUrl()}/api/jobs/${jobId}/moves`, { data: { toStage: "install", version: await version(api, jobId) } });
+  const res = await api.post(`${baseUrl()}/api/jobs/${jobId}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: await version(api, jobId) } });
   expect(res.status()).toBe(422);
   expect((await res.json()).error.details.unmet).toEqual([expect.stringMatching(reason)]);
 }
@@ -77,7 +77,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const trucks = ["Harlan Ridge Heavy Haul", "Tamsin Flats Recovery"].map((name) => jobs.find((j) => j.customerName === name)!);
     const [jobA, jobB] = await Promise.all(
       trucks.map(async (t, i) =>
-        (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { data: { customerId: t.customerId, truckId: t.truckId, scope: "fabrication", description: `Wet kit ${suffix}-${i}` } }), 201)).job as { id: number; workOrder: string },
+        (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: t.customerId, truckId: t.truckId, scope: "fabrication", description: `Wet kit ${suffix}-${i}` } }), 201)).job as { id: number; workOrder: string },
       ),
     );
     const tankA = `Round reservoir ${suffix}-A`;
@@ -148,14 +148,14 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await editForm.getByRole("button", { name: "Cancel" }).click();
 
     // Job B's tank through the API, first refused at the coating gate, then tested.
-    const partB = (await json(await phone.request.post(`${baseUrl()}/api/jobs/${jobB.id}/parts`, { data: { name: tankB, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201)).part;
-    const refused = await phone.request.post(`${baseUrl()}/api/jobs/${jobB.id}/moves`, { data: { toStage: "coating", version: await version(phone.request, jobB.id) } });
+    const partB = (await json(await phone.request.post(`${baseUrl()}/api/jobs/${jobB.id}/parts`, { headers: { origin: baseUrl() }, data: { name: tankB, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201)).part;
+    const refused = await phone.request.post(`${baseUrl()}/api/jobs/${jobB.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "coating", version: await version(phone.request, jobB.id) } });
     expect(refused.status()).toBe(422);
     expect((await refused.json()).error.details.unmet[0]).toMatch(new RegExp(`${tankB}: record a passing leak test`));
     const testB = { method: "both", testPressurePsig: 4, gaugeFullScalePsi: 10, gaugeCalibratedOn: calibratedOn, holdMinutes: 20, startPressurePsig: 4, endPressurePsig: 4, startTempF: 70, endTempF: 70, seams: [{ location: "Sump to shell", result: "pass" }], tester: "Tobin Reyes" };
-    expect((await json(await phone.request.post(`${baseUrl()}/api/parts/${partB.id}/leak-tests`, { data: testB }), 201)).result).toBe("pass");
+    expect((await json(await phone.request.post(`${baseUrl()}/api/parts/${partB.id}/leak-tests`, { headers: { origin: baseUrl() }, data: testB }), 201)).result).toBe("pass");
     for (const job of [jobA, jobB]) {
-      await json(await phone.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { data: { toStage: "coating", version: await version(phone.request, job.id) } }));
+      await json(await phone.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "coating", version: await version(phone.request, job.id) } }));
     }
     await bench.close();
 
@@ -205,7 +205,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await desk.getByRole("combobox", { name: /^Move to/ }).selectOption("install");
     await desk.getByRole("button", { name: "Move to Install" }).click();
     await desk.getByText("Moved to Install.").waitFor();
-    await json(await desk.request.post(`${baseUrl()}/api/jobs/${jobB.id}/moves`, { data: { toStage: "install", version: await version(desk.request, jobB.id) } }));
+    await json(await desk.request.post(`${baseUrl()}/api/jobs/${jobB.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: await version(desk.request, jobB.id) } }));
     await office.close();
   });
 
@@ -251,10 +251,10 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const desk = await signIn(office, "office");
     const jobs = (await json<{ jobs: { customerName: string; customerId: number; truckId: number }[] }>(await desk.request.get(`${baseUrl()}/api/jobs`))).jobs;
     const truck = jobs.find((j) => j.customerName === "Harlan Ridge Heavy Haul")!;
-    const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { data: { customerId: truck.customerId, truckId: truck.truckId, scope: "fabrication", description: `Spare tank ${Date.now().toString(36)}` } }), 201)).job as { id: number; workOrder: string };
+    const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: truck.customerId, truckId: truck.truckId, scope: "fabrication", description: `Spare tank ${Date.now().toString(36)}` } }), 201)).job as { id: number; workOrder: string };
     const tank = `Round reservoir ${job.workOrder}`;
-    await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, { data: { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201);
-    await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { data: { toStage: "fabricate", version: await version(desk.request, job.id) } }));
+    await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, { headers: { origin: baseUrl() }, data: { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201);
+    await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "fabricate", version: await version(desk.request, job.id) } }));
 
     // The fabricator opens the job at the bench while it is still in Fabricate…
     const context = await browser.newContext(PHONE);
@@ -263,7 +263,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const part = page.locator(`li[data-part="${tank}"]`);
     await part.getByText("Not leak-tested yet").waitFor();
     // …and the card moves on to Pressure test from the board on another screen.
-    await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { data: { toStage: "pressure_test", version: await version(desk.request, job.id) } }));
+    await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "pressure_test", version: await version(desk.request, job.id) } }));
 
     await part.getByRole("button", { name: "Record a leak test" }).click();
     const form = part.getByRole("form");
@@ -309,9 +309,9 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const desk = await signIn(office, "office");
     const jobs = (await json<{ jobs: { customerName: string; customerId: number; truckId: number }[] }>(await desk.request.get(`${baseUrl()}/api/jobs`))).jobs;
     const truck = jobs.find((j) => j.customerName === "Dell Okafor")!;
-    const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { data: { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `Indicator rewire ${Date.now().toString(36)}` } }), 201)).job as { id: number };
+    const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `Indicator rewire ${Date.now().toString(36)}` } }), 201)).job as { id: number };
     const checks = { indicator_follows_pto: true, pto_engages_per_procedure: true, breakaways_secured_capped: true };
-    const first = (await json(await desk.request.put(`${baseUrl()}/api/jobs/${job.id}/sign-off`, { data: { indicatorSource: "switch", indicatorInput: "ground_active", checks, expectedVersion: 0 } }))).signOff;
+    const first = (await json(await desk.request.put(`${baseUrl()}/api/jobs/${job.id}/sign-off`, { headers: { origin: baseUrl() }, data: { indicatorSource: "switch", indicatorInput: "ground_active", checks, expectedVersion: 0 } }))).signOff;
     expect(first.version).toBe(1);
 
     const context = await browser.newContext(PHONE);
@@ -321,7 +321,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     expect(await form.getByRole("checkbox", { name: /Breakaway air and hydraulic/ }).isChecked()).toBe(true);
 
     // Meanwhile the office finds a breakaway uncapped and un-ticks it.
-    await json(await desk.request.put(`${baseUrl()}/api/jobs/${job.id}/sign-off`, { data: { indicatorSource: "switch", indicatorInput: "ground_active", checks: { ...checks, breakaways_secured_capped: false }, expectedVersion: 1 } }));
+    await json(await desk.request.put(`${baseUrl()}/api/jobs/${job.id}/sign-off`, { headers: { origin: baseUrl() }, data: { indicatorSource: "switch", indicatorInput: "ground_active", checks: { ...checks, breakaways_secured_capped: false }, expectedVersion: 1 } }));
 
     await form.getByRole("checkbox", { name: /Pump runs without cavitation/ }).check();
     await form.getByRole("button", { name: "Save draft" }).click();

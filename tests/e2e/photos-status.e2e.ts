@@ -101,10 +101,10 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
 
     // The tech writes an internal note, then the job moves on.
     const current = await (await page.request.get(`${baseUrl()}/api/jobs/${job.id}`)).json();
-    const noted = await page.request.patch(`${baseUrl()}/api/jobs/${job.id}`, { data: { version: current.job.version, notes: secretNote } });
+    const noted = await page.request.patch(`${baseUrl()}/api/jobs/${job.id}`, { headers: { origin: baseUrl() }, data: { version: current.job.version, notes: secretNote } });
     expect(noted.status()).toBe(200);
     const since = new Date().toISOString();
-    const moved = await page.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { data: { toStage: "wire", version: (await noted.json()).job.version } });
+    const moved = await page.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "wire", version: (await noted.json()).job.version } });
     expect(moved.status()).toBe(200);
 
     const mail = await mailFor(job.unit, since);

@@ -70,6 +70,8 @@ beforeAll(async () => {
   process.env.UPLOADTHING_LOG_LEVEL = "None";
   process.env.PHOTOS_DIR = tempDir();
   app = await serveUploadRoute();
+  // The app's own address: the uploader's writes carry it as their Origin.
+  process.env.APP_URL = app.url;
 });
 afterAll(async () => {
   await app?.close();
@@ -100,7 +102,7 @@ type FileSpec = { name: string; type: string; bytes: Uint8Array; declaredSize?: 
 async function upload(files: FileSpec[], input: unknown, opts: { cookie?: string; headers?: Record<string, string> } = {}) {
   const action = await fetch(`${app.url}/api/uploadthing?actionType=upload&slug=jobPhoto`, {
     method: "POST",
-    headers: { "content-type": "application/json", ...(opts.cookie ? { cookie: opts.cookie } : {}), ...opts.headers },
+    headers: { "content-type": "application/json", origin: app.url, ...(opts.cookie ? { cookie: opts.cookie } : {}), ...opts.headers },
     body: JSON.stringify({ files: files.map((f) => ({ name: f.name, size: f.declaredSize ?? f.bytes.length, type: f.type, lastModified: Date.now() })), input }),
   });
   const body = await action.json();

@@ -1,4 +1,5 @@
 import { lucia } from "@/server/auth/lucia";
+import { appOrigin } from "@/server/http/origin";
 
 const BASE = "http://localhost:3000";
 
@@ -18,9 +19,11 @@ export function request(path: string, call: Call = {}): Request {
   if (call.body !== undefined) {
     body = JSON.stringify(call.body);
     headers["content-type"] ??= "application/json";
-    headers.origin ??= BASE;
   }
-  return new Request(BASE + path, { method: call.method ?? (body === undefined ? "GET" : "POST"), headers, body });
+  const method = call.method ?? (body === undefined ? "GET" : "POST");
+  // A browser on the shop's own pages sends its Origin with every write.
+  if (method !== "GET" && method !== "HEAD") headers.origin ??= appOrigin();
+  return new Request(BASE + path, { method, headers, body });
 }
 
 export async function sessionCookieFor(staffId: string) {

@@ -1,8 +1,8 @@
 "use client";
 
-import { useSortable } from "@dnd-kit/sortable";
-import { CSS } from "@dnd-kit/utilities";
+import { useDraggable } from "@dnd-kit/core";
 import Link from "next/link";
+import { useState } from "react";
 import { formatDay } from "@/components/dates";
 import { IconCheck, IconClock, IconPerson, IconStop, IconWarn } from "@/components/icons";
 import type { MoveRefusal } from "@/components/move-job";
@@ -17,10 +17,12 @@ export interface CardActions {
   dismiss: (card: BoardCard) => void;
 }
 
-export function SortableCard({ card, refusal, pending, actions }: { card: BoardCard; refusal?: MoveRefusal; pending: boolean; actions: CardActions }) {
-  const { attributes, listeners, setNodeRef, setActivatorNodeRef, transform, transition, isDragging } = useSortable({ id: card.id, data: { stage: card.stage } });
+/** A card on the board; `dropBefore` draws the line where a dragged card would land, without moving anything. */
+export function DraggableCard({ card, refusal, pending, actions, dropBefore, keyboardTarget }: { card: BoardCard; refusal?: MoveRefusal; pending: boolean; actions: CardActions; dropBefore: boolean; keyboardTarget: boolean }) {
+  const { attributes, listeners, setNodeRef, setActivatorNodeRef, isDragging } = useDraggable({ id: card.id, data: { stage: card.stage } });
   return (
-    <li ref={setNodeRef} style={{ transform: CSS.Translate.toString(transform), transition }} className={isDragging ? "opacity-40" : undefined} data-card={card.workOrder}>
+    <li ref={setNodeRef} className={`relative scroll-mt-24 scroll-mb-28 ${isDragging ? "opacity-40" : ""}`} data-card={card.workOrder} data-card-id={card.id}>
+      {dropBefore && <DropLine where="top" label={keyboardTarget} />}
       <CardBody
         card={card}
         refusal={refusal}
@@ -34,6 +36,7 @@ export function SortableCard({ card, refusal, pending, actions }: { card: BoardC
             {...listeners}
             // touch-action must be set inline: the class alone is not honoured by every touch browser.
             style={{ touchAction: "none" }}
+            data-drag-handle
             aria-label={`Drag ${card.workOrder} to another stage or place`}
             className="grid h-11 w-9 shrink-0 cursor-grab pointer-coarse:w-11 place-items-center rounded-md text-ink-soft hover:bg-bay-50 active:cursor-grabbing"
           >
@@ -89,15 +92,20 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
             </dd>
           </div>
         )}
-        {card.scope === "install_only" && <dd className="text-xs font-semibold uppercase tracking-wide text-ink-soft">Install only</dd>}
+        {card.scope === "install_only" && (
+          <div>
+            <dt className="sr-only">Work</dt>
+            <dd className="text-xs font-semibold uppercase tracking-wide text-ink-soft">Install only</dd>
+          </div>
+        )}
         {card.gate && (
           <div>
-            <dt className="sr-only">Next gate</dt>
+            <dt className="sr-only">Needs before it can move to {card.gate.label}</dt>
             <dd className={gateMet ? "text-ok-700" : "text-warn-700"}>
-              {gateMet ? <IconCheck /> : <IconStop />} Gate to {card.gate.label}: {gateMet ? "met" : `${card.gate.unmet.length} missing`}
+              {gateMet ? <IconCheck /> : <IconStop />} {gateMet ? `Has what ${card.gate.label} needs` : `Needs before it can move to ${card.gate.label}: ${card.gate.unmet.length} ${card.gate.unmet.length === 1 ? "thing" : "things"}`}
               {!gateMet && (
                 <details className="text-xs text-ink">
-                  <summary className="cursor-pointer text-warn-700 underline pointer-coarse:flex pointer-coarse:min-h-11 pointer-coarse:items-center">What is missing</summary>
+                  <summary className="cursor-pointer text-warn-700 underline pointer-coarse:flex pointer-coarse:min-h-11 pointer-coarse:items-center">What it still needs</summary>
                   <ul className="mt-1 list-disc pl-4">
                     {card.gate.unmet.map((u) => (
                       <li key={u}>{u}</li>
@@ -109,28 +117,70 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
           </div>
         )}
       </dl>
-      {actions && (
-        <label className="mt-1 block">
-          <span className="sr-only">Move {card.workOrder} to</span>
-          <select
-            value=""
-            onChange={(e) => e.target.value && actions.moveTo(card, e.target.value as Stage)}
-            className="min-h-11 w-full rounded-md border border-line bg-paper px-2 text-sm font-semibold text-bay-900"
-          >
-            <option value="">Move to…</option>
-            {route.map((s) => (
-              <option key={s} value={s}>
-                {STAGE_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        </label>
-      )}
+      {actions && <MoveToList card={card} stages={route} onMove={(stage) => actions.moveTo(card, stage)} />}
       {refusal && actions && (
         <div className="mt-2">
           <RefusalNote refusal={refusal} onOverride={(reason) => actions.override(card, reason)} onDismiss={() => actions.dismiss(card)} jobHref={`/jobs/${card.id}`} />
         </div>
       )}
     </article>
+  );
+}
+
+/** The line (and, for keyboard moves, a label) where a dragged card would land. */
+export function DropLine({ where, label }: { where: "top" | "bottom"; label: boolean }) {
+  return (
+    <div data-drop-marker aria-hidden="true" className={`pointer-events-none absolute inset-x-0 z-10 flex items-center ${where === "top" ? "-top-1.5" : "-bottom-1.5"}`}>
+      <div className="h-1 flex-1 rounded-full bg-bay-600" />
+      {label && <span className="ml-1 rounded bg-bay-600 px-1.5 text-xs font-bold text-white">Drops here</span>}
+    </div>
+  );
+}
+
+/**
+ * "Move to…" only chooses: arrow keys and a gloved tap change the choice, and the card moves
+ * when Move is pressed (or Enter on the list).
+ */
+function MoveToList({ card, stages, onMove }: { card: BoardCard; stages: Stage[]; onMove: (stage: Stage) => void }) {
+  const [choice, setChoice] = useState<Stage | "">("");
+  const go = () => {
+    if (!choice) return;
+    onMove(choice);
+    setChoice("");
+  };
+  return (
+    <div className="mt-1 flex gap-1">
+      <label className="min-w-0 flex-1">
+        <span className="sr-only">Move {card.workOrder} to</span>
+        <select
+          value={choice}
+          data-move-to
+          onChange={(e) => setChoice(e.target.value as Stage | "")}
+          onKeyDown={(e) => {
+            if (e.key === "Enter" && choice) {
+              e.preventDefault();
+              go();
+            }
+          }}
+          className="min-h-11 w-full rounded-md border border-line bg-paper px-2 text-sm font-semibold text-bay-900 xl:px-1"
+        >
+          <option value="">Move to…</option>
+          {stages.map((s) => (
+            <option key={s} value={s}>
+              {STAGE_LABELS[s]}
+            </option>
+          ))}
+        </select>
+      </label>
+      <button
+        type="button"
+        onClick={go}
+        aria-disabled={!choice}
+        aria-label={choice ? `Move ${card.workOrder} to ${STAGE_LABELS[choice]}` : `Move ${card.workOrder}: choose a stage first`}
+        className={`min-h-11 shrink-0 rounded-md px-3 text-sm font-semibold xl:px-2 ${choice ? "bg-bay-700 text-white hover:bg-bay-800" : "border border-line bg-panel text-ink-soft"}`}
+      >
+        Move
+      </button>
+    </div>
   );
 }

@@ -4,8 +4,16 @@ import { useEffect, useState } from "react";
 import { inputClass } from "@/components/form";
 import type { Board, BoardFilter } from "./board-types";
 
-/** Filters live in the URL so a view can be shared or bookmarked at the desk. */
-export function BoardFilters({ filter, board, onChange, meId }: { filter: BoardFilter; board: Board; onChange: (f: BoardFilter) => void; meId: string }) {
+/** How many filters narrow the board now, shown on the phone's folded "Filter" button. */
+export function activeFilterCount(filter: BoardFilter) {
+  return [filter.q, filter.tech, filter.customer, filter.due].filter((v) => v !== undefined && v !== "").length;
+}
+
+/**
+ * Filters live in the URL so a view can be shared or bookmarked at the desk. On a phone they fold
+ * behind one "Filter" button (`open`), so the first screen shows cards.
+ */
+export function BoardFilters({ filter, board, onChange, meId, open }: { filter: BoardFilter; board: Board; onChange: (f: BoardFilter) => void; meId: string; open: boolean }) {
   const [q, setQ] = useState(filter.q ?? "");
   useEffect(() => {
     const t = setTimeout(() => {
@@ -13,9 +21,9 @@ export function BoardFilters({ filter, board, onChange, meId }: { filter: BoardF
     }, 300);
     return () => clearTimeout(t);
   }, [q, filter, onChange]);
-  const active = Boolean(filter.q || filter.tech || filter.customer || filter.due);
+  const active = activeFilterCount(filter) > 0;
   return (
-    <form role="search" className="grid grid-cols-2 items-end gap-2 md:flex md:flex-wrap" onSubmit={(e) => e.preventDefault()}>
+    <form id="board-filters" role="search" aria-label="Filter the board" className={`${open ? "grid" : "hidden"} grid-cols-2 items-end gap-2 rounded-lg border border-line bg-panel p-2 md:flex md:flex-wrap md:border-0 md:bg-transparent md:p-0`} onSubmit={(e) => e.preventDefault()}>
       <label className="col-span-2 min-w-56 flex-1 text-sm font-semibold">
         Search
         <input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Work order, unit number or last 6 of VIN" className={`${inputClass} mt-1`} />

@@ -8,9 +8,11 @@ export const metadata = { title: "Board" };
 
 export default async function BoardPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requirePageStaff();
-  const raw = Object.fromEntries(Object.entries(await searchParams).filter(([, v]) => typeof v === "string" && v !== "")) as Record<string, string>;
+  const params = await searchParams;
+  const raw = Object.fromEntries(Object.entries(params).filter(([, v]) => typeof v === "string" && v !== "")) as Record<string, string>;
   const parsed = boardFilterSchema.safeParse(raw);
   const filter = parsed.success ? parsed.data : {};
   const initial = await loadBoard(getDb(), filter);
-  return <BoardView initial={initial} initialFilter={filter} role={user.role} meId={user.id} />;
+  // A tech sent here from an office page is told why.
+  return <BoardView initial={initial} initialFilter={filter} role={user.role} meId={user.id} denied={params.denied === "1"} />;
 }

@@ -1,4 +1,4 @@
-import { format, parseISO } from "date-fns";
+import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { IconCheck, IconClock, IconStop, IconWarn } from "@/components/icons";
 import { Section } from "@/components/section";
@@ -13,7 +13,7 @@ import { InspectionForm, ReceiveForm, SendRunForm, VendorForm } from "./coating-
 
 export const metadata = { title: "Coating" };
 
-const day = (iso: string) => format(parseISO(iso), "EEE d MMM");
+const day = (iso: string) => showStoredDate(iso, "EEE d MMM");
 const days = (n: number) => `${n} business ${n === 1 ? "day" : "days"}`;
 
 function RunStatus({ run, today }: { run: CoatingRunView; today: string }) {

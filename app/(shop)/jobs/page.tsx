@@ -12,7 +12,7 @@ export const metadata = { title: "Jobs" };
 
 const SORTS: Record<JobSortKey, string> = { newest: "Newest first", due: "Due (soonest first)", customer: "Customer (A–Z)", stage: "Stage (board order)" };
 const HEADINGS: Record<JobSortKey, string> = { newest: "Work order", due: "Due", customer: "Customer", stage: "Stage" };
-const LIMIT = 500;
+const PAGE = 50;
 
 export default async function JobsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requirePageStaff();
@@ -20,15 +20,20 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
   const stage = STAGES.includes(sp.stage as Stage) ? (sp.stage as Stage) : undefined;
   const sort = sp.sort && sp.sort in SORTS ? (sp.sort as JobSortKey) : "newest";
   const q = (sp.q ?? "").slice(0, 60);
+  const page = /^[1-9]\d{0,4}$/.test(sp.page ?? "") ? Number(sp.page) : 1;
   const db = getDb();
-  const rows = await listJobs(db, { stage, q: q || undefined, sort, limit: LIMIT });
+  // One row more than a page tells whether there is a next page, without counting every job.
+  const found = await listJobs(db, { stage, q: q || undefined, sort, limit: PAGE + 1, offset: (page - 1) * PAGE });
+  const rows = found.slice(0, PAGE);
+  const hasNext = found.length > PAGE;
+  const paged = page > 1 || hasNext;
   const filtered = Boolean(stage || q);
-  const beginnings = rows.length === 0 && !filtered ? await shopBeginnings(db) : null;
+  const beginnings = rows.length === 0 && !filtered && page === 1 ? await shopBeginnings(db) : null;
+  const emptyShop = beginnings !== null && beginnings.jobs === 0;
   const href = (over: Record<string, string | undefined>) => {
     const params = new URLSearchParams(Object.entries({ stage, sort, q: q || undefined, ...over }).filter(([, v]) => v) as [string, string][]);
     return `/jobs?${params}`;
   };
-  const emptyShop = beginnings !== null && beginnings.jobs === 0;
 
   return (
     <section className="space-y-4">
@@ -69,15 +74,11 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
             <button className={buttonClass.secondary}>Show</button>
           </form>
           <p role="status" className="text-sm text-ink-soft">
-            {rows.length === LIMIT ? (
-              <span className="text-warn-700">Showing the first {LIMIT} in this order. Search or choose a stage to narrow the list.</span>
-            ) : (
-              <>
-                {rows.length} {rows.length === 1 ? "job" : "jobs"}
-                {stage ? ` in ${STAGE_LABELS[stage]}` : ""}
-                {q ? ` matching \u201c${q}\u201d` : ""}.
-              </>
-            )}
+            {paged && rows.length > 0
+              ? `Jobs ${(page - 1) * PAGE + 1}–${(page - 1) * PAGE + rows.length}`
+              : `${rows.length} ${rows.length === 1 ? "job" : "jobs"}`}
+            {stage ? ` in ${STAGE_LABELS[stage]}` : ""}
+            {q ? ` matching \u201c${q}\u201d` : ""}, {SORTS[sort].toLowerCase()}.
           </p>
           <JobList
             rows={rows}
@@ -85,13 +86,23 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
             sort={{ current: sort, href: (k) => href({ sort: k }), labels: HEADINGS }}
             empty={
               <div className="rounded-lg border border-line bg-panel p-4">
-                <p>No job matches {q ? <>&ldquo;{q}&rdquo;</> : "that"}{stage ? ` in ${STAGE_LABELS[stage]}` : ""}.</p>
+                <p>{page > 1 ? "No more jobs in this list." : <>No job matches {q ? <>&ldquo;{q}&rdquo;</> : "that"}{stage ? ` in ${STAGE_LABELS[stage]}` : ""}.</>}</p>
                 <p className="mt-2">
                   <Link href="/jobs" className="inline-flex min-h-11 items-center font-semibold text-bay-800 underline">Show every job</Link>
                 </p>
               </div>
             }
           />
+          {paged && (
+            <nav aria-label="Pages of jobs" className="flex flex-wrap items-center justify-between gap-2">
+              {page > 1 ? (
+                <Link href={href({ page: page > 2 ? String(page - 1) : undefined })} className={buttonClass.secondary}>← Previous {PAGE}</Link>
+              ) : <span />}
+              {hasNext ? (
+                <Link href={href({ page: String(page + 1) })} className={buttonClass.secondary}>Next {PAGE} →</Link>
+              ) : <span />}
+            </nav>
+          )}
         </>
       )}
     </section>

@@ -13,6 +13,7 @@ const listFilter = z.object({
   q: z.string().trim().max(60).optional(),
   sort: z.enum(["newest", "due", "customer", "stage"]).optional(),
   limit: z.coerce.number().int().min(1).max(500).optional(),
+  offset: z.coerce.number().int().min(0).max(1_000_000).optional(),
 });
 
 export async function GET(req: Request) {

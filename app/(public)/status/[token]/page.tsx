@@ -3,19 +3,13 @@ import { notFound } from "next/navigation";
 import { cache } from "react";
 import { getDb } from "@/db";
 import { repliesRead } from "@/server/email/env";
-import { noteLinkOpened, openStatusLink, shopContact, statusView } from "@/server/status/queries";
+import { noteLinkOpened, readStatusPage } from "@/server/status/queries";
 import { StatusView } from "./status-view";
 
 export const dynamic = "force-dynamic";
 
 /** One read per request, shared by the page and its title. */
-const loadStatus = cache(async (token: string) => {
-  const db = getDb();
-  const link = await openStatusLink(db, token);
-  if (link.state !== "active") return { link, view: null, shop: await shopContact(db) };
-  const view = await statusView(db, link.jobId);
-  return { link, view, shop: view?.shop ?? (await shopContact(db)) };
-});
+const loadStatus = cache((token: string) => readStatusPage(getDb(), token));
 
 // The URL is the key to the page: keep it out of search engines and out of Referer headers.
 // The customer knows the shop, not the software, so the tab carries the unit and the shop's name.
@@ -35,6 +29,6 @@ export default async function StatusPage({ params }: { params: Promise<{ token: 
   const { link, view } = await loadStatus(token);
   // Unknown, turned off and expired links all end here: the not-found page says so and gives the shop's phone.
   if (link.state !== "active" || !view) notFound();
-  await noteLinkOpened(getDb(), link);
+  noteLinkOpened(getDb(), link);
   return <StatusView view={view} token={token} repliesRead={repliesRead()} />;
 }

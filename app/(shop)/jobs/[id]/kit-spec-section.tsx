@@ -1,4 +1,4 @@
-import { format, parseISO } from "date-fns";
+import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { KitSpecSummary } from "@/components/kit-calc/kit-spec-summary";
 import { Section } from "@/components/section";
@@ -23,7 +23,7 @@ export async function KitSpecSection({ job, user }: { job: JobDetail; user: Staf
       actions={
         spec && (
           <p className="text-sm text-ink-soft" data-testid="kit-spec-version">
-            Version {spec.version} · saved by {spec.savedBy.name}, {format(parseISO(spec.savedAt), "d MMM yyyy, HH:mm")}
+            Version {spec.version} · saved by {spec.savedBy.name}, {showStoredDate(spec.savedAt, "d MMM yyyy, HH:mm")}
           </p>
         )
       }

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { format, parseISO } from "date-fns";
+import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PrintButton } from "@/components/print-button";
@@ -70,7 +70,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               <dt className="font-semibold">Work</dt>
               <dd>{SCOPE_LABELS[job.scope]} — stages: {route.filter((s) => s !== "delivered").map((s) => STAGE_LABELS[s]).join(" → ")}</dd>
               <dt className="font-semibold">Due</dt>
-              <dd>{job.dueOn ? format(parseISO(job.dueOn), "EEE d MMM yyyy") : "No date set"}</dd>
+              <dd>{job.dueOn ? showStoredDate(job.dueOn, "EEE d MMM yyyy") : "No date set"}</dd>
               <dt className="font-semibold">Assigned</dt>
               <dd>{job.techName ?? "Nobody yet"}</dd>
               <dt className="font-semibold">Truck</dt>

@@ -1,6 +1,6 @@
 "use client";
 
-import { format, parseISO } from "date-fns";
+import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
@@ -17,7 +17,7 @@ import { PartForm } from "./records-part-form";
 
 type Panel = { partId: number; mode: "test" | "edit" | "rework" } | { partId: null; mode: "add" } | null;
 
-const day = (iso: string) => format(parseISO(iso), "EEE d MMM");
+const day = (iso: string) => showStoredDate(iso, "EEE d MMM");
 const dateTime = (iso: string, timeZone: string) => formatShopTime(iso, timeZone, "d MMM yyyy, HH:mm");
 
 // Cylinder or box volume (elementary geometry) in US gallons of 231 in³.

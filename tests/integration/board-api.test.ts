@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import * as board from "@/app/api/board/route";
 import { listTechs } from "@/server/staff/queries";
 import { useFreshDatabase } from "../support/db";
-import { makeStaff } from "../support/factories";
+import { makeCustomer, makeJob, makeStaff, makeTruck } from "../support/factories";
 import { readBody, request, sessionCookieFor } from "../support/http";
 
 const { db } = useFreshDatabase();
@@ -19,5 +19,19 @@ describe("who is offered as a job's tech", () => {
     expect(techs.map((t: { id: string }) => t.id)).toEqual([tech.id]);
     expect((await listTechs(db())).map((t) => t.id)).toEqual([tech.id]);
     expect((await listTechs(db(), owner.id)).map((t) => t.id).sort()).toEqual([owner.id, tech.id].sort());
+  });
+
+  it("an empty board tells what the shop has on file for the first steps; a board with jobs, or a filtered one, does not", async () => {
+    const office = await makeStaff(db(), "office");
+    const cookie = await sessionCookieFor(office.id);
+    const read = async (query = "") => (await readBody(await board.GET(request(`/api/board${query}`, { cookie })))).firstSteps;
+    expect(await read()).toEqual({ customers: 0, trucks: 0 });
+    const customer = await makeCustomer(db());
+    expect(await read()).toEqual({ customers: 1, trucks: 0 });
+    await makeTruck(db(), customer.id);
+    expect(await read()).toEqual({ customers: 1, trucks: 1 });
+    expect(await read("?q=WO-NONE")).toBeNull();
+    await makeJob(db(), { customerId: customer.id });
+    expect(await read()).toBeNull();
   });
 });
