@@ -113,7 +113,8 @@ export interface StageEventTable {
 export interface OutboxTable {
   id: string;
   job_id: number;
-  kind: "stage_changed";
+  /** `stage_changed`: the job reached a stage; `link_issued`: the office e-mails a new status link. */
+  kind: "stage_changed" | "link_issued";
   payload: string;
   status: "pending" | "sent" | "failed" | "skipped";
   attempts: number;
@@ -121,6 +122,8 @@ export interface OutboxTable {
   last_error: string | null;
   created_at: string;
   sent_at: string | null;
+  /** When a later move replaced this message before it went (migration 0006); never sent again. */
+  replaced_at: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface Database extends RecordsTables, KitSpecTables, MessagingTables {

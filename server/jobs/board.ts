@@ -106,7 +106,11 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
   const unfiltered = !filter.q && !filter.tech && !filter.customer && !filter.due;
   const firstSteps =
     cards.length === 0 && unfiltered
-      ? { customers: customers.length, trucks: Number((await db.selectFrom("truck").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n) }
+      ? {
+          // Every customer on file (the filter's list holds only those with a job on the board).
+          customers: Number((await db.selectFrom("customer").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n),
+          trucks: Number((await db.selectFrom("truck").select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n),
+        }
       : null;
   return { today, columns: BOARD_STAGES.map((s) => ({ stage: s, label: STAGE_LABELS[s] })), cards, techs, customers, firstSteps };
 }

@@ -128,6 +128,7 @@ export const ACCESS_MATRIX: Row[] = [
   officeUp("PUT /api/jobs/[id]/email-settings"),
   anyStaff("GET /api/jobs/[id]/messages"),
   officeUp("POST /api/messages/[id]/resend"),
+  officeUp("POST /api/messages/[id]/send-now"),
   anyStaff("GET /api/notify-settings"),
   officeUp("PUT /api/notify-settings"),
   anyStaff("GET /api/jobs/[id]/status-links"),
