@@ -73,7 +73,7 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
           </ul>
         </nav>
         <div className="flex items-center justify-between gap-2 border-t border-line pt-2 lg:border-0 lg:pt-0">
-          <span className="px-3 text-sm text-ink-soft lg:px-0" data-testid="signed-in-as">
+          <span className="px-3 text-sm text-ink-soft lg:sr-only lg:px-0 xl:not-sr-only" data-testid="signed-in-as">
             {who}
           </span>
           <SignOutButton />

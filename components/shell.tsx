@@ -16,6 +16,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
     ...(role === "owner" ? [{ href: "/staff", label: "Staff" }] : []),
+    { href: "/account", label: "Account" },
   ];
 }
 

@@ -158,7 +158,7 @@ export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveIn
       if (!move.override) {
         throw new ApiError("gate_unmet", `Not moved to ${STAGE_LABELS[move.toStage]}: ${check.unmet.length === 1 ? check.unmet[0] : `${check.unmet.length} things are missing.`}`, { unmet: check.unmet, canOverride: actor.role === "owner" });
       }
-      if (actor.role !== "owner") throw new ApiError("forbidden", "Only the owner can override a gate.");
+      if (actor.role !== "owner") throw new ApiError("forbidden", "Only the owner can override what a stage needs. Ask the owner, or record what is missing first.");
     }
     const overrideReason = check.unmet.length && move.override ? move.override.reason : null;
 

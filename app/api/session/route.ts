@@ -9,7 +9,7 @@ import { signInSchema } from "@/server/staff/schemas";
 export async function POST(req: Request) {
   return respond(async () => {
     const input = await readJson(req, signInSchema);
-    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req));
+    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req), req.headers.get("user-agent") ?? "");
     const cookie = lucia.createSessionCookie(session.id);
     return json({ user }, { headers: { "Set-Cookie": cookie.serialize() } });
   });
