@@ -47,7 +47,7 @@ describe.skipIf(!enabled)("signing in and out in Chromium", () => {
     expect(api.status()).toBe(403);
     // On a phone, sign-out sits in the menu with the pages.
     await page.getByRole("button", { name: /^Menu/ }).click();
-    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.getByRole("button", { name: "Sign out", exact: true }).click();
     await page.waitForURL(/\/sign-in/);
     const after = await page.request.get(`${baseUrl()}/api/me`);
     expect(after.status()).toBe(401);

@@ -191,7 +191,7 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
       expect(await nav.isVisible()).toBe(false);
       expect(await menu.evaluate((el) => el === document.activeElement)).toBe(true);
       await menu.click();
-      expect(await page.getByRole("button", { name: "Sign out" }).isVisible()).toBe(true);
+      expect(await page.getByRole("button", { name: "Sign out", exact: true }).isVisible()).toBe(true);
       await context.close();
     });
   }
