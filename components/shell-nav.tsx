@@ -11,7 +11,7 @@ export interface NavItem {
 }
 
 /**
- * The main menu. From 1024 px up it is one row beside the mark; below that a Menu button opens
+ * The main menu. From 1280 px up it is one row beside the mark; below that a Menu button opens
  * the whole list (each item a full-width 44 px row), so nothing hides off the side of a phone.
  */
 export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
@@ -44,7 +44,7 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
         aria-expanded={open}
         aria-controls={listId}
         onClick={() => setOpen((o) => !o)}
-        className="ml-auto inline-flex min-h-11 min-w-11 items-center gap-2 rounded-md border border-line px-3 font-semibold text-bay-900 hover:bg-bay-50 lg:hidden"
+        className="ml-auto inline-flex min-h-11 min-w-11 items-center gap-2 rounded-md border border-line px-3 font-semibold text-bay-900 hover:bg-bay-50 xl:hidden"
       >
         <svg viewBox="0 0 24 24" className="h-5 w-5" fill="none" stroke="currentColor" strokeWidth={2.2} strokeLinecap="round" aria-hidden="true">
           {open ? <path d="M6 6l12 12M18 6 6 18" /> : <path d="M4 7h16M4 12h16M4 17h16" />}
@@ -52,9 +52,9 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
         Menu
         {current && !open && <span className="font-normal text-ink-soft">· {current.label}</span>}
       </button>
-      <div id={listId} className={`${open ? "flex" : "hidden"} w-full flex-col gap-2 pb-2 lg:flex lg:w-auto lg:flex-1 lg:flex-row lg:items-center lg:pb-0`}>
-        <nav aria-label="Main" className="lg:flex-1">
-          <ul className="flex flex-col gap-1 lg:flex-row">
+      <div id={listId} className={`${open ? "flex" : "hidden"} w-full flex-col gap-2 pb-2 xl:flex xl:w-auto xl:flex-1 xl:flex-row xl:items-center xl:pb-0`}>
+        <nav aria-label="Main" className="xl:flex-1">
+          <ul className="flex flex-col gap-1 xl:flex-row">
             {items.map((item) => {
               const active = item === current;
               return (
@@ -72,10 +72,18 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
             })}
           </ul>
         </nav>
-        <div className="flex items-center justify-between gap-2 border-t border-line pt-2 lg:border-0 lg:pt-0">
-          <span className="px-3 text-sm text-ink-soft lg:sr-only lg:px-0 xl:not-sr-only" data-testid="signed-in-as">
+        <div className="flex items-center justify-between gap-2 border-t border-line pt-2 xl:border-0 xl:pt-0">
+          <Link
+            href="/account"
+            aria-current={path === "/account" ? "page" : undefined}
+            onClick={() => setOpen(false)}
+            className="inline-flex min-h-11 items-center rounded-md px-3 text-sm text-ink-soft underline-offset-2 hover:underline aria-[current=page]:font-semibold aria-[current=page]:text-bay-900"
+            data-testid="signed-in-as"
+            title="Your account: password and signed-in devices"
+          >
             {who}
-          </span>
+            <span className="sr-only">: your account</span>
+          </Link>
           <SignOutButton />
         </div>
       </div>

@@ -6,7 +6,10 @@ import { type NavItem, ShellNav } from "./shell-nav";
 
 export const ROLE_WORDS: Record<Role, string> = { owner: "Owner", office: "Office", tech: "Tech" };
 
-/** Every page a role can open from the menu, in the order the shop uses them. */
+/**
+ * Every page a role can open from the menu, in the order the shop uses them. Each person's own
+ * account page is the signed-in name beside the menu.
+ */
 export function navItemsFor(role: Role): NavItem[] {
   return [
     { href: "/board", label: "Board" },
@@ -15,8 +18,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
-    ...(role === "owner" ? [{ href: "/staff", label: "Staff" }] : []),
-    { href: "/account", label: "Account" },
+    ...(role === "owner" ? [{ href: "/staff", label: "Staff" }, { href: "/settings", label: "Settings" }] : []),
   ];
 }
 

@@ -3,7 +3,7 @@ import { randomInt } from "node:crypto";
 import type { DB } from "@/db";
 import { hashSessionId } from "@/server/auth/lucia";
 import { hashPassword, verifyPassword } from "@/server/auth/password";
-import { checkSignInAllowed, clearFailedSignIns, recordFailedSignIn } from "@/server/auth/rate-limit";
+import { beginSignIn } from "@/server/auth/rate-limit";
 import type { StaffUser } from "@/server/auth/session";
 import { ApiError, notFound } from "@/server/http/errors";
 import { deviceName } from "./devices";
@@ -19,15 +19,15 @@ function fieldError(field: string, message: string) {
  * the same limits as sign-in, so a borrowed signed-in phone cannot be used to find it out); every
  * other signed-in device of theirs is signed out and this one stays signed in.
  */
-export async function changeOwnPassword(db: DB, user: StaffUser, sessionId: string, input: z.infer<typeof passwordChangeSchema>, address: string) {
+export async function changeOwnPassword(db: DB, user: StaffUser, sessionId: string, input: z.infer<typeof passwordChangeSchema>, address: string | null) {
   if (input.newPassword !== input.confirmPassword) throw fieldError("confirmPassword", "The two new passwords differ; type the same new password twice.");
-  await checkSignInAllowed(user.email, address);
+  // Counted before the hash like a sign-in; this signed-in device has its own allowance.
+  const attempt = await beginSignIn(user.email, address, `session-${hashSessionId(sessionId)}`);
   const row = await db.selectFrom("staff").select("password_hash").where("id", "=", user.id).executeTakeFirstOrThrow();
   if (!(await verifyPassword(row.password_hash, input.currentPassword))) {
-    await recordFailedSignIn(user.email, address);
     throw fieldError("currentPassword", "The current password is not right. Type the password you signed in with.");
   }
-  await clearFailedSignIns(user.email);
+  await attempt.refund();
   if (input.newPassword === input.currentPassword) throw fieldError("newPassword", "Choose a new password that differs from the current one.");
   // Hash outside the transaction: argon2 is slow and SQLite has one connection.
   const passwordHash = await hashPassword(input.newPassword);

@@ -50,6 +50,7 @@ const PAGES: PageCase[] = [
   { name: "coating", path: "/coating" },
   { name: "calculator", path: "/calculator" },
   { name: "staff", path: "/staff" },
+  { name: "settings", path: "/settings" },
   { name: "account", path: "/account" },
   { name: "not-found-address", path: "/no-such-page", notFound: true },
   { name: "not-found-job", path: "/jobs/999999", notFound: true },
@@ -169,7 +170,7 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
       await menu.click();
       await shot(page, `menu-open-${role}-phone`);
       const labels = await nav.getByRole("link").allTextContents();
-      expect(labels).toEqual(["Board", "Jobs", "Customers", "Trucks", "Coating", "Calculator", ...(role === "owner" ? ["Staff"] : []), "Account"]);
+      expect(labels).toEqual(["Board", "Jobs", "Customers", "Trucks", "Coating", "Calculator", ...(role === "owner" ? ["Staff", "Settings"] : [])]);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 
       for (const label of labels) {
@@ -184,6 +185,11 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
         await expect.poll(() => nav.isVisible()).toBe(false);
         expect(await menu.textContent()).toContain(label);
       }
+
+      // The signed-in name in the menu leads to the person's own account page.
+      await menu.click();
+      await page.getByTestId("signed-in-as").click();
+      await page.waitForURL(/\/account$/);
 
       // Escape closes the menu and gives focus back to its button; sign-out sits in the menu too.
       await menu.click();
