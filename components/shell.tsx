@@ -18,7 +18,13 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
-    ...(role === "owner" ? [{ href: "/staff", label: "Staff" }, { href: "/settings", label: "Settings" }] : []),
+    ...(role === "owner"
+      ? [
+          { href: "/staff", label: "Staff" },
+          { href: "/settings", label: "Settings" },
+          { href: "/audit", label: "Audit" },
+        ]
+      : []),
   ];
 }
 

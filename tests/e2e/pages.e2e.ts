@@ -51,6 +51,7 @@ const PAGES: PageCase[] = [
   { name: "calculator", path: "/calculator" },
   { name: "staff", path: "/staff" },
   { name: "settings", path: "/settings" },
+  { name: "audit", path: "/audit" },
   { name: "account", path: "/account" },
   { name: "not-found-address", path: "/no-such-page", notFound: true },
   { name: "not-found-job", path: "/jobs/999999", notFound: true },
@@ -170,7 +171,7 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
       await menu.click();
       await shot(page, `menu-open-${role}-phone`);
       const labels = await nav.getByRole("link").allTextContents();
-      expect(labels).toEqual(["Board", "Jobs", "Customers", "Trucks", "Coating", "Calculator", ...(role === "owner" ? ["Staff", "Settings"] : [])]);
+      expect(labels).toEqual(["Board", "Jobs", "Customers", "Trucks", "Coating", "Calculator", ...(role === "owner" ? ["Staff", "Settings", "Audit"] : [])]);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 
       for (const label of labels) {
