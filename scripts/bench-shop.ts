@@ -50,7 +50,7 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
     );
     const insOutbox = sqlite.prepare("insert into outbox (id, job_id, kind, payload, status, attempts, next_attempt_at, created_at, sent_at) values (?, ?, 'stage_changed', ?, 'sent', 1, ?, ?, ?)");
     const insEmail = sqlite.prepare(
-      "insert into email_message (outbox_id, job_id, from_address, to_addresses, subject, html, text, created_at) values (?, ?, 'shop@bench.example', 'fleet@customer.example', ?, ?, ?, ?)",
+      "insert into email_message (outbox_id, job_id, from_address, to_addresses, subject, html, text, created_at) values (?, ?, 'shop@bench.example', '[\"fleet@customer.example\"]', ?, ?, ?, ?)",
     );
     const history = (jobId: number, scope: string, steps: string[], tech: string) => {
       if (scope === "fabrication") {
