@@ -26,6 +26,8 @@ export interface StaffTable {
   password_hash: string;
   active: number;
   created_at: string;
+  /** 1 after the owner's reset: the temporary password works only to choose a new one. */
+  must_change_password: ColumnType<number, number | undefined, number>;
 }
 
 export interface SessionTable {
@@ -34,6 +36,8 @@ export interface SessionTable {
   staff_id: string;
   expires_at: number;
   created_at: string;
+  /** The browser's User-Agent at sign-in, so a person can tell their signed-in devices apart. */
+  user_agent: ColumnType<string, string | undefined, string>;
 }
 
 export interface ShopTable {
@@ -45,6 +49,15 @@ export interface ShopTable {
   next_work_order: ColumnType<number, number | undefined, number>;
   /** Leak-test pressure drop the shop allows, psi (added by the records migration). */
   leak_allowed_drop_psi: ColumnType<number, number | undefined, number>;
+  /** The leak-test procedure's minimums (migration 0007; server/records/procedure.ts). */
+  leak_min_hold_minutes: ColumnType<number, number | undefined, number>;
+  leak_gauge_ratio_min: ColumnType<number, number | undefined, number>;
+  leak_gauge_ratio_max: ColumnType<number, number | undefined, number>;
+  leak_round_min_psig: ColumnType<number, number | undefined, number>;
+  leak_round_max_psig: ColumnType<number, number | undefined, number>;
+  leak_box_min_psig: ColumnType<number, number | undefined, number>;
+  leak_box_max_psig: ColumnType<number, number | undefined, number>;
+  leak_calibration_months: ColumnType<number, number | undefined, number>;
 }
 
 export interface CustomerTable {
@@ -76,6 +89,10 @@ export interface TruckTable {
   transmission: string;
   work_engine_rpm: number | null;
   created_at: string;
+  make: ColumnType<string, string | undefined, string>;
+  model: ColumnType<string, string | undefined, string>;
+  /** Where the PTO mounts on the transmission, as the shop reads it (e.g. "6-bolt, left side"). */
+  pto_opening: ColumnType<string, string | undefined, string>;
 }
 
 export type Priority = "normal" | "rush";
@@ -113,7 +130,8 @@ export interface StageEventTable {
 export interface OutboxTable {
   id: string;
   job_id: number;
-  kind: "stage_changed";
+  /** `stage_changed`: the job reached a stage; `link_issued`: the office e-mails a new status link. */
+  kind: "stage_changed" | "link_issued";
   payload: string;
   status: "pending" | "sent" | "failed" | "skipped";
   attempts: number;
@@ -121,6 +139,8 @@ export interface OutboxTable {
   last_error: string | null;
   created_at: string;
   sent_at: string | null;
+  /** When a later move replaced this message before it went (migration 0006); never sent again. */
+  replaced_at: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface Database extends RecordsTables, KitSpecTables, MessagingTables {

@@ -86,7 +86,7 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
         start_pressure_psig: test.startPressurePsig, end_pressure_psig: test.endPressurePsig, start_temp_f: test.startTempF,
         end_temp_f: test.endTempF, barometric_psia: test.barometricPsia, seams: JSON.stringify(test.seams), tester: tester?.name ?? test.tester,
         raw_drop_psi: outcome.rawDropPsi, corrected_drop_psi: outcome.correctedDropPsi, allowed_drop_psi: DEFAULT_ALLOWED_DROP_PSI,
-        result: outcome.result, warnings: JSON.stringify(outcome.warnings), recorded_by: tester?.id ?? null, tested_at: at(date),
+        result: outcome.result, warnings: JSON.stringify(outcome.warnings), invalid_reasons: JSON.stringify(outcome.invalidReasons), recorded_by: tester?.id ?? null, tested_at: at(date),
       })
       .execute();
     return outcome.result;

@@ -4,6 +4,8 @@ import * as m0002 from "./0002_customers_trucks_jobs";
 import * as m0003 from "./0003_records";
 import * as m0004 from "./0004_kit_spec";
 import * as m0005 from "./0005_photos_and_messages";
+import * as m0006 from "./0006_email_quiet_period";
+import * as m0007 from "./0007_procedure_accounts_trucks";
 import * as m0010 from "./0010_indexes";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
@@ -13,6 +15,8 @@ export const migrations: Record<string, Migration> = {
   "0003_records": m0003,
   "0004_kit_spec": m0004,
   "0005_photos_and_messages": m0005,
+  "0006_email_quiet_period": m0006,
+  "0007_procedure_accounts_trucks": m0007,
   "0010_indexes": m0010,
 };
 

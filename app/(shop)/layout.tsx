@@ -9,7 +9,8 @@ export const dynamic = "force-dynamic";
 const ROLE_WORDS = { owner: "Owner", office: "Office", tech: "Tech" } as const;
 
 export default async function ShopLayout({ children }: { children: React.ReactNode }) {
-  const user = await requirePageStaff();
+  // Each page decides for itself; the shell also frames /account, where a temporary password is changed.
+  const user = await requirePageStaff(undefined, { forPasswordChange: true });
   const items: NavItem[] = [
     { href: "/board", label: "Board" },
     { href: "/jobs", label: "Jobs" },

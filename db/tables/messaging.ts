@@ -1,4 +1,4 @@
-import type { Generated } from "kysely";
+import type { ColumnType, Generated } from "kysely";
 import type { Stage } from "../schema";
 
 export interface PhotoTable {
@@ -79,6 +79,8 @@ export interface MessageSettingTable {
   notify_stages: string;
   /** How long a status link keeps working after the truck is delivered. */
   status_link_days: number;
+  /** How long a stage e-mail waits after the move, so further moves can replace it (migration 0006). */
+  quiet_seconds: ColumnType<number, number | undefined, number>;
   updated_at: string;
   updated_by: string | null;
 }

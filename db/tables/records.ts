@@ -1,4 +1,4 @@
-import type { Generated } from "kysely";
+import type { ColumnType, Generated } from "kysely";
 
 export type PartKind = "reservoir" | "box" | "bracket" | "other";
 export type PartMaterial = "aluminum" | "stainless" | "carbon_steel";
@@ -45,9 +45,11 @@ export interface LeakTestTable {
   raw_drop_psi: number;
   corrected_drop_psi: number;
   allowed_drop_psi: number;
-  result: "pass" | "fail";
+  result: "pass" | "fail" | "invalid";
   /** JSON array of { code, message }. */
   warnings: string;
+  /** JSON array of { code, message }: why an invalid test broke the procedure. */
+  invalid_reasons: ColumnType<string, string | undefined, string>;
   recorded_by: string | null;
   tested_at: string;
 }

@@ -22,17 +22,17 @@ export function kyselyAdapter(db: () => DB): Adapter {
       const row = await db()
         .selectFrom("session")
         .innerJoin("staff", "staff.id", "session.staff_id")
-        .select(["session.id", "session.expires_at", "staff.id as staff_id", "staff.name", "staff.email", "staff.role", "staff.active"])
+        .select(["session.id", "session.expires_at", "session.user_agent", "staff.id as staff_id", "staff.name", "staff.email", "staff.role", "staff.active", "staff.must_change_password"])
         .where("session.id", "=", hashSessionId(sessionId))
         .executeTakeFirst();
       if (!row || !row.active) return [null, null];
       return [
-        { id: sessionId, userId: row.staff_id, expiresAt: new Date(row.expires_at * 1000), attributes: {} },
-        { id: row.staff_id, attributes: { name: row.name, email: row.email, role: row.role } },
+        { id: sessionId, userId: row.staff_id, expiresAt: new Date(row.expires_at * 1000), attributes: { userAgent: row.user_agent } },
+        { id: row.staff_id, attributes: { name: row.name, email: row.email, role: row.role, must_change_password: row.must_change_password } },
       ];
     },
     async getUserSessions(userId) {
-      // Only hashes are stored, so the ids cannot be handed back; nothing in the app lists them.
+      // Only hashes are stored, so the ids cannot be handed back; /account lists devices from the table itself.
       const rows = await db().selectFrom("session").select(["expires_at"]).where("staff_id", "=", userId).execute();
       return rows.map((r, i) => ({ id: `hidden-${i}`, userId, expiresAt: new Date(r.expires_at * 1000), attributes: {} }));
     },
@@ -44,6 +44,8 @@ export function kyselyAdapter(db: () => DB): Adapter {
           staff_id: session.userId,
           expires_at: Math.floor(session.expiresAt.getTime() / 1000),
           created_at: new Date().toISOString(),
+          // A browser's User-Agent is at most a few hundred characters; a longer one is cut, not refused.
+          user_agent: (session.attributes.userAgent ?? "").slice(0, 300),
         })
         .execute();
     },
@@ -71,12 +73,13 @@ export const lucia = new Lucia(kyselyAdapter(getDb), {
       sameSite: "lax",
     },
   },
-  getUserAttributes: (a) => ({ name: a.name, email: a.email, role: a.role }),
+  getUserAttributes: (a) => ({ name: a.name, email: a.email, role: a.role, mustChangePassword: a.must_change_password === 1 }),
 });
 
 declare module "lucia" {
   interface Register {
     Lucia: typeof lucia;
-    DatabaseUserAttributes: { name: string; email: string; role: Role };
+    DatabaseUserAttributes: { name: string; email: string; role: Role; must_change_password: number };
+    DatabaseSessionAttributes: { userAgent?: string };
   }
 }

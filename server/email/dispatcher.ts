@@ -1,13 +1,15 @@
 import "server-only";
 import type { DB } from "@/db";
-import type { Stage } from "@/db/schema";
 import type { EmailMessageTable } from "@/db/tables/messaging";
-import { STAGE_LABELS, isStage } from "@/server/jobs/stages";
-import { emailLinkFor, retryLinkFor } from "@/server/status/links";
-import { statusUrl } from "@/server/status/tokens";
+import { STAGE_LABELS } from "@/server/jobs/stages";
+import { emailLinkFor, retryLinkFor, workingLink } from "@/server/status/links";
+import { jobRoute } from "@/server/status/route";
+import { statusUrl, tokenFor } from "@/server/status/tokens";
 import { emailEnv } from "./env";
 import { recipientsFor } from "./recipients";
-import { renderStageEmail, withStatusLink } from "./render";
+import { REPLACED_BY_LATER_MOVE } from "./outbox";
+import { type LinkIssuedPayload, type StageChangedPayload, parseLinkPayload, parsePayload } from "./payload";
+import { renderLinkEmail, renderStageEmail, withStatusLink } from "./render";
 import type { EmailSender, SendResult } from "./sender";
 import { notifySettings } from "./settings";
 
@@ -25,24 +27,7 @@ export function backoffMs(attempts: number): number {
   return Math.min(30_000 * 2 ** Math.max(0, attempts - 1), 60 * 60_000);
 }
 
-export interface StageChangedPayload {
-  from: Stage | null;
-  to: Stage;
-  /** Set when the office asked for a message to go again. */
-  resendOf?: string;
-  requestedBy?: string;
-}
-
-export function parsePayload(raw: string): StageChangedPayload | null {
-  try {
-    const p = JSON.parse(raw) as Partial<StageChangedPayload>;
-    if (typeof p.to !== "string" || !isStage(p.to)) return null;
-    if (p.from !== null && (typeof p.from !== "string" || !isStage(p.from))) return null;
-    return { from: p.from, to: p.to, resendOf: typeof p.resendOf === "string" ? p.resendOf : undefined, requestedBy: typeof p.requestedBy === "string" ? p.requestedBy : undefined };
-  } catch {
-    return null;
-  }
-}
+export { parsePayload, type StageChangedPayload } from "./payload";
 
 export interface DispatchSummary {
   claimed: number;
@@ -132,12 +117,35 @@ function sameAddresses(a: string[], b: string[]) {
   return a.length === b.length && [...a].sort().join("\n") === [...b].sort().join("\n");
 }
 
+export const NEW_LINK_TURNED_OFF = "The office turned off this status link before the e-mail went out; issue a new link to send one.";
+
+type Work = { kind: "stage_changed"; payload: StageChangedPayload } | { kind: "link_issued"; payload: LinkIssuedPayload };
+
+function readWork(row: ClaimedRow): Work | null {
+  if (row.kind === "stage_changed") {
+    const payload = parsePayload(row.payload);
+    return payload ? { kind: "stage_changed", payload } : null;
+  }
+  if (row.kind === "link_issued") {
+    const payload = parseLinkPayload(row.payload);
+    return payload ? { kind: "link_issued", payload } : null;
+  }
+  return null;
+}
+
+/** The link issued for a link e-mail, exactly that one: a link the office turned off since is not sent. */
+async function issuedLink(trx: Parameters<typeof workingLink>[0], jobId: number, linkId: number): Promise<{ id: number; token: string } | "turned_off"> {
+  const link = await trx.selectFrom("status_link").select(["id", "nonce", "token_hash", "revoked_at"]).where("id", "=", linkId).where("job_id", "=", jobId).executeTakeFirst();
+  const token = link && !link.revoked_at ? tokenFor(link) : null;
+  return link && token ? { id: link.id, token } : "turned_off";
+}
+
 /**
  * Decides on every attempt whether the row's e-mail still goes and to whom. The first attempt
  * renders and stores it; a later one sends what is stored, under the same key, unless the job's
  * recipients or its status link changed since: then it is rendered again as a new revision.
  */
-async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at: string): Promise<Prepared> {
+async function prepare(db: DB, row: ClaimedRow, work: Work, at: string): Promise<Prepared> {
   const env = emailEnv();
   return db.transaction().execute(async (trx): Promise<Prepared> => {
     const stored = await trx
@@ -147,17 +155,17 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
       .executeTakeFirst();
     const job = await trx
       .selectFrom("job")
-      .innerJoin("customer", "customer.id", "job.customer_id")
       .innerJoin("truck", "truck.id", "job.truck_id")
-      .select(["job.scope", "job.due_on", "customer.name as customerName", "truck.unit_number", "truck.description"])
+      .select(["job.scope", "job.due_on", "job.stage", "job.work_order", "job.description", "truck.unit_number"])
       .where("job.id", "=", row.job_id)
       .executeTakeFirst();
     if (!job) return { skip: "The job no longer exists." };
-    const { emailOff, to } = await recipientsFor(trx, row.job_id);
+    const { emailOff, to, names } = await recipientsFor(trx, row.job_id);
     if (emailOff) return { skip: "E-mail is off for this job." };
     const settings = await notifySettings(trx);
     // Checked before the first rendering only: a retry already decided this stage's news goes out.
-    if (!stored && !payload.resendOf) {
+    if (work.kind === "stage_changed" && !stored && !work.payload.resendOf) {
+      const payload = work.payload;
       if (!settings.notifyStages.includes(payload.to)) return { skip: `The shop does not e-mail customers when a job reaches ${STAGE_LABELS[payload.to]}.` };
       const later = await trx
         .selectFrom("outbox")
@@ -169,26 +177,38 @@ async function prepare(db: DB, row: ClaimedRow, payload: StageChangedPayload, at
         .where("created_at", ">", row.created_at)
         .execute();
       // A card dragged on and straight back should not send two e-mails a minute apart.
-      if (later.some((l) => !parsePayload(l.payload)?.resendOf)) return { skip: "A later move replaced this update before it was sent." };
+      if (later.some((l) => !parsePayload(l.payload)?.resendOf)) return { skip: REPLACED_BY_LATER_MOVE };
     }
     if (to.length === 0) return { skip: "Nobody on this job receives e-mail: choose a contact with an e-mail address." };
 
-    const link = stored ? await retryLinkFor(trx, row.job_id, stored.status_link_id, at) : await emailLinkFor(trx, row.job_id, at);
-    if (link === "turned_off") return { skip: LINK_TURNED_OFF };
+    const link =
+      work.kind === "link_issued"
+        ? await issuedLink(trx, row.job_id, work.payload.linkId)
+        : stored
+          ? await retryLinkFor(trx, row.job_id, stored.status_link_id, at)
+          : await emailLinkFor(trx, row.job_id, at);
+    if (link === "turned_off") return { skip: work.kind === "link_issued" ? NEW_LINK_TURNED_OFF : LINK_TURNED_OFF };
     if (stored && link.id === stored.status_link_id && sameAddresses(JSON.parse(stored.to_addresses) as string[], to)) return { message: stored, token: link.token };
 
-    const shop = (await trx.selectFrom("shop").select(["name", "phone"]).where("id", "=", 1).executeTakeFirst()) ?? { name: "Your upfit shop", phone: "" };
-    const rendered = renderStageEmail({
+    const [shopRow, parts, shared] = await Promise.all([
+      trx.selectFrom("shop").select(["name", "phone"]).where("id", "=", 1).executeTakeFirst(),
+      trx.selectFrom("part").select(["needs_leak_test", "needs_coating"]).where("job_id", "=", row.job_id).execute(),
+      trx.selectFrom("photo").select("id").where("job_id", "=", row.job_id).where("customer_visible", "=", 1).limit(1).executeTakeFirst(),
+    ]);
+    const shop = shopRow ?? { name: "Your upfit shop", phone: "" };
+    const common = {
       shop,
-      truck: { unitNumber: job.unit_number, description: job.description },
-      customerName: job.customerName,
-      from: payload.from,
-      to: payload.to,
-      scope: job.scope,
-      readyBy: job.due_on,
+      job: { workOrder: job.work_order, description: job.description, unitNumber: job.unit_number },
+      contactNames: names,
+      photosShared: Boolean(shared),
+      route: jobRoute(job.scope, parts.map((p) => ({ needsLeakTest: p.needs_leak_test === 1, needsCoating: p.needs_coating === 1 }))),
       linkDays: settings.statusLinkDays,
       replyTo: env.EMAIL_REPLY_TO ?? null,
-    });
+    };
+    const rendered =
+      work.kind === "link_issued"
+        ? renderLinkEmail({ ...common, stage: job.stage })
+        : renderStageEmail({ ...common, from: work.payload.from, to: work.payload.to, readyBy: job.due_on });
     const message: StoredMessage = {
       from_address: fromAddress(shop.name, env.EMAIL_FROM),
       to_addresses: JSON.stringify(to),
@@ -230,13 +250,13 @@ async function settle(db: DB, row: ClaimedRow, result: SendResult, now: Date): P
 }
 
 async function deliver(db: DB, row: ClaimedRow, now: Date, sender: EmailSender): Promise<keyof Omit<DispatchSummary, "claimed">> {
-  const payload = row.kind === "stage_changed" ? parsePayload(row.payload) : null;
-  if (!payload) {
+  const work = readWork(row);
+  if (!work) {
     await db.updateTable("outbox").set({ status: "failed", last_error: `Cannot send a message of kind "${row.kind}" with this content.` }).where("id", "=", row.id).execute();
     return "failed";
   }
   const at = now.toISOString();
-  const prepared = await prepare(db, row, payload, at);
+  const prepared = await prepare(db, row, work, at);
   if ("skip" in prepared) {
     await db.updateTable("outbox").set({ status: "skipped", last_error: prepared.skip }).where("id", "=", row.id).execute();
     return "skipped";

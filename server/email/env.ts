@@ -10,6 +10,8 @@ const emailEnvSchema = z.object({
   APP_URL: z.url({ message: "APP_URL must be the address customers open, such as https://status.your-shop.example." }).default("http://localhost:3000"),
   STATUS_LINK_SECRET: z.string().min(32, "STATUS_LINK_SECRET must be at least 32 characters.").optional(),
   OUTBOX_POLL_MS: z.coerce.number().int().min(200).max(600_000).default(5_000),
+  // Overrides the shop's quiet period after a move (tests and scripted checks set it short).
+  EMAIL_QUIET_SECONDS: z.coerce.number({ message: "EMAIL_QUIET_SECONDS must be a whole number of seconds." }).int("EMAIL_QUIET_SECONDS must be a whole number of seconds.").min(0).max(3600).optional(),
 });
 export type EmailEnv = z.infer<typeof emailEnvSchema>;
 

@@ -23,6 +23,7 @@ export async function listMessages(db: DB, jobId: number) {
       "outbox.last_error as lastError",
       "outbox.created_at as createdAt",
       "outbox.sent_at as sentAt",
+      "outbox.replaced_at as replacedAt",
       "email_message.subject",
       "email_message.to_addresses",
     ])
@@ -31,16 +32,21 @@ export async function listMessages(db: DB, jobId: number) {
     .orderBy("outbox.id", "desc")
     .execute();
   return rows.map((r) => {
-    const payload = parsePayload(r.payload);
+    const payload = r.kind === "stage_changed" ? parsePayload(r.payload) : null;
     const state: DeliveryState = r.status === "pending" ? (r.attempts > 0 && r.lastError ? "retrying" : "waiting") : r.status;
     return {
       id: r.id,
+      kind: r.kind,
       from: payload?.from ?? null,
       to: payload?.to ?? null,
       resendOf: payload?.resendOf ?? null,
       state,
       attempts: r.attempts,
       nextAttemptAt: r.status === "pending" ? r.nextAttemptAt : null,
+      /** Not tried yet and waiting out the quiet period: when it goes unless the card moves again. */
+      goesOutAt: r.status === "pending" && r.attempts === 0 ? r.nextAttemptAt : null,
+      /** A later move replaced it before it went: it is never sent again. */
+      replaced: r.replacedAt !== null,
       reason: r.lastError,
       createdAt: r.createdAt,
       sentAt: r.sentAt,
@@ -56,10 +62,12 @@ export type MessageRow = Awaited<ReturnType<typeof listMessages>>[number];
  * service really sends it again, rendered with today's recipients, date and link.
  */
 export async function resendMessage(db: DB, actor: StaffUser, outboxId: string) {
-  const original = await db.selectFrom("outbox").select(["id", "job_id", "kind", "payload"]).where("id", "=", outboxId).executeTakeFirst();
+  const original = await db.selectFrom("outbox").select(["id", "job_id", "kind", "payload", "replaced_at"]).where("id", "=", outboxId).executeTakeFirst();
   if (!original) throw new ApiError("not_found", "That message was not found.");
+  if (original.kind === "link_issued") throw new ApiError("conflict", "A status link e-mail is not sent again: issue a new link and choose to e-mail it to the contacts.");
   const payload = parsePayload(original.payload);
   if (original.kind !== "stage_changed" || !payload) throw new ApiError("conflict", "That message cannot be sent again.");
+  if (original.replaced_at) throw new ApiError("conflict", "A later move replaced this message, so it is not sent again: it no longer says where the job is. Send the newest message again instead.");
   const { emailOff, to } = await recipientsFor(db, original.job_id);
   if (emailOff) throw new ApiError("conflict", "E-mail is off for this job: switch it on under E-mail settings, then send again.");
   if (to.length === 0) throw new ApiError("conflict", "Nobody on this job receives e-mail: choose a contact with an e-mail address first.");
@@ -78,4 +86,20 @@ export async function resendMessage(db: DB, actor: StaffUser, outboxId: string) 
   };
   await db.insertInto("outbox").values(row).execute();
   return (await listMessages(db, original.job_id)).find((m) => m.id === row.id)!;
+}
+
+/**
+ * Sends a message waiting out its quiet period now, instead of at its time. Only a message not yet
+ * tried: one already on its way follows the retry schedule.
+ */
+export async function sendNow(db: DB, outboxId: string) {
+  const row = await db.selectFrom("outbox").select(["id", "job_id", "status", "attempts", "replaced_at"]).where("id", "=", outboxId).executeTakeFirst();
+  if (!row) throw new ApiError("not_found", "That message was not found.");
+  if (row.replaced_at) throw new ApiError("conflict", "A later move replaced this message; the newest one on the list is the one that goes.");
+  if (row.status !== "pending") throw new ApiError("conflict", "This message is no longer waiting to send; use Send again to send it once more.");
+  if (row.attempts > 0) throw new ApiError("conflict", "This message is already on its way; it is retried on its own schedule.");
+  const at = new Date().toISOString();
+  const updated = await db.updateTable("outbox").set({ next_attempt_at: at }).where("id", "=", outboxId).where("status", "=", "pending").where("attempts", "=", 0).where("replaced_at", "is", null).executeTakeFirst();
+  if (Number(updated.numUpdatedRows) !== 1) throw new ApiError("conflict", "The message changed while you asked (the card moved or it started sending); look at the list again.");
+  return (await listMessages(db, row.job_id)).find((m) => m.id === outboxId)!;
 }

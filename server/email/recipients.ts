@@ -36,11 +36,13 @@ export async function jobEmailSettings(db: Reader, jobId: number): Promise<JobEm
   };
 }
 
-/** The addresses a stage e-mail for this job goes to now. */
-export async function recipientsFor(db: Reader, jobId: number): Promise<{ emailOff: boolean; to: string[] }> {
+/** The addresses a customer e-mail for this job goes to now, and the names of the contacts it greets. */
+export async function recipientsFor(db: Reader, jobId: number): Promise<{ emailOff: boolean; to: string[]; names: string[] }> {
   const settings = await jobEmailSettings(db, jobId);
-  const to = [...new Set(settings.contacts.filter((c) => c.gets).map((c) => c.email.trim().toLowerCase()))];
-  return { emailOff: settings.emailOff, to };
+  const getting = settings.contacts.filter((c) => c.gets);
+  const to = [...new Set(getting.map((c) => c.email.trim().toLowerCase()))];
+  const names = [...new Set(getting.map((c) => c.name.trim()).filter(Boolean))];
+  return { emailOff: settings.emailOff, to, names };
 }
 
 export async function saveJobEmailSettings(db: DB, actor: StaffUser, jobId: number, input: EmailSettingsInput) {

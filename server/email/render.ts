@@ -1,6 +1,6 @@
 import { format, parseISO } from "date-fns";
-import type { JobScope, Stage } from "@/db/schema";
-import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened } from "@/server/status/words";
+import type { Stage } from "@/db/schema";
+import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened, whereItIsNow } from "@/server/status/words";
 
 /**
  * Where the status link goes in a stored message. The link's token is never stored: the
@@ -9,19 +9,36 @@ import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened } from "@/server/stat
  */
 export const LINK_MARK = "{{status_link}}";
 
-export interface StageEmailInput {
+/** Which job a message is about: every subject, first line and status page heading carries all three. */
+export interface JobNaming {
+  workOrder: string;
+  /** The work description as the office wrote it. */
+  description: string;
+  unitNumber: string;
+}
+
+interface CommonEmailInput {
   shop: { name: string; phone: string };
-  truck: { unitNumber: string; description: string };
-  customerName: string;
-  from: Stage | null;
-  to: Stage;
-  scope: JobScope;
-  /** The job's due date (YYYY-MM-DD), shown as the expected ready date. */
-  readyBy: string | null;
-  linkDays: number;
+  job: JobNaming;
+  /** The names of the contacts the e-mail goes to; the greeting uses them, never the company. */
+  contactNames: string[];
+  /** Whether any photo is shared with the customer; only then does the e-mail mention photos. */
+  photosShared: boolean;
   /** Where replies go (EMAIL_REPLY_TO); without one the e-mail never invites a reply. */
   replyTo: string | null;
 }
+
+export interface StageEmailInput extends CommonEmailInput {
+  from: Stage | null;
+  to: Stage;
+  /** The job's route (server/status/route.ts): "Next, …" names the next step on it. */
+  route: readonly Stage[];
+  /** The job's due date (YYYY-MM-DD), shown as the expected ready date. */
+  readyBy: string | null;
+  linkDays: number;
+}
+
+export type LinkEmailInput = CommonEmailInput & { stage: Stage; route: readonly Stage[]; linkDays: number };
 
 export interface RenderedEmail {
   subject: string;
@@ -71,29 +88,34 @@ export function reachWords(shopName: string, phone: string, repliesRead: boolean
   return repliesRead ? "Questions? Reply to this e-mail." : `Questions? Get in touch with ${shopName}.`;
 }
 
-export function renderStageEmail(input: StageEmailInput): RenderedEmail {
-  const unit = plain(input.truck.unitNumber);
+/** "Work order WO-26-0012 · Unit HR-21 · Wet kit: 35 gal stainless tank, PTO pump". */
+export function jobLine(job: JobNaming): string {
+  const description = plain(job.description);
+  return [`Work order ${plain(job.workOrder)}`, `Unit ${plain(job.unitNumber)}`, ...(description ? [description] : [])].join(" · ");
+}
+
+/** "Hello Dana,", "Hello Dana and Lee,", "Hello Dana, Lee and Sam,"; "Hello," when no name is known. */
+export function greeting(names: string[]): string {
+  const clean = [...new Set(names.map(plain).filter(Boolean))];
+  if (clean.length === 0) return "Hello,";
+  if (clean.length === 1) return `Hello ${clean[0]},`;
+  return `Hello ${clean.slice(0, -1).join(", ")} and ${clean.at(-1)},`;
+}
+
+function frame(input: CommonEmailInput, parts: { subject: string; heading: string; lines: string[]; strong: string | null; linkIntro: string; button: string }): RenderedEmail {
   const shopName = plain(input.shop.name);
-  const phone = plain(input.shop.phone);
-  const customer = plain(input.customerName);
-  const stageName = CUSTOMER_STAGE_NAMES[input.to];
-  const happened = whatHappened(input.from, input.to, input.scope);
-  const next = whatComesNext(input.to, input.scope, input.linkDays);
-  const ready = readyDateWords(input.readyBy);
-  const readyLine = input.to === "ready" || input.to === "delivered" ? null : ready ? `Expected ready date: ${ready}.` : "We will confirm the expected ready date soon.";
-  const reach = reachWords(shopName, phone, Boolean(input.replyTo));
-
-  const subject = `Unit ${unit}: ${stageName.toLowerCase()} (${shopName})`;
-
+  const reach = reachWords(shopName, plain(input.shop.phone), Boolean(input.replyTo));
+  const line = jobLine(input.job);
+  const hello = greeting(input.contactNames);
   const text = [
-    `Hello ${customer},`,
+    line,
     "",
-    `Unit ${unit}${input.truck.description ? ` (${plain(input.truck.description)})` : ""}`,
-    happened,
-    next,
-    ...(readyLine ? [readyLine] : []),
+    hello,
     "",
-    "See the progress and photos of your truck here:",
+    ...parts.lines,
+    ...(parts.strong ? [parts.strong] : []),
+    "",
+    parts.linkIntro,
     LINK_MARK,
     "",
     reach,
@@ -102,24 +124,54 @@ export function renderStageEmail(input: StageEmailInput): RenderedEmail {
     shopName,
   ].join("\n");
 
+  // The address is one long word: it must be allowed to break, or a phone shows the mail wider than its screen.
   const body = html`<!doctype html>
-<html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>${subject}</title></head>
-<body style="margin:0;padding:0;background:${PAPER};color:${INK};font-family:Helvetica,Arial,sans-serif;font-size:16px;line-height:1.5">
+<html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>${parts.subject}</title></head>
+<body style="margin:0;padding:0;background:${PAPER};color:${INK};font-family:Helvetica,Arial,sans-serif;font-size:16px;line-height:1.5;overflow-wrap:anywhere;word-wrap:break-word">
 <div style="max-width:560px;margin:0 auto;padding:24px 16px">
-<p style="margin:0 0 4px;font-size:14px;color:${INK_SOFT}">${shopName} · Unit ${unit}</p>
-<h1 style="margin:0 0 16px;font-size:22px;line-height:1.3;color:${INK}">${stageName}</h1>
-<p style="margin:0 0 12px">Hello ${customer},</p>
-<p style="margin:0 0 12px">${happened}</p>
-<p style="margin:0 0 12px">${next}</p>
-${readyLine ? html`<p style="margin:0 0 20px"><strong>${readyLine}</strong></p>` : safe("")}
-<p style="margin:0 0 24px"><a href="${safe(LINK_MARK)}" style="display:inline-block;background:${BAY};color:#ffffff;text-decoration:none;font-weight:bold;padding:12px 20px;border-radius:6px">See your truck's progress and photos</a></p>
-<p style="margin:0 0 8px;font-size:14px;color:${INK_SOFT}">Or open this address: ${safe(LINK_MARK)}</p>
+<p style="margin:0 0 4px;font-size:15px;font-weight:bold;color:${INK}">${line}</p>
+<p style="margin:0 0 4px;font-size:14px;color:${INK_SOFT}">${shopName}</p>
+<h1 style="margin:0 0 16px;font-size:22px;line-height:1.3;color:${INK}">${parts.heading}</h1>
+<p style="margin:0 0 12px">${hello}</p>
+${safe(parts.lines.map((l) => html`<p style="margin:0 0 12px">${l}</p>`.value).join("\n"))}
+${parts.strong ? html`<p style="margin:0 0 20px"><strong>${parts.strong}</strong></p>` : safe("")}
+<p style="margin:0 0 24px"><a href="${safe(LINK_MARK)}" style="display:inline-block;max-width:100%;box-sizing:border-box;background:${BAY};color:#ffffff;text-decoration:none;font-weight:bold;padding:12px 20px;border-radius:6px">${parts.button}</a></p>
+<p style="margin:0 0 8px;font-size:14px;color:${INK_SOFT};word-break:break-all;overflow-wrap:anywhere">Or open this address: ${safe(LINK_MARK)}</p>
 <hr style="border:none;border-top:1px solid ${LINE};margin:20px 0">
 <p style="margin:0 0 8px;font-size:14px;color:${INK_SOFT}">${reach}</p>
 <p style="margin:0;font-size:14px;color:${INK_SOFT}">This link is for you and your team; anyone with it can see this truck's progress.</p>
 </div></body></html>`;
+  return { subject: parts.subject, html: body.value, text };
+}
 
-  return { subject, html: body.value, text };
+function linkWords(photosShared: boolean) {
+  return photosShared
+    ? { linkIntro: "See the progress and photos of your truck here:", button: "See your truck's progress and photos" }
+    : { linkIntro: "See the progress of your truck here:", button: "See your truck's progress" };
+}
+
+export function renderStageEmail(input: StageEmailInput): RenderedEmail {
+  const stageName = CUSTOMER_STAGE_NAMES[input.to];
+  const ready = readyDateWords(input.readyBy);
+  const readyLine = input.to === "ready" || input.to === "delivered" ? null : ready ? `Expected ready date: ${ready}.` : "We will confirm the expected ready date soon.";
+  return frame(input, {
+    subject: `${stageName} · ${jobLine(input.job)}`,
+    heading: stageName,
+    lines: [whatHappened(input.from, input.to, input.route), whatComesNext(input.to, input.route, input.linkDays)],
+    strong: readyLine,
+    ...linkWords(input.photosShared),
+  });
+}
+
+/** The e-mail that carries a status link the office just issued in place of the old one. */
+export function renderLinkEmail(input: LinkEmailInput): RenderedEmail {
+  return frame(input, {
+    subject: `New status link · ${jobLine(input.job)}`,
+    heading: "Your new status link",
+    lines: ["We have issued a new status link for this job. The link we sent before no longer works; use this one from now on.", whereItIsNow(input.stage), whatComesNext(input.stage, input.route, input.linkDays)],
+    strong: null,
+    ...linkWords(input.photosShared),
+  });
 }
 
 /** The stored message with the status link put in; the URL is escaped for the HTML part. */

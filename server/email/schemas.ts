@@ -13,6 +13,12 @@ export const notifySettingsSchema = z
       .int("Use whole days.")
       .min(1, "A status link must work at least 1 day after delivery.")
       .max(365, "Keep it to 365 days or fewer."),
+    quietMinutes: z
+      .number({ message: "Say how many minutes a stage e-mail waits after a move." })
+      .int("Use whole minutes.")
+      .min(0, "Use 0 minutes or more (0 sends at once).")
+      .max(60, "Keep it to 60 minutes or fewer: the customer should hear the same hour.")
+      .optional(),
   })
   .strict();
 
@@ -27,3 +33,11 @@ export const outboxIdSchema = z.uuid({ message: "A message id looks like 3f2b…
 
 export type NotifySettingsInput = z.infer<typeof notifySettingsSchema>;
 export type EmailSettingsInput = z.infer<typeof emailSettingsSchema>;
+
+/** The office's choice when issuing a new status link: e-mail it to the job's contacts now, or not. */
+export const issueLinkSchema = z
+  .object({
+    emailContacts: z.boolean({ message: "Say whether to e-mail the new link to the job's contacts (true or false)." }).default(false),
+  })
+  .strict();
+export type IssueLinkInput = z.infer<typeof issueLinkSchema>;

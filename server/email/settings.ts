@@ -1,28 +1,52 @@
 import "server-only";
+import type { Transaction } from "kysely";
 import type { DB } from "@/db";
+import type { Database } from "@/db/schema";
 import type { Stage } from "@/db/schema";
 import { isStage } from "@/server/jobs/stages";
+import { emailEnv } from "./env";
 import type { StaffUser } from "@/server/auth/session";
 import { DEFAULT_NOTIFY_STAGES, DEFAULT_STATUS_LINK_DAYS, type NotifySettingsInput } from "./schemas";
 
 export interface NotifySettings {
   notifyStages: Stage[];
   statusLinkDays: number;
+  /** The shop's quiet period after a move, in minutes. */
+  quietMinutes: number;
 }
 
+export const DEFAULT_QUIET_SECONDS = 180;
+
 /** The shop's e-mail settings; a shop that never saved any gets the defaults. */
-export async function notifySettings(db: DB): Promise<NotifySettings> {
-  const row = await db.selectFrom("message_setting").select(["notify_stages", "status_link_days"]).where("id", "=", 1).executeTakeFirst();
-  if (!row) return { notifyStages: [...DEFAULT_NOTIFY_STAGES], statusLinkDays: DEFAULT_STATUS_LINK_DAYS };
-  return { notifyStages: row.notify_stages.split(",").filter(isStage), statusLinkDays: row.status_link_days };
+export async function notifySettings(db: DB | Transaction<Database>): Promise<NotifySettings> {
+  const row = await db.selectFrom("message_setting").select(["notify_stages", "status_link_days", "quiet_seconds"]).where("id", "=", 1).executeTakeFirst();
+  if (!row) return { notifyStages: [...DEFAULT_NOTIFY_STAGES], statusLinkDays: DEFAULT_STATUS_LINK_DAYS, quietMinutes: DEFAULT_QUIET_SECONDS / 60 };
+  return { notifyStages: row.notify_stages.split(",").filter(isStage), statusLinkDays: row.status_link_days, quietMinutes: Math.round(row.quiet_seconds / 6) / 10 };
 }
 
 export async function saveNotifySettings(db: DB, actor: StaffUser, input: NotifySettingsInput): Promise<NotifySettings> {
-  const values = { notify_stages: [...new Set(input.notifyStages)].join(","), status_link_days: input.statusLinkDays, updated_at: new Date().toISOString(), updated_by: actor.id };
+  const values = {
+    notify_stages: [...new Set(input.notifyStages)].join(","),
+    status_link_days: input.statusLinkDays,
+    ...(input.quietMinutes !== undefined ? { quiet_seconds: input.quietMinutes * 60 } : {}),
+    updated_at: new Date().toISOString(),
+    updated_by: actor.id,
+  };
   await db
     .insertInto("message_setting")
     .values({ id: 1, ...values })
     .onConflict((oc) => oc.column("id").doUpdateSet(values))
     .execute();
   return notifySettings(db);
+}
+
+/**
+ * How long a stage e-mail waits after the move, in seconds: EMAIL_QUIET_SECONDS when set (tests,
+ * scripted checks), else the shop's setting, else 3 minutes.
+ */
+export async function quietSeconds(db: DB | Transaction<Database>): Promise<number> {
+  const fromEnv = emailEnv().EMAIL_QUIET_SECONDS;
+  if (fromEnv !== undefined) return fromEnv;
+  const row = await db.selectFrom("message_setting").select("quiet_seconds").where("id", "=", 1).executeTakeFirst();
+  return row?.quiet_seconds ?? DEFAULT_QUIET_SECONDS;
 }

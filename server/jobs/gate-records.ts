@@ -22,7 +22,7 @@ export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promis
     const job = records.get(part.job_id);
     if (!job) continue;
     if (part.needs_leak_test === 1) {
-      job.leakTestParts.push({ name: part.name, passedSinceRework: part.passed === 1, lastResult: part.last_result });
+      job.leakTestParts.push({ name: part.name, passedSinceRework: part.passed === 1, lastResult: part.last_result, reworked: part.rework_count > 0 });
     }
     if (part.needs_coating === 1) {
       // Only runs since the part's last rework count, and the newest of them decides: a part sent

@@ -6,7 +6,7 @@ export interface GateRecords {
   /** How many parts are recorded on the job at all; a job with fabricated parts must list them. */
   partCount: number;
   /** Parts marked for a leak test, with whether a passing test is newer than their last rework. */
-  leakTestParts: { name: string; passedSinceRework: boolean; lastResult: "pass" | "fail" | null }[];
+  leakTestParts: { name: string; passedSinceRework: boolean; lastResult: "pass" | "fail" | "invalid" | null; reworked?: boolean }[];
   /** Parts marked for outside coating: whether sent (absent means sent), back, and inspected. */
   coatedParts: { name: string; sent?: boolean; received: boolean; inspected: boolean; adhesionFailed?: boolean }[];
   /** The wiring & run-test sign-off: null when none has been started. */
@@ -29,7 +29,9 @@ export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
         .map((p) =>
           p.lastResult === "fail"
             ? `${p.name}: the last leak test failed; rework it and record a passing test.`
-            : `${p.name}: record a passing leak test (none since its last rework).`,
+            : p.lastResult === "invalid"
+              ? `${p.name}: the last leak test did not follow the shop's procedure (invalid); test it again.`
+              : `${p.name}: record a passing leak test${p.reworked ? " (none since its last rework)" : ""}.`,
         );
     case "install":
       return records.coatedParts

@@ -1,9 +1,9 @@
 import "server-only";
-import { randomUUID } from "node:crypto";
 import { sql, type Transaction } from "kysely";
 import type { DB } from "@/db";
 import type { Database, Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
+import { queueStageMessage } from "@/server/email/outbox";
 import { ApiError } from "@/server/http/errors";
 import { loadGateRecords } from "./gate-records";
 import { checkMove, GATED_STAGES, NO_RECORDS } from "./gates";
@@ -63,10 +63,6 @@ async function columnIds(trx: Trx, stage: Stage, exceptId?: number) {
   let q = trx.selectFrom("job").select("id").where("stage", "=", stage);
   if (exceptId) q = q.where("id", "!=", exceptId);
   return (await q.orderBy("position").orderBy("id").execute()).map((r) => r.id);
-}
-
-function outboxRow(jobId: number, from: Stage | null, to: Stage, at: string) {
-  return { id: randomUUID(), job_id: jobId, kind: "stage_changed" as const, payload: JSON.stringify({ from, to }), status: "pending" as const, attempts: 0, next_attempt_at: at, last_error: null, created_at: at, sent_at: null };
 }
 
 export async function createJob(db: DB, actor: StaffUser, input: NewJobInput) {
@@ -162,7 +158,7 @@ export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveIn
       if (!move.override) {
         throw new ApiError("gate_unmet", `Not moved to ${STAGE_LABELS[move.toStage]}: ${check.unmet.length === 1 ? check.unmet[0] : `${check.unmet.length} things are missing.`}`, { unmet: check.unmet, canOverride: actor.role === "owner" });
       }
-      if (actor.role !== "owner") throw new ApiError("forbidden", "Only the owner can override a gate.");
+      if (actor.role !== "owner") throw new ApiError("forbidden", "Only the owner can override what a stage needs. Ask the owner, or record what is missing first.");
     }
     const overrideReason = check.unmet.length && move.override ? move.override.reason : null;
 
@@ -182,8 +178,8 @@ export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveIn
       .values({ job_id: id, from_stage: job.stage, to_stage: move.toStage, actor_id: actor.id, at, note: move.note ?? "", override_reason: overrideReason })
       .returning("id")
       .executeTakeFirstOrThrow();
-    // The customer hears about stage changes only; a reorder inside a column is kept as an event but sends nothing.
-    if (job.stage !== move.toStage) await trx.insertInto("outbox").values(outboxRow(id, job.stage, move.toStage, at)).execute();
+    // The customer hears about stage changes only, after the quiet period (server/email/outbox.ts).
+    await queueStageMessage(trx, { jobId: id, from: job.stage, to: move.toStage, at });
     return event.id;
   });
   return { job: (await findJob(db, id))!, eventId };

@@ -40,7 +40,7 @@ export const moveSchema = z
     beforeJobId: z.number().int("beforeJobId must be a job id.").positive("beforeJobId must be a job id.").nullable().optional(),
     version: z.number({ message: "Send the card's version." }).int().positive("The version is a positive whole number."),
     note: z.string().trim().max(1000, "Keep the note under 1000 characters.").optional(),
-    override: z.object({ reason: z.string().trim().min(5, "Write why the gate is overridden (at least a few words).").max(1000) }).optional(),
+    override: z.object({ reason: z.string().trim().min(5, "Write why the job moves on without what it needs (at least a few words).").max(1000) }).optional(),
   })
   .strict();
 

@@ -34,12 +34,19 @@ async function columnOrder(db: DB, stage: string, exceptId?: number) {
   return (await q.orderBy("position").orderBy("id").execute()).map((r) => r.id);
 }
 
-/** Reads where the card stands now, before it is moved, so an undo can put it back in the same place. */
+/** Reads where the card stands now, before it is moved, so an undo can put it back in the same place (one statement: this runs on every move). */
 export async function formerPlace(db: DB, jobId: number): Promise<FormerPlace | null> {
-  const job = await db.selectFrom("job").select("stage").where("id", "=", jobId).executeTakeFirst();
-  if (!job) return null;
-  const ids = await columnOrder(db, job.stage);
+  const ids = (
+    await db
+      .selectFrom("job")
+      .select("id")
+      .where("stage", "=", (eb) => eb.selectFrom("job as moving").select("moving.stage").where("moving.id", "=", jobId))
+      .orderBy("position")
+      .orderBy("id")
+      .execute()
+  ).map((r) => r.id);
   const index = ids.indexOf(jobId);
+  if (index < 0) return null;
   return { index, followerId: ids[index + 1] ?? null };
 }
 

@@ -1,11 +1,11 @@
-import { addYears } from "date-fns";
-import { formatCalendarDate, parseCalendarDate } from "./calendar";
+import { type LeakTestProcedure, PUBLISHED_PROCEDURE, procedureBreaches } from "./procedure";
 import type { LeakTestInput } from "./schemas";
 
 /** The part's shape, from the part record: the pressure band and the decay method depend on it. */
 export type PartShape = "round" | "box" | "other";
 
-export type LeakTestResult = "pass" | "fail";
+/** "invalid": the test broke the shop's procedure (see procedure.ts); it is neither a pass nor a fail. */
+export type LeakTestResult = "pass" | "fail" | "invalid";
 
 export type LeakTestWarningCode =
   | "test_pressure_outside_band"
@@ -25,6 +25,8 @@ export type LeakTestContext = {
   allowedDropPsi: number;
   /** The shop's today, YYYY-MM-DD (see shopToday in turnaround.ts). */
   today: string;
+  /** The shop's procedure minimums; the published figures when not given. */
+  procedure?: LeakTestProcedure;
 };
 
 export type LeakTestOutcome = {
@@ -32,12 +34,15 @@ export type LeakTestOutcome = {
   rawDropPsi: number;
   result: LeakTestResult;
   warnings: LeakTestWarning[];
+  /** Why the test is invalid: the procedure breaches, empty unless the result is "invalid". */
+  invalidReasons: LeakTestWarning[];
 };
 
 // Rankine = °F + 459.67, exact by the definition of the two scales.
 export const RANKINE_OFFSET_F = 459.67;
 // Standard atmosphere at sea level, 101.325 kPa (NIST Handbook 44, Appendix C units).
 export const SEA_LEVEL_PSIA = 14.696;
+// The figures below are the published defaults of the shop's procedure (procedure.ts holds the settings).
 // UL 142 §42.2.1: air test pressure, horizontal cylindrical tanks 3–5 psig, rectangular 1.5–3 psig.
 export const UL142_TEST_PRESSURE_PSIG = {
   round: { min: 3, max: 5, tank: "a round (horizontal cylindrical) tank" },
@@ -78,7 +83,7 @@ export function dropAgainstAllowance(correctedDropPsi: number, allowedDropPsi: n
   return `within the allowed ${allowed}`;
 }
 
-export const PRESSURE_ROSE_MESSAGE = "Pressure rose after correcting for temperature: check the thermometer and the gauge, then test again.";
+export const PRESSURE_ROSE_MESSAGE = "Pressure rose after correcting for temperature: check the thermometer and the gauge before trusting this reading.";
 
 export type PressureReadings = Pick<
   LeakTestInput,
@@ -132,54 +137,17 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
   const { rawDropPsi, correctedDropPsi } = pressureDrop(test);
   const seamLeaked = test.seams.some((seam) => seam.result === "leak");
   const dropTooLarge = correctedDropPsi > context.allowedDropPsi;
-  const result: LeakTestResult = seamLeaked || (usesDecay && dropTooLarge) ? "fail" : "pass";
+  const procedure = context.procedure ?? PUBLISHED_PROCEDURE;
 
   const warnings: LeakTestWarning[] = [];
   const warn = (code: LeakTestWarningCode, message: string) => warnings.push({ code, message });
 
-  if (context.partShape === "round" || context.partShape === "box") {
-    const band = UL142_TEST_PRESSURE_PSIG[context.partShape];
-    if (test.testPressurePsig < band.min || test.testPressurePsig > band.max) {
-      warn(
-        "test_pressure_outside_band",
-        `Test pressure ${show(test.testPressurePsig)} psig is outside the usual ${band.min}–${band.max} psig for ${band.tank} (UL 142 §42.2.1).`,
-      );
-    }
-  }
-
-  if (test.holdMinutes < ASME_MIN_HOLD_MINUTES) {
-    warn(
-      "hold_too_short",
-      `Pressure was held ${show(test.holdMinutes)} min; hold at least ${ASME_MIN_HOLD_MINUTES} min before examining (ASME BPVC Section V, Article 10).`,
-    );
-  }
-
-  const lowestScale = ASME_GAUGE_FULL_SCALE_RATIO.min * test.testPressurePsig;
-  const highestScale = ASME_GAUGE_FULL_SCALE_RATIO.max * test.testPressurePsig;
-  if (test.gaugeFullScalePsi < lowestScale || test.gaugeFullScalePsi > highestScale) {
-    warn(
-      "gauge_range",
-      `A ${show(test.gaugeFullScalePsi)} psi gauge is the wrong range for ${show(test.testPressurePsig)} psig: use a full scale between ${show(lowestScale)} and ${show(highestScale)} psi, about twice the test pressure (ASME BPVC Section V, Article 10).`,
-    );
-  }
-
-  const today = parseCalendarDate(context.today);
-  const calibratedOn = parseCalendarDate(test.gaugeCalibratedOn);
-  if (calibratedOn > today) {
-    warn(
-      "gauge_calibration_future",
-      `The gauge calibration date ${test.gaugeCalibratedOn} is after today (${context.today}); check the date on the gauge's tag.`,
-    );
-  } else if (formatCalendarDate(addYears(calibratedOn, GAUGE_CALIBRATION_YEARS)) < context.today) {
-    warn(
-      "gauge_calibration_old",
-      `The gauge was last calibrated ${test.gaugeCalibratedOn}, more than a year ago; have it checked (common practice, no published source).`,
-    );
-  }
+  const breaches = procedureBreaches(test, { partShape: context.partShape, procedure, today: context.today });
+  for (const breach of breaches) warn(breach.code, breach.message);
 
   // Trade reference, leak test: flat walls flex with pressure, so the volume is not constant and
-  // the P/T correction does not hold.
-  if (usesDecay && context.partShape === "box") {
+  // the P/T correction does not hold. With soap on every seam as well the test still counts.
+  if (test.method === "both" && context.partShape === "box") {
     warn(
       "decay_on_box_tank",
       "Pressure decay is not a valid leak test for a box tank: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution (trade reference, leak test).",
@@ -198,7 +166,11 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
   // when it shows at the gauge's 0.01 psi, so rounding noise is not flagged.
   if (formatDropPsi(correctedDropPsi).startsWith("-")) warn("pressure_rose_after_correction", PRESSURE_ROSE_MESSAGE);
 
-  return { correctedDropPsi, rawDropPsi, result, warnings };
+  // A bubble is a leak however the test was run, so a seen leak fails it. Otherwise a test outside
+  // the shop's procedure proves nothing either way: it is invalid and is done again.
+  const result: LeakTestResult = seamLeaked ? "fail" : breaches.length > 0 ? "invalid" : usesDecay && dropTooLarge ? "fail" : "pass";
+  const invalidReasons = result === "invalid" ? breaches.map(({ code, message }) => ({ code, message })) : [];
+  return { correctedDropPsi, rawDropPsi, result, warnings, invalidReasons };
 }
 
 /** Shown on the leak-test form before the tank is pressurized. */

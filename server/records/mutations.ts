@@ -29,8 +29,12 @@ import {
   type SignOffSave,
   type VendorInput,
   type WiringSignOff,
+  type LeakTestProcedurePatch,
+  kindDefaults,
   partProblems,
+  procedureProblems,
 } from "./schemas";
+import type { LeakTestProcedure } from "./procedure";
 import { signOffMissing } from "./sign-off";
 import { shopToday } from "./turnaround";
 
@@ -119,11 +123,15 @@ export async function patchPart(db: DB, actor: StaffUser, partId: number, patch:
       .executeTakeFirst();
     if (!part) throw notFound("That part");
     // The record as it will be once the patch is applied: every rule below reads this, never the request alone.
+    // A new kind brings its own defaults (kindDefaults): whatever the patch does not say is reset, not kept.
+    const kindChanged = patch.kind !== undefined && patch.kind !== part.kind;
+    const fresh = kindChanged ? kindDefaults(patch.kind!, part.shape) : null;
+    const storedGeometry = part.geometry ? (JSON.parse(part.geometry) as PartPatch["geometry"]) : null;
     const merged = {
       kind: patch.kind ?? part.kind,
-      shape: patch.shape ?? (patch.geometry ? patch.geometry.shape : part.shape),
-      geometry: patch.geometry !== undefined ? patch.geometry : part.geometry ? (JSON.parse(part.geometry) as PartPatch["geometry"]) : null,
-      needsLeakTest: patch.needsLeakTest ?? part.needs_leak_test === 1,
+      shape: patch.shape ?? (patch.geometry ? patch.geometry.shape : (fresh?.shape ?? part.shape)),
+      geometry: patch.geometry !== undefined ? patch.geometry : fresh && !fresh.keepsGeometry ? null : storedGeometry,
+      needsLeakTest: patch.needsLeakTest ?? fresh?.needsLeakTest ?? part.needs_leak_test === 1,
       needsCoating: patch.needsCoating ?? part.needs_coating === 1,
     };
     if (!GATE_EDITORS.includes(actor.role)) {
@@ -193,7 +201,7 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
   });
 }
 
-export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi" | "result" | "warnings"> {
+export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi" | "result" | "warnings" | "invalidReasons"> {
   test: LeakTestView;
   /**
    * The job as it stood when the test was saved: a page opened earlier may hold an older stage or
@@ -202,7 +210,10 @@ export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi"
   job: { id: number; workOrder: string; stage: Stage; scope: JobScope; version: number };
 }
 
-/** Records a leak test: the server corrects the drop for temperature and decides it against the shop's allowance. */
+/**
+ * Records a leak test: the drop is corrected for temperature and decided against the shop's
+ * allowance; a test outside the shop's procedure is kept as invalid and counts for nothing.
+ */
 export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, input: LeakTestRequest, now = new Date()): Promise<LeakTestAnswer> {
   const { testId, outcome, job } = await db.transaction().execute(async (trx) => {
     const part = await trx
@@ -217,7 +228,7 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
     }
     const { settings, today } = await todayIn(trx, now);
     const { jobId: _jobId, ...test } = input;
-    const outcome = evaluateLeakTest(test, { partShape: part.shape, allowedDropPsi: settings.allowedDropPsi, today });
+    const outcome = evaluateLeakTest(test, { partShape: part.shape, allowedDropPsi: settings.allowedDropPsi, today, procedure: settings.procedure });
     const row = await trx
       .insertInto("leak_test")
       .values({
@@ -227,6 +238,7 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
         start_temp_f: test.startTempF, end_temp_f: test.endTempF, barometric_psia: test.barometricPsia, seams: JSON.stringify(test.seams),
         tester: test.tester, raw_drop_psi: outcome.rawDropPsi, corrected_drop_psi: outcome.correctedDropPsi,
         allowed_drop_psi: settings.allowedDropPsi, result: outcome.result, warnings: JSON.stringify(outcome.warnings),
+        invalid_reasons: JSON.stringify(outcome.invalidReasons),
         recorded_by: actor.id, tested_at: now.toISOString(),
       })
       .returning("id")
@@ -235,7 +247,7 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
     return { testId: row.id, outcome, job };
   });
   const [test] = await listLeakTests(db, { testId });
-  return { correctedDropPsi: outcome.correctedDropPsi, result: outcome.result, warnings: outcome.warnings, test, job };
+  return { correctedDropPsi: outcome.correctedDropPsi, result: outcome.result, warnings: outcome.warnings, invalidReasons: outcome.invalidReasons, test, job };
 }
 
 export async function createVendor(db: DB, input: VendorInput): Promise<VendorView> {
@@ -259,7 +271,9 @@ export async function createVendor(db: DB, input: VendorInput): Promise<VendorVi
 }
 
 const TEST_FIRST = "has no passing leak test since its last rework; a tank is tested before it is coated.";
+const TEST_NONE = "has no passing leak test yet; a tank is tested before it is coated.";
 const TEST_FAILED = "failed its last leak test; rework it and record a passing test before it is coated.";
+const TEST_INVALID = "has an invalid last leak test (outside the shop's procedure); test it again before it is coated.";
 
 /** Sends parts out on a coating run. Every part is checked; each refusal names its place in the list. */
 export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingRunInput, now = new Date()): Promise<CoatingRunView> {
@@ -290,7 +304,7 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
       else if (part.needs_coating !== 1) problems[field] = `${part.name} (${part.work_order}) is not marked for outside coating.`;
       else if (out.has(partId)) problems[field] = `${part.name} (${part.work_order}) is already out on coating run ${out.get(partId)!.runId} with ${out.get(partId)!.vendorName}.`;
       else if (part.needs_leak_test === 1 && part.last_result !== "pass") {
-        problems[field] = `${part.name} (${part.work_order}) ${part.last_result === "fail" ? TEST_FAILED : TEST_FIRST}`;
+        problems[field] = `${part.name} (${part.work_order}) ${part.last_result === "fail" ? TEST_FAILED : part.last_result === "invalid" ? TEST_INVALID : part.rework_count > 0 ? TEST_FIRST : TEST_NONE}`;
       }
     });
     if (Object.keys(problems).length) throw fieldErrors(problems);
@@ -413,5 +427,31 @@ export async function updateLeakAllowance(db: DB, allowedDropPsi: number): Promi
     if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
     // The column is this area's own addition to the shop table (migration 0003), so it is written by name.
     await sql`update shop set leak_allowed_drop_psi = ${allowedDropPsi} where id = 1`.execute(trx);
+  });
+}
+
+/** The owner's change to the leak-test procedure. Tests already recorded keep the decision they were saved with. */
+export async function updateLeakTestProcedure(db: DB, patch: LeakTestProcedurePatch): Promise<LeakTestProcedure> {
+  return db.transaction().execute(async (trx) => {
+    const shop = await trx.selectFrom("shop").select("id").where("id", "=", 1).executeTakeFirst();
+    if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
+    const merged = { ...(await recordsSettings(trx)).procedure, ...patch };
+    const problems = procedureProblems(merged);
+    if (Object.keys(problems).length) throw fieldErrors(problems);
+    await trx
+      .updateTable("shop")
+      .set({
+        leak_min_hold_minutes: merged.minHoldMinutes,
+        leak_gauge_ratio_min: merged.gaugeRatioMin,
+        leak_gauge_ratio_max: merged.gaugeRatioMax,
+        leak_round_min_psig: merged.roundMinPsig,
+        leak_round_max_psig: merged.roundMaxPsig,
+        leak_box_min_psig: merged.boxMinPsig,
+        leak_box_max_psig: merged.boxMaxPsig,
+        leak_calibration_months: merged.calibrationMonths,
+      })
+      .where("id", "=", 1)
+      .execute();
+    return merged;
   });
 }

@@ -5,7 +5,8 @@ import type { DB } from "@/db";
 import type { PartKind, PartMaterial, PartShape } from "@/db/tables/records";
 import type { Stage } from "@/db/schema";
 import { formatCalendarDate, parseCalendarDate } from "./calendar";
-import type { LeakTestWarning } from "./leak-test";
+import type { LeakTestResult, LeakTestWarning } from "./leak-test";
+import { type LeakTestProcedure, PUBLISHED_PROCEDURE } from "./procedure";
 import type { CoatingFinish, LeakTestMethod, PartGeometry, SeamCheck, WiringSignOff } from "./schemas";
 import { DEFAULT_ALLOWED_DROP_PSI, DEFAULT_SHOP_TIME_ZONE } from "./settings";
 import { signOffMissing } from "./sign-off";
@@ -40,16 +41,32 @@ function parseJson<T>(text: string | null, fallback: T): T {
 export interface RecordsSettings {
   allowedDropPsi: number;
   timeZone: string;
+  procedure: LeakTestProcedure;
 }
 
-/** The shop settings the records read: the leak test's allowed drop and the shop's time zone. */
+/** The shop settings the records read: the leak test's allowed drop and procedure, and the shop's time zone. */
 export async function recordsSettings(db: DB): Promise<RecordsSettings> {
   const row = await db
     .selectFrom("shop")
-    .select(["time_zone", sql<number>`leak_allowed_drop_psi`.as("allowed_drop_psi")])
+    .select([
+      "time_zone", "leak_allowed_drop_psi", "leak_min_hold_minutes", "leak_gauge_ratio_min", "leak_gauge_ratio_max", "leak_round_min_psig",
+      "leak_round_max_psig", "leak_box_min_psig", "leak_box_max_psig", "leak_calibration_months",
+    ])
     .where("id", "=", 1)
     .executeTakeFirst();
-  return { allowedDropPsi: row?.allowed_drop_psi ?? DEFAULT_ALLOWED_DROP_PSI, timeZone: row?.time_zone ?? DEFAULT_SHOP_TIME_ZONE };
+  const procedure: LeakTestProcedure = row
+    ? {
+        minHoldMinutes: row.leak_min_hold_minutes,
+        gaugeRatioMin: row.leak_gauge_ratio_min,
+        gaugeRatioMax: row.leak_gauge_ratio_max,
+        roundMinPsig: row.leak_round_min_psig,
+        roundMaxPsig: row.leak_round_max_psig,
+        boxMinPsig: row.leak_box_min_psig,
+        boxMaxPsig: row.leak_box_max_psig,
+        calibrationMonths: row.leak_calibration_months,
+      }
+    : { ...PUBLISHED_PROCEDURE };
+  return { allowedDropPsi: row?.leak_allowed_drop_psi ?? DEFAULT_ALLOWED_DROP_PSI, timeZone: row?.time_zone ?? DEFAULT_SHOP_TIME_ZONE, procedure };
 }
 
 export async function shopClock(db: DB, now = new Date()): Promise<ShopClock> {
@@ -63,7 +80,7 @@ export type CoatingState = "out" | "back" | "inspected";
  * SQL expression over `part as p`. A part passes only while its newest test is a pass: a pass
  * followed by a fail means the tank leaks now, whatever the earlier test said.
  */
-export const currentLeakResult = sql<"pass" | "fail" | null>`(select t.result from leak_test t where t.part_id = p.id and t.rework_count = p.rework_count order by t.id desc limit 1)`;
+export const currentLeakResult = sql<LeakTestResult | null>`(select t.result from leak_test t where t.part_id = p.id and t.rework_count = p.rework_count order by t.id desc limit 1)`;
 
 // The newest coating run that carried the part in its current generation: a run from before a
 // rework coated metal that has since been cut or welded, so it no longer counts.
@@ -83,7 +100,7 @@ export interface PartStatusRow {
   /** 1 when the newest test since the last rework (same generation) is a pass. */
   passed: number;
   /** The newest test's result since the last rework; null when none. */
-  last_result: "pass" | "fail" | null;
+  last_result: LeakTestResult | null;
   /** The newest coating run carrying the part since its last rework, and where it stands; null when not sent since. */
   last_run_id: number | null;
   coating_state: CoatingState | null;
@@ -143,7 +160,7 @@ export interface PartView {
   reworkCount: number;
   reworkedAt: string | null;
   reworkNote: string;
-  leak: { passedSinceRework: boolean; lastResult: "pass" | "fail" | null };
+  leak: { passedSinceRework: boolean; lastResult: LeakTestResult | null };
   coating: PartCoating | null;
 }
 
@@ -253,8 +270,10 @@ export interface LeakTestView {
   rawDropPsi: number;
   correctedDropPsi: number;
   allowedDropPsi: number;
-  result: "pass" | "fail";
+  result: LeakTestResult;
   warnings: LeakTestWarning[];
+  /** Why the test did not follow the procedure; empty unless the result is "invalid". */
+  invalidReasons: LeakTestWarning[];
   recordedByName: string | null;
   testedAt: string;
 }
@@ -269,7 +288,7 @@ export async function listLeakTests(db: DB, filter: { jobId?: number; partId?: n
       "t.id", "t.part_id", "p.name as part_name", "p.rework_count as part_rework_count", "t.rework_count", "t.method", "t.part_shape",
       "t.test_pressure_psig", "t.gauge_full_scale_psi", "t.gauge_calibrated_on", "t.hold_minutes", "t.start_pressure_psig",
       "t.end_pressure_psig", "t.start_temp_f", "t.end_temp_f", "t.barometric_psia", "t.seams", "t.tester", "t.raw_drop_psi",
-      "t.corrected_drop_psi", "t.allowed_drop_psi", "t.result", "t.warnings", "s.name as recorded_by_name", "t.tested_at",
+      "t.corrected_drop_psi", "t.allowed_drop_psi", "t.result", "t.warnings", "t.invalid_reasons", "s.name as recorded_by_name", "t.tested_at",
     ]);
   if (filter.jobId !== undefined) query = query.where("p.job_id", "=", filter.jobId);
   if (filter.partId !== undefined) query = query.where("t.part_id", "=", filter.partId);
@@ -298,6 +317,7 @@ export async function listLeakTests(db: DB, filter: { jobId?: number; partId?: n
     allowedDropPsi: t.allowed_drop_psi,
     result: t.result,
     warnings: parseJson<LeakTestWarning[]>(t.warnings, []),
+    invalidReasons: parseJson<LeakTestWarning[]>(t.invalid_reasons, []),
     recordedByName: t.recorded_by_name,
     testedAt: t.tested_at,
   }));

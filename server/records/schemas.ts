@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { calendarDate } from "@/server/http/calendar-date";
 import { expectedEndPressurePsig, SEA_LEVEL_PSIA } from "./leak-test";
+import { type LeakTestProcedure, PROCEDURE_LIMITS } from "./procedure";
 import { INDICATOR_INPUTS, INDICATOR_SOURCES, SIGN_OFF_CHECK_KEYS, type SignOffCheckKey } from "./sign-off";
 
 // Numbers arrive as numbers: the form converts its fields before parsing, so an empty box is
@@ -279,6 +280,23 @@ export type PartRecord = {
   needsLeakTest: boolean;
 };
 
+/**
+ * What a part of each kind starts with. A reservoir is always leak-tested (trade reference, leak
+ * test); a box, bracket or other part is not unless someone ticks it. Only a reservoir carries tank
+ * geometry; a box part has flat walls. Changing a part's kind resets these, so a reservoir turned
+ * into a bracket does not keep asking for a leak test.
+ */
+export function kindDefaults(kind: PartKind, currentShape: (typeof PART_SHAPES)[number] = "round") {
+  switch (kind) {
+    case "reservoir":
+      return { needsLeakTest: true, shape: currentShape, keepsGeometry: true };
+    case "box":
+      return { needsLeakTest: false, shape: "box" as const, keepsGeometry: false };
+    default:
+      return { needsLeakTest: false, shape: "other" as const, keepsGeometry: false };
+  }
+}
+
 /** Rules that tie a part's fields together; checked on create and again on every edit, after merging. */
 export function partProblems(part: PartRecord): { path: string; message: string }[] {
   const problems: { path: string; message: string }[] = [];
@@ -383,3 +401,41 @@ export const recordsSettingsPatchSchema = z.strictObject(
   },
   { error: strictError("Only the leak test's allowed drop can be changed here.") },
 );
+
+const procedureNumber = (what: string, unit: string, limits: { min: number; max: number }) =>
+  z
+    .number({ error: `Enter ${what} in ${unit}.` })
+    .min(limits.min, { error: `${what[0].toUpperCase()}${what.slice(1)} is ${limits.min} to ${limits.max} ${unit}.` })
+    .max(limits.max, { error: `${what[0].toUpperCase()}${what.slice(1)} is ${limits.min} to ${limits.max} ${unit}.` });
+
+/** The owner's change to the leak-test procedure; the merged result is checked again (lowest below highest). */
+export const leakTestProcedurePatchSchema = z
+  .strictObject(
+    {
+      minHoldMinutes: procedureNumber("the shortest hold", "min", PROCEDURE_LIMITS.minHoldMinutes),
+      gaugeRatioMin: procedureNumber("the lowest gauge ratio", "× the test pressure", PROCEDURE_LIMITS.gaugeRatio),
+      gaugeRatioMax: procedureNumber("the highest gauge ratio", "× the test pressure", PROCEDURE_LIMITS.gaugeRatio),
+      roundMinPsig: procedureNumber("the round tank's lowest test pressure", "psig", PROCEDURE_LIMITS.testPsig),
+      roundMaxPsig: procedureNumber("the round tank's highest test pressure", "psig", PROCEDURE_LIMITS.testPsig),
+      boxMinPsig: procedureNumber("the box tank's lowest test pressure", "psig", PROCEDURE_LIMITS.testPsig),
+      boxMaxPsig: procedureNumber("the box tank's highest test pressure", "psig", PROCEDURE_LIMITS.testPsig),
+      calibrationMonths: z
+        .number({ error: "Enter the oldest gauge calibration accepted, in months." })
+        .int({ error: "Enter the calibration age in whole months." })
+        .min(PROCEDURE_LIMITS.calibrationMonths.min, { error: `The calibration age is ${PROCEDURE_LIMITS.calibrationMonths.min} to ${PROCEDURE_LIMITS.calibrationMonths.max} months.` })
+        .max(PROCEDURE_LIMITS.calibrationMonths.max, { error: `The calibration age is ${PROCEDURE_LIMITS.calibrationMonths.min} to ${PROCEDURE_LIMITS.calibrationMonths.max} months.` }),
+    },
+    { error: strictError("Only the leak-test procedure's hold, gauge ratios, test-pressure bands and calibration age can be changed here.") },
+  )
+  .partial()
+  .refine((patch) => Object.keys(patch).length > 0, { error: "Send at least one of the procedure's figures." });
+export type LeakTestProcedurePatch = z.infer<typeof leakTestProcedurePatchSchema>;
+
+/** Lowest below highest, for each pair, once the change is merged with what is stored. */
+export function procedureProblems(p: LeakTestProcedure): Record<string, string> {
+  const problems: Record<string, string> = {};
+  if (p.gaugeRatioMin >= p.gaugeRatioMax) problems.gaugeRatioMax = `The highest gauge ratio must be above the lowest (${p.gaugeRatioMin}×).`;
+  if (p.roundMinPsig >= p.roundMaxPsig) problems.roundMaxPsig = `The round tank's highest test pressure must be above its lowest (${p.roundMinPsig} psig).`;
+  if (p.boxMinPsig >= p.boxMaxPsig) problems.boxMaxPsig = `The box tank's highest test pressure must be above its lowest (${p.boxMinPsig} psig).`;
+  return problems;
+}

@@ -32,7 +32,6 @@ export async function updateStaff(db: DB, actorId: string, id: string, patch: z.
   if (id === actorId && (patch.active === false || (patch.role && patch.role !== "owner"))) {
     throw new ApiError("conflict", "You cannot demote or deactivate yourself; ask another owner.");
   }
-  const password_hash = patch.password ? await hashPassword(patch.password) : undefined;
   await db.transaction().execute(async (trx) => {
     if ((patch.active === false || (patch.role && patch.role !== "owner")) && existing.role === "owner") {
       const owners = await trx.selectFrom("staff").select("id").where("role", "=", "owner").where("active", "=", 1).where("id", "!=", id).execute();
@@ -44,12 +43,11 @@ export async function updateStaff(db: DB, actorId: string, id: string, patch: z.
         ...(patch.name !== undefined ? { name: patch.name } : {}),
         ...(patch.role !== undefined ? { role: patch.role } : {}),
         ...(patch.active !== undefined ? { active: patch.active ? 1 : 0 } : {}),
-        ...(password_hash ? { password_hash } : {}),
       })
       .where("id", "=", id)
       .execute();
-    // A deactivated member or a reset password ends every session of theirs at once.
-    if (patch.active === false || password_hash || patch.role !== undefined) {
+    // A deactivated member or a new role ends every session of theirs at once.
+    if (patch.active === false || patch.role !== undefined) {
       await trx.deleteFrom("session").where("staff_id", "=", id).execute();
     }
   });

@@ -12,7 +12,7 @@ export function findStaff(db: DB, id: string) {
 }
 
 export function findStaffForSignIn(db: DB, email: string) {
-  return db.selectFrom("staff").select(["id", "name", "role", "password_hash", "active"]).where("email", "=", email).executeTakeFirst();
+  return db.selectFrom("staff").select(["id", "name", "role", "password_hash", "active", "must_change_password"]).where("email", "=", email).executeTakeFirst();
 }
 
 export async function staffCount(db: DB) {

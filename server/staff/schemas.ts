@@ -27,14 +27,18 @@ export const newStaffSchema = z.object({
   password,
 });
 
+// A password is never set here: the owner's reset hands out a temporary one (POST
+// /api/staff/[id]/password-reset) and each person chooses their own on /account.
 export const staffPatchSchema = z
-  .object({
-    name: personName.optional(),
-    role: z.enum(ROLES, { message: "Choose owner, office or tech." }).optional(),
-    active: z.boolean().optional(),
-    password: password.optional(),
-  })
-  .refine((v) => Object.keys(v).length > 0, { message: "Say what to change: name, role, active or password." });
+  .strictObject(
+    {
+      name: personName.optional(),
+      role: z.enum(ROLES, { message: "Choose owner, office or tech." }).optional(),
+      active: z.boolean({ error: "Send active: true or false." }).optional(),
+    },
+    { error: (issue) => (issue.code === "unrecognized_keys" ? "Only a name, role or active can be changed here; reset a password with Reset password." : undefined) },
+  )
+  .refine((v) => Object.keys(v).length > 0, { message: "Say what to change: name, role or active." });
 
 export const firstRunSchema = z.object({
   shopName: z.string().trim().min(1, "Enter the shop's name.").max(80, "Keep the shop name under 80 characters."),
@@ -45,6 +49,7 @@ export const firstRunSchema = z.object({
 });
 
 export const passwordChangeSchema = z.object({
-  currentPassword: z.string().min(1, "Enter your current password.").max(200),
-  newPassword: password,
+  currentPassword: z.string({ error: "Enter your current password." }).min(1, "Enter your current password.").max(200, "Use at most 200 characters."),
+  newPassword: z.string({ error: "Enter a new password." }).pipe(password),
+  confirmPassword: z.string({ error: "Type the new password again." }).min(1, "Type the new password again.").max(200, "Use at most 200 characters."),
 });

@@ -3,6 +3,8 @@ import type { Transaction } from "kysely";
 import type { DB } from "@/db";
 import type { Database } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
+import { queueLinkMessage } from "@/server/email/outbox";
+import { recipientsFor } from "@/server/email/recipients";
 import { notifySettings } from "@/server/email/settings";
 import { ApiError } from "@/server/http/errors";
 import { deliveredAt } from "./queries";
@@ -62,15 +64,25 @@ async function insertLink(trx: Trx, jobId: number, issuedBy: string | null, at: 
  * Issues a new link and turns off the job's other links, so one link is live at a time and a
  * link sent to the wrong person can be replaced. The URL is returned here once.
  */
-export async function issueStatusLink(db: DB, actor: StaffUser, jobId: number) {
+export async function issueStatusLink(db: DB, actor: StaffUser, jobId: number, options: { emailContacts?: boolean } = {}) {
   const at = new Date().toISOString();
   const link = await db.transaction().execute(async (trx) => {
     const job = await trx.selectFrom("job").select("id").where("id", "=", jobId).executeTakeFirst();
     if (!job) throw new ApiError("not_found", "That job was not found.");
+    // Checked before anything changes: a refused request leaves the old link working.
+    let recipients: string[] = [];
+    if (options.emailContacts) {
+      const { emailOff, to } = await recipientsFor(trx, jobId);
+      if (emailOff) throw new ApiError("conflict", "E-mail is off for this job: switch it on under “Who gets e-mail about this job”, or issue the link without e-mailing it.");
+      if (to.length === 0) throw new ApiError("conflict", "Nobody on this job gets e-mail updates: choose a contact with an e-mail address, or issue the link without e-mailing it.");
+      recipients = to;
+    }
     await trx.updateTable("status_link").set({ revoked_at: at, revoked_by: actor.id }).where("job_id", "=", jobId).where("revoked_at", "is", null).execute();
-    return insertLink(trx, jobId, actor.id, at);
+    const issued = await insertLink(trx, jobId, actor.id, at);
+    const outboxId = options.emailContacts ? await queueLinkMessage(trx, { jobId, linkId: issued.id, requestedBy: actor.id, at }) : null;
+    return { ...issued, outboxId, recipients };
   });
-  return { id: link.id, url: statusUrl(link.token), createdAt: at };
+  return { id: link.id, url: statusUrl(link.token), createdAt: at, emailedTo: link.recipients, outboxId: link.outboxId };
 }
 
 export async function revokeStatusLink(db: DB, actor: StaffUser, linkId: number) {

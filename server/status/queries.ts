@@ -4,6 +4,7 @@ import type { DB } from "@/db";
 import type { JobScope, Stage } from "@/db/schema";
 import { notifySettings } from "@/server/email/settings";
 import { stageIndex } from "@/server/jobs/stages";
+import { jobRoute } from "./route";
 import { DEFAULT_STATUS_LINK_DAYS } from "@/server/email/schemas";
 import { queueLinkOpened } from "./opened";
 import { type LinkState, linkState } from "./rules";
@@ -60,7 +61,11 @@ export async function shopContact(db: DB) {
 export interface StatusView {
   shop: { name: string; phone: string; timeZone: string };
   truck: { unitNumber: string; year: number; description: string; vinTail: string };
+  /** The work order and the work description as the office wrote it: a unit with two open jobs reads as two jobs. */
+  job: { workOrder: string; description: string };
   stage: Stage;
+  /** The job's own route (server/status/route.ts), from its work and parts as they are now. */
+  route: Stage[];
   scope: JobScope;
   readyBy: string | null;
   /** How long the link keeps working after pickup (the shop's setting). */
@@ -77,6 +82,8 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
       "job.stage",
       "job.scope",
       "job.due_on as readyBy",
+      "job.work_order as workOrder",
+      "job.description as workDescription",
       "truck.unit_number as unitNumber",
       "truck.year",
       "truck.description",
@@ -85,7 +92,7 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
     .where("job.id", "=", jobId)
     .executeTakeFirst();
   if (!job) return null;
-  const [events, photos, shop, settings] = await Promise.all([
+  const [events, photos, shop, settings, parts] = await Promise.all([
     db.selectFrom("stage_event").select(["from_stage", "to_stage", "at"]).where("job_id", "=", jobId).orderBy("id").execute(),
     db
       .selectFrom("photo")
@@ -96,11 +103,14 @@ export async function statusView(db: DB, jobId: number): Promise<StatusView | nu
       .execute(),
     shopContact(db),
     notifySettings(db),
+    db.selectFrom("part").select(["needs_leak_test", "needs_coating"]).where("job_id", "=", jobId).execute(),
   ]);
   return {
     shop,
     truck: { unitNumber: job.unitNumber, year: job.year, description: job.description, vinTail: job.vinTail },
+    job: { workOrder: job.workOrder, description: job.workDescription },
     stage: job.stage,
+    route: jobRoute(job.scope, parts.map((p) => ({ needsLeakTest: p.needs_leak_test === 1, needsCoating: p.needs_coating === 1 }))),
     scope: job.scope,
     readyBy: job.readyBy,
     linkDays: settings.statusLinkDays,
@@ -133,15 +143,17 @@ export async function readStatusPage(db: DB, rawToken: string, now = new Date())
   const tokenHash = looksLikeToken(rawToken) ? hashToken(rawToken) : null;
   const { rows } = await sql<{
     linkId: number | null; jobId: number | null; revokedAt: string | null; lastOpenedAt: string | null;
-    stage: Stage | null; scope: JobScope | null; readyBy: string | null; unitNumber: string | null; year: number | null; description: string | null; vinTail: string | null;
-    deliveredAt: string | null; events: string | null; photos: string | null;
+    stage: Stage | null; scope: JobScope | null; readyBy: string | null; workOrder: string | null; workDescription: string | null;
+    unitNumber: string | null; year: number | null; description: string | null; vinTail: string | null;
+    deliveredAt: string | null; events: string | null; photos: string | null; parts: string | null;
     shopName: string | null; shopPhone: string | null; shopTimeZone: string | null; linkDays: number | null;
   }>`select l.id as "linkId", l.job_id as "jobId", l.revoked_at as "revokedAt", l.last_opened_at as "lastOpenedAt",
-      j.stage, j.scope, j.due_on as "readyBy", t.unit_number as "unitNumber", t.year, t.description, substr(t.vin, -6) as "vinTail",
+      j.stage, j.scope, j.due_on as "readyBy", j.work_order as "workOrder", j.description as "workDescription", t.unit_number as "unitNumber", t.year, t.description, substr(t.vin, -6) as "vinTail",
       case when j.stage = 'delivered' then (select e.at from stage_event e where e.job_id = j.id and e.to_stage = 'delivered' order by e.id desc limit 1) end as "deliveredAt",
       case when j.id is not null then (select json_group_array(json_array(e.from_stage, e.to_stage, e.at) order by e.id) from stage_event e where e.job_id = j.id) end as events,
       case when j.id is not null then (select json_group_array(json_object('id', p.id, 'caption', p.caption, 'stage', p.stage, 'width', p.width, 'height', p.height) order by p.id)
         from photo p where p.job_id = j.id and p.customer_visible = 1) end as photos,
+      case when j.id is not null then (select json_group_array(json_array(pt.needs_leak_test, pt.needs_coating)) from part pt where pt.job_id = j.id) end as parts,
       s.name as "shopName", s.phone as "shopPhone", s.time_zone as "shopTimeZone", m.status_link_days as "linkDays"
     from (select 1) as one
     left join status_link l on l.token_hash = ${tokenHash}
@@ -156,13 +168,16 @@ export async function readStatusPage(db: DB, rawToken: string, now = new Date())
   const state = linkState({ revoked_at: row.revokedAt }, { stage: row.stage, deliveredAt: row.deliveredAt }, linkDays, now);
   if (state !== "active") return { link: { state, linkId: row.linkId }, view: null, shop };
   const events = (JSON.parse(row.events ?? "[]") as [Stage | null, Stage, string][]).map(([from_stage, to_stage, at]) => ({ from_stage, to_stage, at }));
+  const parts = (JSON.parse(row.parts ?? "[]") as [number, number][]).map(([leak, coat]) => ({ needsLeakTest: leak === 1, needsCoating: coat === 1 }));
   return {
     link: { state, linkId: row.linkId, jobId: row.jobId, lastOpenedAt: row.lastOpenedAt },
     shop,
     view: {
       shop,
       truck: { unitNumber: row.unitNumber ?? "", year: row.year ?? 0, description: row.description ?? "", vinTail: row.vinTail ?? "" },
+      job: { workOrder: row.workOrder ?? "", description: row.workDescription ?? "" },
       stage: row.stage,
+      route: jobRoute(row.scope!, parts),
       scope: row.scope!,
       readyBy: row.readyBy,
       linkDays,

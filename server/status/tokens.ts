@@ -68,3 +68,11 @@ export function appUrl(): string {
 export function statusUrl(token: string): string {
   return `${appUrl()}/status/${token}`;
 }
+
+/**
+ * A key for another purpose, derived from the same secret (HMAC with a label), so the shop keeps
+ * one secret outside the database. Used for the signed-in device cookie.
+ */
+export function derivedKey(label: string): Buffer {
+  return createHmac("sha256", linkSecret()).update(`baywright:${label}`).digest();
+}

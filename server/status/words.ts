@@ -1,5 +1,6 @@
-import type { JobScope, Stage } from "@/db/schema";
+import type { Stage } from "@/db/schema";
 import { stageIndex } from "@/server/jobs/stages";
+import { firstWorkStep, nextOnRoute } from "./route";
 
 /*
  * What the truck owner reads, shared by the status page and the stage e-mails so both say the
@@ -41,44 +42,42 @@ export function whereItIsNow(stage: Stage): string {
   }
 }
 
-/** What the next step is, for the e-mail and under the status page's sentence. */
-export function whatComesNext(stage: Stage, scope: JobScope, linkDays = 60): string {
-  switch (stage) {
-    case "queued":
-      return scope === "install_only" ? "Next, we start installing the kit. We will e-mail you as the job moves." : "Next, we start building the fabricated parts. We will e-mail you as the job moves.";
-    case "fabricate":
-      return "Next, the fabricated parts are pressure-tested for leaks.";
+/** What the next step on the job's own route is, for the e-mail and under the status page's sentence. */
+export function whatComesNext(stage: Stage, route: readonly Stage[], linkDays = 60): string {
+  if (stage === "ready") return "Get in touch with us to set a pickup time.";
+  if (stage === "delivered") return `Your status link keeps working for ${linkDays} days in case you want to look back at the photos.`;
+  const next = nextOnRoute(route, stage);
+  if (stage === "queued") {
+    return next === "fabricate" ? "Next, we start building the fabricated parts. We will e-mail you as the job moves." : "Next, we start installing the kit. We will e-mail you as the job moves.";
+  }
+  if (stage === "coating" && next === "install") return "When the parts are back from the coater, we install the kit on your truck.";
+  if (stage === "wire" && next === "ready") return "When the run test is signed off, your truck is ready for pickup.";
+  switch (next) {
     case "pressure_test":
-      return "Next, the parts go to an outside coater for powder coat.";
+      return "Next, the fabricated parts are pressure-tested for leaks.";
     case "coating":
-      return "When the parts are back from the coater, we install the kit on your truck.";
+      return "Next, the parts go to an outside coater for powder coat.";
     case "install":
-      return "Next, we wire the kit and run-test it.";
+      return "Next, we install the kit on your truck.";
     case "wire":
-      return "When the run test is signed off, your truck is ready for pickup.";
+      return "Next, we wire the kit and run-test it.";
     case "ready":
-      return "Get in touch with us to set a pickup time.";
-    case "delivered":
-      return `Your status link keeps working for ${linkDays} days in case you want to look back at the photos.`;
+      return "Next, your truck is ready for pickup.";
+    default:
+      return "We will e-mail you as the job moves.";
   }
 }
 
-/** The e-mail's first line: the stage the job has moved to. A move back says so plainly. */
-export function whatHappened(from: Stage | null, to: Stage, scope: JobScope): string {
+/** The e-mail's first line about the work: the stage the job has moved to. A move back says so plainly. */
+export function whatHappened(from: Stage | null, to: Stage, route: readonly Stage[]): string {
   if (from && stageIndex(to) < stageIndex(from)) {
     if (to === "queued") return "Work on your truck is paused for now; your job is back in the queue.";
     return `Your job has gone back to the ${CUSTOMER_STAGE_NAMES[to].toLowerCase()} step for more work. ${whereItIsNow(to)}`;
   }
-  switch (to) {
-    case "queued":
-      return "Your job is booked in.";
-    case "fabricate":
-      return `Work has started. ${whereItIsNow(to)}`;
-    case "install":
-      return scope === "install_only" ? `Work has started. ${whereItIsNow(to)}` : whereItIsNow(to);
-    default:
-      return whereItIsNow(to);
-  }
+  if (to === "queued") return "Your job is booked in.";
+  // The first step of work on this job's route is where work starts.
+  if (to === firstWorkStep(route) || to === "fabricate") return `Work has started. ${whereItIsNow(to)}`;
+  return whereItIsNow(to);
 }
 
 /** Only the tail of the VIN goes to the customer page: enough to recognise the truck, not to copy the VIN. */

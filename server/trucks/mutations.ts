@@ -57,6 +57,9 @@ export async function createTruck(db: DB, input: NewTruckInput) {
         description: input.description,
         transmission: input.transmission,
         work_engine_rpm: input.workEngineRpm,
+        make: input.make,
+        model: input.model,
+        pto_opening: input.ptoOpening,
         created_at: new Date().toISOString(),
       })
       .returning("id")
@@ -86,6 +89,9 @@ export async function updateTruck(db: DB, id: number, patch: TruckPatch) {
         ...(patch.description !== undefined ? { description: patch.description } : {}),
         ...(patch.transmission !== undefined ? { transmission: patch.transmission } : {}),
         ...(patch.workEngineRpm !== undefined ? { work_engine_rpm: patch.workEngineRpm } : {}),
+        ...(patch.make !== undefined ? { make: patch.make } : {}),
+        ...(patch.model !== undefined ? { model: patch.model } : {}),
+        ...(patch.ptoOpening !== undefined ? { pto_opening: patch.ptoOpening } : {}),
       })
       .where("id", "=", id)
       .execute();

@@ -19,6 +19,9 @@ function truckSelect(db: DB) {
       "truck.transmission",
       "truck.work_engine_rpm as workEngineRpm",
       "truck.created_at as createdAt",
+      "truck.make",
+      "truck.model",
+      "truck.pto_opening as ptoOpening",
     ]);
 }
 
@@ -33,6 +36,8 @@ export function listTrucks(db: DB, query: TruckListQuery = {}): Promise<TruckVie
         containsText(eb.ref("truck.unit_number"), q),
         containsText(eb.ref("truck.vin"), q),
         containsText(eb.ref("truck.description"), q),
+        containsText(eb.ref("truck.make"), q),
+        containsText(eb.ref("truck.model"), q),
         containsText(eb.ref("customer.name"), q),
       ]),
     );

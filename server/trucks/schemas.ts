@@ -6,6 +6,9 @@ export const TRUCK_LIMITS = {
   unitNumber: 40,
   description: 200,
   transmission: 80,
+  make: 40,
+  model: 60,
+  ptoOpening: 80,
   firstYear: 1980,
   rpmMin: 500,
   rpmMax: 3000,
@@ -55,6 +58,10 @@ const truckFields = {
   description: optionalText("the description", TRUCK_LIMITS.description),
   transmission: optionalText("the transmission", TRUCK_LIMITS.transmission),
   workEngineRpm: workEngineRpmSchema,
+  // Make, model, transmission and PTO opening are what a PTO is chosen and fitted by.
+  make: optionalText("the make", TRUCK_LIMITS.make),
+  model: optionalText("the model", TRUCK_LIMITS.model),
+  ptoOpening: optionalText("the PTO opening", TRUCK_LIMITS.ptoOpening),
 };
 
 export const newTruckSchema = z.object({
@@ -62,6 +69,9 @@ export const newTruckSchema = z.object({
   description: truckFields.description.default(""),
   transmission: truckFields.transmission.default(""),
   workEngineRpm: truckFields.workEngineRpm.default(null),
+  make: truckFields.make.default(""),
+  model: truckFields.model.default(""),
+  ptoOpening: truckFields.ptoOpening.default(""),
 });
 export type NewTruckInput = z.infer<typeof newTruckSchema>;
 
@@ -74,9 +84,12 @@ export const truckPatchSchema = z
     description: truckFields.description.optional(),
     transmission: truckFields.transmission.optional(),
     workEngineRpm: truckFields.workEngineRpm.optional(),
+    make: truckFields.make.optional(),
+    model: truckFields.model.optional(),
+    ptoOpening: truckFields.ptoOpening.optional(),
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), {
-    error: "Say what to change: customer, unit number, VIN, year, description, transmission or engine speed.",
+    error: "Say what to change: customer, unit number, VIN, year, make, model, description, transmission, PTO opening or engine speed.",
   });
 export type TruckPatch = z.infer<typeof truckPatchSchema>;
 
@@ -105,4 +118,7 @@ export interface TruckView {
   transmission: string;
   workEngineRpm: number | null;
   createdAt: string;
+  make: string;
+  model: string;
+  ptoOpening: string;
 }

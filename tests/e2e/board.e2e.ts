@@ -1,5 +1,7 @@
+import { createRequire } from "node:module";
+import Database from "better-sqlite3";
 import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
 
 const enabled = Boolean(baseUrl());
@@ -24,6 +26,33 @@ async function waitForCard(page: Page, workOrder: string, stage: string) {
   await page.locator(`ul[data-stage="${stage}"] > li[data-card="${workOrder}"]`).waitFor({ timeout: 10_000 });
 }
 
+type Mail = { subject: string; text: string; createdAt: string };
+
+/** The e-mails about a work order that reached the shop's fake mail service since a moment. */
+async function mailsAbout(workOrder: string, since: string) {
+  const mails = (await (await fetch(`${inject("fakesUrl")}/__fake/emails`)).json()) as Mail[];
+  return mails.filter((m) => m.createdAt >= since && `${m.subject}\n${m.text}`.includes(workOrder));
+}
+
+/** An Install job, not the first in its column, whose customer has a contact who gets e-mail updates. */
+function installJobWithContacts(): string {
+  const sqlite = new Database(inject("databasePath"), { readonly: true, fileMustExist: true });
+  try {
+    const row = sqlite
+      .prepare(
+        `select job.work_order as wo from job
+         where job.stage = 'install' and job.position > 0
+           and exists (select 1 from contact where contact.customer_id = job.customer_id and contact.receives_email = 1 and contact.email != '')
+         order by job.position limit 1`,
+      )
+      .get() as { wo: string } | undefined;
+    expect(row, "an Install job (not the first) whose customer gets e-mail updates").toBeDefined();
+    return row!.wo;
+  } finally {
+    sqlite.close();
+  }
+}
+
 /** Counts the move and undo requests the page sends, to prove that nothing was sent. */
 function countMoves(page: Page) {
   const seen: string[] = [];
@@ -44,6 +73,17 @@ async function mouseDrag(page: Page, workOrder: string, to: { x: number; y: numb
   await page.mouse.move(from.x + from.width / 2 + 12, from.y + from.height / 2 + 4, { steps: 3 });
   await page.mouse.move(to.x, to.y, { steps: 20 });
   await page.mouse.up();
+}
+
+/** axe's serious and critical findings on the page as it is now, each as "rule: target". */
+async function axeFindings(page: Page) {
+  await page.addScriptTag({ path: createRequire(import.meta.url).resolve("axe-core/axe.min.js") });
+  const found = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; impact: string; nodes: { target: string[] }[] }[] }> } }).axe;
+    const result = await axe.run(document, { resultTypes: ["violations"] });
+    return result.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`);
+  });
+  return found;
 }
 
 describe.skipIf(!enabled)("the board in Chromium", () => {
@@ -71,13 +111,13 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     await context.close();
   });
 
-  it("ArrowDown on a focused 'Move to…' only changes the choice; Move (or Enter) moves, and Undo puts the card back in the same place", async () => {
+  it("ArrowDown on a focused 'Move to…' only changes the choice; Move (or Enter) moves, and Undo puts the card back in the same place and e-mails nobody", { timeout: 90_000 }, async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "tech");
     const moves = countMoves(page);
+    const wo = installJobWithContacts();
     const before = await cardsIn(page, "install");
-    expect(before.length, "Install holds at least two cards").toBeGreaterThanOrEqual(2);
-    const wo = before[1]!;
+    expect(before.indexOf(wo), "the card is below another in Install").toBeGreaterThan(0);
     const list = page.locator(`li[data-card="${wo}"] select[data-move-to]`);
     await list.focus();
     await page.keyboard.press("ArrowDown");
@@ -90,6 +130,7 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     // A backward move is always allowed: choose Pressure test and press Move.
     await list.selectOption("pressure_test");
     expect(moves).toEqual([]);
+    const since = new Date().toISOString();
     await page.locator(`li[data-card="${wo}"]`).getByRole("button", { name: `Move ${wo} to Pressure test` }).click();
     await waitForCard(page, wo, "pressure_test");
     const toast = page.locator("[data-move-toast]");
@@ -104,15 +145,21 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     await waitForCard(page, wo, "install");
     expect(await cardsIn(page, "install")).toEqual(before);
     expect(moves).toHaveLength(2);
+    // The browser tests' server waits 3 s before e-mailing a move and sends every second: 8 s is well past both.
+    await page.waitForTimeout(8000);
+    expect(await mailsAbout(wo, since), "no e-mail about a move that was taken back").toEqual([]);
 
-    // Enter on the list moves too.
+    // Enter on the list moves too; a move that stands does reach the customer.
+    const standing = new Date().toISOString();
     const again = page.locator(`li[data-card="${wo}"] select[data-move-to]`);
     await again.selectOption("pressure_test");
     await again.press("Enter");
     await waitForCard(page, wo, "pressure_test");
-    await page.locator("[data-move-toast]").getByRole("button", { name: /^Undo/ }).click();
+    await expect.poll(async () => (await mailsAbout(wo, standing)).length, { timeout: 30_000, interval: 500 }).toBe(1);
+    // Back to Install, where it was, for the other journeys.
+    await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("install");
+    await page.getByRole("button", { name: `Move ${wo} to Install` }).click();
     await waitForCard(page, wo, "install");
-    expect(await cardsIn(page, "install")).toEqual(before);
     await context.close();
   });
 
@@ -154,6 +201,7 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
       await expect.poll(() => news.textContent()).toContain(`over ${LABELS[stage]},`);
       expect(await page.locator(`ul[data-stage="${stage}"].border-dashed`).count(), `${stage} is marked as the target`).toBe(1);
       visited.push(stage);
+      if (stage === "install") await page.screenshot({ path: "screenshots/board-desk-keyboard-drag.png" });
     }
     expect(visited).toEqual(["pressure_test", "coating", "install", "wire", "ready"]);
     await page.keyboard.press("ArrowLeft");
@@ -265,7 +313,13 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     for (let i = 1; i <= 5; i++) await touch("touchMove", { x: 8 + ((middle.x - 8) * i) / 5, y: middle.y });
     await touch("touchEnd");
     await waitForCard(page, wo, "pressure_test");
+    await page.waitForTimeout(1000);
     await page.screenshot({ path: "screenshots/board-phone-touch-drop.png" });
+    const dropped = (await page.locator(`li[data-card="${wo}"]`).boundingBox())!;
+    expect(dropped.x, "the dropped card is in view").toBeGreaterThanOrEqual(0);
+    expect(dropped.x + dropped.width).toBeLessThanOrEqual(PHONE.viewport.width + 1);
+    expect(dropped.y).toBeGreaterThanOrEqual(0);
+    expect(dropped.y).toBeLessThan(PHONE.viewport.height);
     await page.locator("[data-move-toast]").getByRole("button", { name: /^Undo/ }).click();
     await waitForCard(page, wo, "install");
     await context.close();
@@ -279,5 +333,29 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     expect(await page.getByRole("note").textContent()).toMatch(/for the office and the owner/);
     expect(await page.getByRole("link", { name: "New job" }).count()).toBe(0);
     await context.close();
+  });
+
+  it("axe finds nothing serious on the board at desk and phone size, with a move's confirmation and a refusal showing", async () => {
+    for (const size of [DESK, PHONE]) {
+      const context = await browser.newContext(size);
+      const page = await signIn(context, "owner");
+      expect(await axeFindings(page)).toEqual([]);
+      const wo = await firstCardIn(page, "wire");
+      await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
+      await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
+      await page.locator(`li[data-card="${wo}"] [role="alert"]`).waitFor();
+      expect(await axeFindings(page)).toEqual([]);
+      await page.getByRole("button", { name: "Dismiss" }).first().click();
+      // A move back to Queued is always allowed, whatever the card's work.
+      const back = await firstCardIn(page, "install");
+      await page.locator(`li[data-card="${back}"] select[data-move-to]`).selectOption("queued");
+      await page.getByRole("button", { name: `Move ${back} to Queued` }).click();
+      const toast = page.locator("[data-move-toast]");
+      await toast.waitFor();
+      expect(await axeFindings(page)).toEqual([]);
+      await toast.getByRole("button", { name: /^Undo/ }).click();
+      await waitForCard(page, back, "install");
+      await context.close();
+    }
   });
 });

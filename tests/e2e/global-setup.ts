@@ -64,6 +64,8 @@ export default async function setup(project: TestProject) {
     APP_URL: `http://127.0.0.1:${port}`,
     PHOTOS_DIR: join(dir, "photos"),
     OUTBOX_POLL_MS: "1000",
+    // Stage e-mails wait this long after a move (the shop's 3 minutes would outlast every test).
+    EMAIL_QUIET_SECONDS: "3",
     RESEND_API_KEY: "re_local_fake",
     RESEND_BASE_URL: `${fakes.url}/resend`,
     UPLOADTHING_TOKEN: Buffer.from(JSON.stringify({ apiKey: "sk_local_coldcreek_fake", appId: "coldcreekdev", regions: ["local1"] })).toString("base64"),

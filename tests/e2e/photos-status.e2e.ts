@@ -17,12 +17,12 @@ function pickJob() {
   try {
     return sqlite
       .prepare(
-        `select job.id, job.version, truck.unit_number as unit from job join truck on truck.id = job.truck_id
+        `select job.id, job.version, job.work_order as workOrder, job.description, truck.unit_number as unit from job join truck on truck.id = job.truck_id
          where job.stage = 'install' and exists (select 1 from contact where contact.customer_id = job.customer_id and contact.receives_email = 1 and contact.email != '')
          and exists (select 1 from part where part.job_id = job.id)
          order by job.id limit 1`,
       )
-      .get() as { id: number; version: number; unit: string };
+      .get() as { id: number; version: number; workOrder: string; description: string; unit: string };
   } finally {
     sqlite.close();
   }
@@ -53,15 +53,15 @@ async function pickPhoto(page: Page, caption: string, name: string, bytes: Buffe
   await photos.locator(`img[alt="${caption}"]`).waitFor({ timeout: 10_000 });
 }
 
-async function mailFor(unit: string, since: string): Promise<Mail> {
+async function mailFor(job: { workOrder: string; unit: string }, since: string): Promise<Mail> {
   const until = Date.now() + 30_000;
   while (Date.now() < until) {
     const mails = (await (await fetch(`${inject("fakesUrl")}/__fake/emails`)).json()) as Mail[];
-    const found = mails.find((m) => m.subject.startsWith(`Unit ${unit}: wiring and run test`) && m.createdAt >= since);
+    const found = mails.find((m) => m.subject.startsWith(`Wiring and run test · Work order ${job.workOrder} · Unit ${job.unit}`) && m.createdAt >= since);
     if (found) return found;
     await new Promise((r) => setTimeout(r, 500));
   }
-  throw new Error(`No e-mail about unit ${unit} reached the fake within 30 s`);
+  throw new Error(`No e-mail about ${job.workOrder} reached the fake within 30 s`);
 }
 
 describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status page", () => {
@@ -107,7 +107,12 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     const moved = await page.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "wire", version: (await noted.json()).job.version } });
     expect(moved.status()).toBe(200);
 
-    const mail = await mailFor(job.unit, since);
+    const mail = await mailFor(job, since);
+    // The subject and the first line name the job: work order, unit and the work description as written.
+    expect(mail.subject).toBe(`Wiring and run test · Work order ${job.workOrder} · Unit ${job.unit} · ${job.description}`);
+    expect(mail.text.split("\n")[0]).toBe(`Work order ${job.workOrder} · Unit ${job.unit} · ${job.description}`);
+    // One photo is shared with the customer, so the e-mail may speak of photos.
+    expect(mail.text).toContain("See the progress and photos of your truck here:");
     expect(mail.text).toContain("We are wiring and run-testing the kit.");
     expect(mail.text).toContain("When the run test is signed off, your truck is ready for pickup.");
     // No reply-to is set for this server, so the e-mail gives the shop's phone and invites no reply.
@@ -125,7 +130,10 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     await status.getByTestId("where-now").waitFor();
     expect(await status.getByTestId("where-now").textContent()).toBe("We are wiring and run-testing the kit.");
     expect(await status.getByTestId("what-next").textContent()).toBe("When the run test is signed off, your truck is ready for pickup.");
-    expect(await status.title()).toBe(`Unit ${job.unit} · Cold Creek Upfit`);
+    expect(await status.title()).toBe(`Unit ${job.unit} · ${job.workOrder} · Cold Creek Upfit`);
+    const heading = await status.getByTestId("job-heading").textContent();
+    expect(heading).toContain(job.workOrder);
+    expect(heading).toContain(job.description);
     const photo = status.locator('img[alt="Pump on the PTO"]');
     await photo.scrollIntoViewIfNeeded();
     await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(0);

@@ -66,13 +66,18 @@ export const ACCESS_MATRIX: Row[] = [
   staffPage("PAGE /jobs/[id]"),
   officePage("PAGE /jobs/new"),
   ownerPage("PAGE /staff"),
+  staffPage("PAGE /account"),
   staffPage("PAGE /trucks"),
   staffPage("PAGE /trucks/[id]"),
   officePage("PAGE /trucks/new"),
 
   // The signed-in staff member.
   anyStaff("GET /api/me"),
-  anyStaff("PUT /api/me/password"),
+  anyStaff("POST /api/me/password"),
+  anyStaff("GET /api/me/devices"),
+  anyStaff("DELETE /api/me/devices"),
+  // Another person's device is not found from here (see account.test.ts); an unknown id is 404 too.
+  row("DELETE /api/me/devices/[id]", 401, 401, "ok", "ok", "ok", 401),
   anyStaff("GET /api/ping"),
 
   // Board and jobs: a tech moves cards and edits a job's notes; office and owner create and plan.
@@ -128,6 +133,7 @@ export const ACCESS_MATRIX: Row[] = [
   officeUp("PUT /api/jobs/[id]/email-settings"),
   anyStaff("GET /api/jobs/[id]/messages"),
   officeUp("POST /api/messages/[id]/resend"),
+  officeUp("POST /api/messages/[id]/send-now"),
   anyStaff("GET /api/notify-settings"),
   officeUp("PUT /api/notify-settings"),
   anyStaff("GET /api/jobs/[id]/status-links"),
@@ -138,6 +144,9 @@ export const ACCESS_MATRIX: Row[] = [
   ownerOnly("GET /api/staff"),
   ownerOnly("POST /api/staff"),
   ownerOnly("PATCH /api/staff/[id]"),
+  ownerOnly("POST /api/staff/[id]/password-reset"),
   anyStaff("GET /api/shop-settings"),
   ownerOnly("PATCH /api/shop-settings"),
+  anyStaff("GET /api/shop-settings/leak-test-procedure"),
+  ownerOnly("PATCH /api/shop-settings/leak-test-procedure"),
 ];

@@ -22,7 +22,7 @@ describe("signing in", () => {
     const res = await session.POST(request("/api/session", { body: { email: owner.email, password: TEST_PASSWORD } }));
     expect(res.status).toBe(200);
     const body = await readBody(res);
-    expect(body.user).toEqual({ id: owner.id, name: owner.name, role: "owner" });
+    expect(body.user).toEqual({ id: owner.id, name: owner.name, role: "owner", mustChangePassword: false });
     const cookie = cookieFrom(res);
     const rawId = cookie.split("=")[1];
     expect(rawId.length).toBeGreaterThan(20);
@@ -129,10 +129,12 @@ describe("sessions end on the server", () => {
     const tech = await makeStaff(db(), "tech");
     const other = await sessionCookieFor(tech.id);
     const here = await sessionCookieFor(tech.id);
-    const res = await password.PUT(request("/api/me/password", { method: "PUT", cookie: here, body: { currentPassword: TEST_PASSWORD, newPassword: "a-new-long-password" } }));
+    const res = await password.POST(
+      request("/api/me/password", { cookie: here, body: { currentPassword: TEST_PASSWORD, newPassword: "a-new-long-password", confirmPassword: "a-new-long-password" } }),
+    );
     expect(res.status).toBe(200);
     expect((await me.GET(request("/api/me", { cookie: other }))).status).toBe(401);
-    expect((await me.GET(request("/api/me", { cookie: cookieFrom(res) }))).status).toBe(200);
+    expect((await me.GET(request("/api/me", { cookie: here }))).status).toBe(200);
   });
 });
 

@@ -15,6 +15,7 @@ import type { Role, Stage } from "@/db/schema";
 import { type Fakes, startFakes } from "@/fakes/server.mjs";
 import { LEASE_MS, MAX_ATTEMPTS, backoffMs, dispatchDueOutbox } from "@/server/email/dispatcher";
 import { startDispatcher } from "@/server/email/loop";
+import { BACK_WHERE_TOLD } from "@/server/email/outbox";
 import { type EmailSender, resendSender } from "@/server/email/sender";
 import { openStatusLink } from "@/server/status/queries";
 import { useFreshDatabase } from "../support/db";
@@ -33,6 +34,8 @@ beforeAll(async () => {
   sender = resendSender("re_test_dispatch", `${fake.url}/resend`);
   process.env.APP_URL = "https://status.cold-creek.example";
   process.env.EMAIL_FROM = "updates@cold-creek.example";
+  // These tests are about sending; the quiet period after a move has its own tests, which set it.
+  process.env.EMAIL_QUIET_SECONDS = "0";
   await ensureShop(db());
 });
 afterAll(async () => {
@@ -103,6 +106,7 @@ function linkIn(text: string) {
 describe("stage e-mails through the outbox", () => {
   it("a move e-mails the job's contacts once: plain words, expected date, escaped HTML, a text part and a working status link", async () => {
     const { job, truck, customerId } = await customerJob({ name: `Ridge & <b>Sons</b> "Haul"` });
+    await db().updateTable("job").set({ description: `Wet kit: <b>35 gal</b> & "PTO" pump` }).where("id", "=", job.id).execute();
     await move(await tech(), job.id, "fabricate");
     const [row] = await outbox(job.id);
     expect(row.status).toBe("pending");
@@ -115,13 +119,19 @@ describe("stage e-mails through the outbox", () => {
     expect(mail.idempotencyKey).toBe(row.id);
     expect(mail.from).toBe('"Test Upfit" <updates@cold-creek.example>');
     expect([...mail.to].sort()).toEqual([`dispatch-${customerId}@fleet.example`, `fleet-${customerId}@fleet.example`]);
-    expect(mail.subject).toBe(`Unit ${truck.unit_number}: fabrication (Test Upfit)`);
-    expect(mail.text).toContain(`Hello Ridge & <b>Sons</b> "Haul",`);
+    expect(mail.subject).toBe(`Fabrication · Work order ${job.work_order} · Unit ${truck.unit_number} · Wet kit: <b>35 gal</b> & "PTO" pump`);
+    expect(mail.text.split("\n")[0]).toBe(`Work order ${job.work_order} · Unit ${truck.unit_number} · Wet kit: <b>35 gal</b> & "PTO" pump`);
+    // The contacts it goes to are greeted by name, not the company.
+    expect(mail.text).toContain("Hello Dispatch desk and Fleet manager,");
+    expect(mail.text).not.toContain("Ridge");
     expect(mail.text).toContain("Work has started. We are building the fabricated parts for your truck.");
-    expect(mail.text).toContain("Next, the fabricated parts are pressure-tested for leaks.");
+    // The job's one part is a bracket needing no leak test or coating: install is the next step on its route.
+    expect(mail.text).toContain("Next, we install the kit on your truck.");
     expect(mail.text).toContain("Expected ready date: Friday 16 May 2031.");
-    expect(mail.html).toContain("Hello Ridge &amp; &lt;b&gt;Sons&lt;/b&gt; &quot;Haul&quot;,");
-    expect(mail.html).not.toContain("<b>Sons</b>");
+    expect(mail.html).toContain("Wet kit: &lt;b&gt;35 gal&lt;/b&gt; &amp; &quot;PTO&quot; pump");
+    expect(mail.html).not.toContain("<b>35 gal</b>");
+    // No photo is shared with the customer yet, so none is promised.
+    expect(`${mail.text}${mail.html}`).not.toMatch(/photo/i);
 
     const token = linkIn(mail.text);
     expect(mail.html).toContain(`href="https://status.cold-creek.example/status/${token}"`);
@@ -321,20 +331,18 @@ describe("who gets e-mail, and when none goes", () => {
       await db().deleteFrom("message_setting").execute();
     }
 
+    // Nobody was told about Fabricate (the shop's choice), so on and straight back tells nothing new.
     await move(cookie, job.id, "pressure_test");
     await move(cookie, job.id, "fabricate");
     await dispatchDueOutbox(db(), new Date(), sender);
     const rows = await outbox(job.id);
-    expect(rows.slice(1).map((r) => [r.status, r.last_error])).toEqual([
-      ["skipped", "A later move replaced this update before it was sent."],
-      ["sent", null],
-    ]);
+    expect(rows.slice(1).map((r) => [r.status, r.last_error])).toEqual([["skipped", BACK_WHERE_TOLD]]);
 
     const lonely = await makeJob(db());
     await move(cookie, lonely.id, "fabricate");
     await dispatchDueOutbox(db(), new Date(), sender);
     expect((await outbox(lonely.id))[0]).toMatchObject({ status: "skipped", last_error: expect.stringMatching(/^Nobody on this job receives e-mail/) });
-    expect(await emails()).toHaveLength(1);
+    expect(await emails()).toHaveLength(0);
   });
 });
 

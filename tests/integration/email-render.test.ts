@@ -1,15 +1,19 @@
 import { describe, expect, it } from "vitest";
-import { type JobScope, STAGES, type Stage } from "@/db/schema";
-import { LINK_MARK, escapeHtml, renderStageEmail, withStatusLink } from "@/server/email/render";
-import { stagesFor } from "@/server/jobs/stages";
+import { STAGES, type Stage } from "@/db/schema";
+import { LINK_MARK, escapeHtml, renderLinkEmail, renderStageEmail, withStatusLink } from "@/server/email/render";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened, whereItIsNow } from "@/server/status/words";
 import { classifySendError } from "@/server/email/sender";
 
+// Every step on the route: a tank that is leak-tested and goes out for powder coat.
+const FULL_ROUTE: Stage[] = [...STAGES];
+const INSTALL_ROUTE: Stage[] = ["queued", "install", "wire", "ready", "delivered"];
+
 const base = {
   shop: { name: "Cold Creek Upfit", phone: "(555) 010-4417" },
-  truck: { unitNumber: "HR-27", description: "Sleeper tractor" },
-  customerName: "Harlan Ridge Heavy Haul",
-  scope: "fabrication" as const,
+  job: { workOrder: "WO-26-0012", description: "Wet kit: 35 gal stainless tank, PTO pump", unitNumber: "HR-27" },
+  contactNames: ["Dana Whitcombe"],
+  photosShared: true,
+  route: FULL_ROUTE,
   readyBy: "2031-05-16",
   linkDays: 60,
   replyTo: null,
@@ -19,7 +23,7 @@ describe("stage e-mail text", () => {
   it("gives every stage its own subject and first line, with what comes next", () => {
     const rendered = STAGES.map((to, i) => renderStageEmail({ ...base, from: i === 0 ? null : STAGES[i - 1], to }));
     expect(new Set(rendered.map((r) => r.subject)).size).toBe(STAGES.length);
-    expect(new Set(rendered.map((r) => r.text.split("\n")[3])).size).toBe(STAGES.length);
+    expect(new Set(rendered.map((r) => r.text.split("\n")[4])).size).toBe(STAGES.length);
     for (const r of rendered) {
       expect(r.text).toContain(LINK_MARK);
       expect(r.html).toContain(`href="${LINK_MARK}"`);
@@ -27,7 +31,7 @@ describe("stage e-mail text", () => {
     }
     expect(rendered[STAGES.indexOf("ready")].text).not.toContain("Expected ready date");
     expect(rendered[STAGES.indexOf("delivered")].text).toContain("keeps working for 60 days");
-    expect(renderStageEmail({ ...base, from: "queued", to: "install", scope: "install_only" }).text).toContain("Work has started. We are installing the kit on your truck.");
+    expect(renderStageEmail({ ...base, from: "queued", to: "install", route: INSTALL_ROUTE }).text).toContain("Work has started. We are installing the kit on your truck.");
     expect(renderStageEmail({ ...base, from: "wire", to: "install", readyBy: null }).text).toContain("Your job has gone back to the install step for more work. We are installing the kit on your truck.");
     expect(renderStageEmail({ ...base, from: "queued", to: "fabricate", readyBy: null }).text).toContain("We will confirm the expected ready date soon.");
   });
@@ -35,18 +39,17 @@ describe("stage e-mail text", () => {
   it("says only what the stage itself tells: no test passed, no parts gone or back, no tank or PTO the job may not have", () => {
     // An owner's override moves a card past a gate, and a job may be a bracket with no tank: the words must hold for both.
     const claims = /\bpassed\b|tank|reservoir|\bPTO\b|dash|gone out|have left|(?<!when the )parts are back|is built|sump|weld/i;
-    const scopes: JobScope[] = ["fabrication", "install_only"];
-    for (const scope of scopes) {
-      const route = stagesFor(scope);
+    const routes: Stage[][] = [FULL_ROUTE, INSTALL_ROUTE, ["queued", "fabricate", "install", "wire", "ready", "delivered"], ["queued", "fabricate", "pressure_test", "install", "wire", "ready", "delivered"]];
+    for (const route of routes) {
       for (const to of route) {
-        const sentences = [CUSTOMER_STAGE_NAMES[to], whereItIsNow(to), whatComesNext(to, scope), ...[null, ...route].filter((from): from is Stage | null => from !== to).map((from) => whatHappened(from, to, scope))];
-        for (const sentence of sentences) expect(sentence, `${scope} → ${to}`).not.toMatch(claims);
+        const sentences = [CUSTOMER_STAGE_NAMES[to], whereItIsNow(to), whatComesNext(to, route), ...[null, ...route].filter((from): from is Stage | null => from !== to).map((from) => whatHappened(from, to, route))];
+        for (const sentence of sentences) expect(sentence, `${route.join(",")} → ${to}`).not.toMatch(claims);
       }
     }
-    const override = renderStageEmail({ ...base, truck: { unitNumber: "HR-27", description: "Hose carrier and breakaway bracket" }, from: "pressure_test", to: "coating" });
+    const override = renderStageEmail({ ...base, job: { ...base.job, description: "Hose carrier and breakaway bracket" }, from: "pressure_test", to: "coating" });
     expect(override.text).toContain("Your job is at powder coat: the fabricated parts go to an outside coater and come back before install.");
     expect(override.text).toContain("When the parts are back from the coater, we install the kit on your truck.");
-    expect(override.subject).toBe("Unit HR-27: powder coat (Cold Creek Upfit)");
+    expect(override.subject).toBe("Powder coat · Work order WO-26-0012 · Unit HR-27 · Hose carrier and breakaway bracket");
     const built = renderStageEmail({ ...base, from: "fabricate", to: "pressure_test" });
     expect(built.text).toContain("The fabricated parts are being pressure-tested for leaks.");
     expect(built.text).toContain("Next, the parts go to an outside coater for powder coat.");
@@ -75,11 +78,11 @@ describe("stage e-mail text", () => {
       ...base,
       from: "queued",
       to: "fabricate",
-      customerName: `<img src=x onerror=alert(1)> ${LINK_MARK}`,
+      contactNames: [`<img src=x onerror=alert(1)> ${LINK_MARK}`],
       shop: { name: `Shop "&" <Co>`, phone: "555'0100" },
-      truck: { unitNumber: "<U1>", description: "" },
+      job: { workOrder: "WO-<1>", description: `<script>x</script> ${LINK_MARK}`, unitNumber: "<U1>" },
     });
-    expect(hostile.html).not.toMatch(/<img|<U1>|<Co>/);
+    expect(hostile.html).not.toMatch(/<img|<U1>|<Co>|<script>|WO-<1>/);
     expect(hostile.html).toContain("Hello &lt;img src=x onerror=alert(1)&gt;,");
     expect(hostile.html).toContain("Shop &quot;&amp;&quot; &lt;Co&gt;");
     expect(hostile.text.split(LINK_MARK)).toHaveLength(2);
@@ -88,6 +91,46 @@ describe("stage e-mail text", () => {
     expect(filled.html.match(/status\.shop\.example/g)).toHaveLength(2);
     expect(filled.text.match(/status\.shop\.example/g)).toHaveLength(1);
     expect(escapeHtml(`a'b{}`)).toBe("a&#39;b&#123;&#125;");
+  });
+});
+
+describe("every e-mail names the job and greets the people it goes to", () => {
+  it("puts the work order, the work description as written and the unit in the subject and the first line of both parts", () => {
+    const mail = renderStageEmail({ ...base, from: "queued", to: "fabricate" });
+    expect(mail.subject).toBe("Fabrication · Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    expect(mail.text.split("\n")[0]).toBe("Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    const firstHtmlLine = mail.html.match(/<body[^>]*>\s*<div[^>]*>\s*<p[^>]*>([^<]*)<\/p>/)?.[1];
+    expect(firstHtmlLine).toBe("Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    // Two open jobs on one unit read as two jobs.
+    const other = renderStageEmail({ ...base, job: { workOrder: "WO-26-0019", description: "Rear camera and work lights", unitNumber: "HR-27" }, from: "queued", to: "install", route: INSTALL_ROUTE });
+    expect(other.subject).toBe("Install · Work order WO-26-0019 · Unit HR-27 · Rear camera and work lights");
+    const link = renderLinkEmail({ ...base, stage: "install" });
+    expect(link.subject).toBe("New status link · Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    expect(link.text.split("\n")[0]).toBe("Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    expect(link.text).toContain("The link we sent before no longer works");
+  });
+
+  it("greets the contacts by name, never the company", () => {
+    expect(renderStageEmail({ ...base, from: "queued", to: "fabricate" }).text).toContain("\nHello Dana Whitcombe,\n");
+    expect(renderStageEmail({ ...base, contactNames: ["Dana", "Lee"], from: "queued", to: "fabricate" }).text).toContain("\nHello Dana and Lee,\n");
+    expect(renderStageEmail({ ...base, contactNames: ["Dana", "Lee", "Sam"], from: "queued", to: "fabricate" }).html).toContain(">Hello Dana, Lee and Sam,<");
+    expect(renderStageEmail({ ...base, contactNames: [], from: "queued", to: "fabricate" }).text).toContain("\nHello,\n");
+  });
+
+  it("mentions photos only when some are shared with the customer", () => {
+    const none = renderStageEmail({ ...base, photosShared: false, from: "queued", to: "fabricate" });
+    expect(`${none.text}${none.html}`).not.toMatch(/photo/i);
+    expect(none.text).toContain("See the progress of your truck here:");
+    const some = renderStageEmail({ ...base, photosShared: true, from: "queued", to: "fabricate" });
+    expect(some.text).toContain("See the progress and photos of your truck here:");
+    expect(some.html).toContain("See your truck&#39;s progress and photos");
+  });
+
+  it("lets the long link break, so the mail fits a 360 px phone", () => {
+    const filled = withStatusLink(renderStageEmail({ ...base, from: "queued", to: "fabricate" }), `https://status.shop.example/status/${"A".repeat(43)}`);
+    const address = filled.html.match(/<p style="([^"]*)">Or open this address:/)?.[1] ?? "";
+    expect(address).toMatch(/word-break:break-all/);
+    expect(filled.html).toMatch(/<body style="[^"]*overflow-wrap:anywhere/);
   });
 });
 

@@ -36,7 +36,7 @@ async function addPart(cookie: string, jobId: number, body: Record<string, unkno
 }
 
 const goodTest = {
-  method: "both", testPressurePsig: 4, gaugeFullScalePsi: 10, gaugeCalibratedOn: "2025-01-15", holdMinutes: 20,
+  method: "both", testPressurePsig: 4, gaugeFullScalePsi: 10, gaugeCalibratedOn: today(), holdMinutes: 20,
   startPressurePsig: 4, endPressurePsig: 4, startTempF: 70, endTempF: 70, seams: [{ location: "Sump to shell", result: "pass" }], tester: "Bench tech",
 };
 
@@ -116,9 +116,11 @@ describe("leak tests", () => {
     const res = await postTest(tech.cookie, tank.id, { ...goodTest, jobId: job.id, gaugeFullScalePsi: 30, startTempF: 80, endTempF: 60, endPressurePsig: Number(cooled.toFixed(4)), gaugeCalibratedOn: today() });
     expect(res.status).toBe(201);
     const body = await readBody(res);
-    expect(body.result).toBe("pass");
+    // The readings alone would pass, but a 30 psi gauge is outside 6–16 psi for 4 psig: invalid.
+    expect(body.result).toBe("invalid");
     expect(body.correctedDropPsi).toBeLessThan(0.001);
     expect(body.warnings.map((w: { code: string }) => w.code)).toEqual(["gauge_range"]);
+    expect(body.invalidReasons.map((w: { code: string }) => w.code)).toEqual(["gauge_range"]);
     expect(body.warnings[0].message).toMatch(/ASME BPVC Section V, Article 10/);
     expect(body.test).toEqual(expect.objectContaining({ partId: tank.id, current: true, allowedDropPsi: DEFAULT_ALLOWED_DROP_PSI, recordedByName: tech.staff.name, barometricPsia: 14.696 }));
     expect(body.test.rawDropPsi).toBeGreaterThan(0.6);

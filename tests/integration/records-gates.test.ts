@@ -102,7 +102,7 @@ describe("into Outside coating: every leak-test part passed since its last rewor
     await recordTest(tech.cookie, tank.id, leakTestBody(4));
     await recordTest(tech.cookie, tank.id, leakTestBody(3.5));
     expect((await loadGateRecords(db(), [job.id])).get(job.id)!.leakTestParts).toEqual([
-      { name: tank.name, passedSinceRework: false, lastResult: "fail" },
+      { name: tank.name, passedSinceRework: false, lastResult: "fail", reworked: false },
     ]);
     const refused = await moveTo(tech.cookie, job.id, "coating");
     expect(refused.status).toBe(422);
@@ -285,8 +285,8 @@ describe("loading gate records for the board", () => {
     await recordTest(tech.cookie, tank.id, leakTestBody(4));
     const records = await loadGateRecords(db(), jobs.map((j) => j.id));
     expect(records.size).toBe(620);
-    expect(records.get(tested.id)!.leakTestParts).toEqual([{ name: tank.name, passedSinceRework: true, lastResult: "pass" }]);
-    expect(records.get(untested.id)!.leakTestParts).toEqual([{ name: "Untested tank", passedSinceRework: false, lastResult: null }]);
+    expect(records.get(tested.id)!.leakTestParts).toEqual([{ name: tank.name, passedSinceRework: true, lastResult: "pass", reworked: false }]);
+    expect(records.get(untested.id)!.leakTestParts).toEqual([{ name: "Untested tank", passedSinceRework: false, lastResult: null, reworked: false }]);
     expect(records.get(jobs[0].id)).toEqual({ partCount: 1, leakTestParts: [], coatedParts: [], signOff: null });
   });
 });

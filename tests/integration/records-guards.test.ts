@@ -49,10 +49,11 @@ function leakTestBody(endPressurePsig: number) {
   };
 }
 
-async function recordTest(cookie: string, partId: number, endPressurePsig: number) {
-  const res = await leakTests.POST(request(`/api/parts/${partId}/leak-tests`, { cookie, body: leakTestBody(endPressurePsig) }), params({ id: String(partId) }));
+async function recordTest(cookie: string, partId: number, endPressurePsig: number, overrides: Record<string, unknown> = {}) {
+  const body = { ...leakTestBody(endPressurePsig), ...overrides };
+  const res = await leakTests.POST(request(`/api/parts/${partId}/leak-tests`, { cookie, body }), params({ id: String(partId) }));
   expect(res.status).toBe(201);
-  return (await readBody(res)).result as "pass" | "fail";
+  return (await readBody(res)).result as "pass" | "fail" | "invalid";
 }
 
 async function version(jobId: number) {
@@ -114,7 +115,8 @@ describe("who may change what a gate asks for", () => {
     const office = await as("office");
     const job = await makeJob(db(), { stage: "pressure_test" });
     const box = await addPart(tech.cookie, job.id, { ...boxBody, name: "Battery box", needsLeakTest: true });
-    expect(await recordTest(tech.cookie, box.id, 3.5)).toBe("fail");
+    // A box tank is tested at 1.5–3 psig (UL 142 §42.2.1) on a 5 psi gauge; a 0.5 psi drop fails it.
+    expect(await recordTest(tech.cookie, box.id, 1.5, { testPressurePsig: 2, startPressurePsig: 2, gaugeFullScalePsi: 5 })).toBe("fail");
     const before = await partRow(box.id);
 
     for (const body of [{ needsLeakTest: false }, { needsCoating: false }, { kind: "bracket", shape: "other" }, { kind: "other", needsLeakTest: false }]) {
@@ -145,10 +147,13 @@ describe("who may change what a gate asks for", () => {
     const job = await makeJob(db(), { stage: "fabricate" });
     const bracket = await addPart(office.cookie, job.id, { name: "Tank saddle", kind: "bracket", material: "aluminum", needsLeakTest: false, needsCoating: false });
     const before = await partRow(bracket.id);
-    // Only the kind is in the request; the part it would make is a reservoir with no leak test.
-    expect(await fields(await patchPart(office.cookie, bracket.id, { kind: "reservoir" }))).toEqual(["needsLeakTest"]);
+    // The request unticks the test on a part it makes a reservoir: refused, nothing changed.
+    expect(await fields(await patchPart(office.cookie, bracket.id, { kind: "reservoir", needsLeakTest: false }))).toEqual(["needsLeakTest"]);
     expect(await partRow(bracket.id)).toEqual(before);
-    expect((await patchPart(office.cookie, bracket.id, { kind: "reservoir", needsLeakTest: true })).status).toBe(200);
+    // Only the kind in the request: a reservoir's defaults come with it, the leak test among them.
+    const made = await patchPart(office.cookie, bracket.id, { kind: "reservoir" });
+    expect(made.status).toBe(200);
+    expect((await readBody(made)).part.needsLeakTest).toBe(true);
 
     const at = new Date().toISOString();
     await expect(

@@ -230,7 +230,9 @@ describe("the status page", () => {
     const html = await pageHtml(token);
     expect(html).toContain("Your job is at powder coat");
     expect(html).not.toMatch(/passed|tank|leak test/i);
-    expect(html).toContain("Pressure test <span");
+    // Its only part is a bracket that needs no leak test: the customer sees no pressure test step.
+    expect(html).not.toContain("Pressure test <span");
+    expect(html).toContain("Powder coat <span");
     expect(html).toContain("Since Tue 4 Mar");
     expect(html).not.toContain("Wed 5 Mar");
     expect(html).toContain("Reached Sun 2 Mar");
@@ -248,7 +250,7 @@ describe("the status page", () => {
     const unit = (await db().selectFrom("truck").innerJoin("job", "job.truck_id", "truck.id").select("truck.unit_number").where("job.id", "=", job.id).executeTakeFirstOrThrow()).unit_number;
     const { token, linkId } = await issuedToken(job.id);
     const meta = await generateMetadata({ params: Promise.resolve({ token }) });
-    expect(meta.title).toEqual({ absolute: `Unit ${unit} · Test Upfit` });
+    expect(meta.title).toEqual({ absolute: `Unit ${unit} · ${job.work_order} · Test Upfit` });
     expect(meta.robots).toMatchObject({ index: false, follow: false });
     expect(meta.referrer).toBe("no-referrer");
 

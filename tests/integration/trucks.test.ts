@@ -68,6 +68,9 @@ describe("GET /api/trucks", () => {
         transmission: "18-speed manual",
         workEngineRpm: 1300,
         createdAt: expect.any(String),
+        make: "",
+        model: "",
+        ptoOpening: "",
       },
     ]);
     const all = (await readBody(await trucks.GET(request("/api/trucks", { cookie })))).trucks;
@@ -100,7 +103,23 @@ describe("POST /api/trucks", () => {
     const { customerId, unitNumber, vin, year } = await goodTruck();
     const res = await post(await cookieAs("office"), { customerId, unitNumber, vin, year });
     expect(res.status).toBe(201);
-    expect((await readBody(res)).truck).toMatchObject({ description: "", transmission: "", workEngineRpm: null });
+    expect((await readBody(res)).truck).toMatchObject({ description: "", transmission: "", workEngineRpm: null, make: "", model: "", ptoOpening: "" });
+  });
+
+  it("records make, model, transmission and PTO opening, the facts a PTO is fitted by, and edits them", async () => {
+    const cookie = await cookieAs("office");
+    const res = await post(cookie, await goodTruck({ make: "Halvorn", model: "HD-40 day cab", ptoOpening: "6-bolt, left side" }));
+    expect(res.status).toBe(201);
+    const { truck } = await readBody(res);
+    expect(truck).toMatchObject({ make: "Halvorn", model: "HD-40 day cab", transmission: "18-speed manual", ptoOpening: "6-bolt, left side" });
+    const row = await db().selectFrom("truck").select(["make", "model", "pto_opening"]).where("id", "=", truck.id).executeTakeFirstOrThrow();
+    expect(row).toEqual({ make: "Halvorn", model: "HD-40 day cab", pto_opening: "6-bolt, left side" });
+    const edited = await patch(cookie, truck.id, { ptoOpening: "8-bolt, right side", model: "" });
+    expect(edited.status).toBe(200);
+    expect((await readBody(edited)).truck).toMatchObject({ make: "Halvorn", model: "", ptoOpening: "8-bolt, right side" });
+    const tooLong = await patch(cookie, truck.id, { make: "x".repeat(41) });
+    expect(tooLong.status).toBe(400);
+    expect((await readBody(tooLong)).error.details.fields).toHaveProperty("make");
   });
 
   it("a tech gets 403 and nothing is added", async () => {

@@ -88,6 +88,9 @@ describe("truck schemas", () => {
       description: "",
       transmission: "",
       workEngineRpm: null,
+      make: "",
+      model: "",
+      ptoOpening: "",
     });
   });
 

@@ -5,10 +5,11 @@ import { Field, FormAlert, buttonClass, inputClass, str, useApiForm } from "@/co
 
 export function SignInForm() {
   const router = useRouter();
-  const form = useApiForm(
+  const form = useApiForm<{ user: { mustChangePassword?: boolean } }>(
     (v) => ({ path: "/api/session", body: { email: str(v.email), password: str(v.password) } }),
-    () => {
-      router.replace("/board");
+    (answer) => {
+      // A temporary password from the owner's reset goes straight to choosing a new one.
+      router.replace(answer.user.mustChangePassword ? "/account" : "/board");
       router.refresh();
     },
   );

@@ -175,7 +175,10 @@ export function BoardView({ initial, initialFilter, role, meId, denied }: { init
       });
       focusCard({ id: card.id, on: "card" });
     },
-    onSettled: () => qc.invalidateQueries({ queryKey: ["board"] }),
+    // Not awaited: the card stops looking busy as soon as the server has answered.
+    onSettled: () => {
+      void qc.invalidateQueries({ queryKey: ["board"] });
+    },
   });
 
   const actions: CardActions = {

@@ -11,7 +11,7 @@ export default async function StaffPage() {
   return (
     <section className="space-y-4">
       <h1 className="text-2xl font-bold">Staff</h1>
-      <p className="max-w-2xl text-ink-soft">Everyone who signs in to the shop. Deactivating someone or resetting their password signs them out everywhere at once.</p>
+      <p className="max-w-2xl text-ink-soft">Everyone who signs in to the shop. Deactivating someone or resetting their password signs them out on every device at once. Each person changes their own password on their Account page.</p>
       <StaffManager initial={staff} selfId={owner.id} />
     </section>
   );

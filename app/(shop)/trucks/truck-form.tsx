@@ -39,7 +39,10 @@ export function TruckForm({ saved: first, customers, customerId }: { saved?: Tru
         vin: str(v.vin),
         year: num(v.year),
         description: str(v.description),
+        make: str(v.make),
+        model: str(v.model),
         transmission: str(v.transmission),
+        ptoOpening: str(v.ptoOpening),
         // An emptied box clears a known engine speed rather than leaving the old one.
         workEngineRpm: num(v.workEngineRpm) ?? null,
       };
@@ -103,12 +106,23 @@ export function TruckForm({ saved: first, customers, customerId }: { saved?: Tru
           />
         )}
       </Field>
-      <Field label="Description" name="description" errors={f.description} hint="Plain words, no make or model: e.g. tandem-axle day cab, sleeper tractor.">
+      <div className="grid gap-3 sm:grid-cols-2">
+        <Field label="Make" name="make" errors={f.make} hint="As on the truck's title or door sticker.">
+          {(p) => <input {...p} defaultValue={saved?.make} maxLength={TRUCK_LIMITS.make} autoComplete="off" className={inputClass} />}
+        </Field>
+        <Field label="Model" name="model" errors={f.model}>
+          {(p) => <input {...p} defaultValue={saved?.model} maxLength={TRUCK_LIMITS.model} autoComplete="off" className={inputClass} />}
+        </Field>
+      </div>
+      <Field label="Description" name="description" errors={f.description} hint="Plain words for the body and cab: e.g. tandem-axle day cab, sleeper tractor.">
         {(p) => <input {...p} defaultValue={saved?.description} maxLength={TRUCK_LIMITS.description} placeholder="Tandem-axle day cab" className={inputClass} />}
       </Field>
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Transmission" name="transmission" errors={f.transmission} hint="Where the PTO mounts; e.g. 18-speed manual.">
+        <Field label="Transmission" name="transmission" errors={f.transmission} hint="The PTO is chosen for it; e.g. 18-speed manual.">
           {(p) => <input {...p} defaultValue={saved?.transmission} maxLength={TRUCK_LIMITS.transmission} placeholder="18-speed manual" className={inputClass} />}
+        </Field>
+        <Field label="PTO opening" name="ptoOpening" errors={f.ptoOpening} hint="Where the PTO mounts on the transmission: bolt pattern and side.">
+          {(p) => <input {...p} defaultValue={saved?.ptoOpening} maxLength={TRUCK_LIMITS.ptoOpening} placeholder="6-bolt, left side" autoComplete="off" className={inputClass} />}
         </Field>
         <Field
           label="Engine speed at work (rpm)"

@@ -1,7 +1,8 @@
 import { getDb } from "@/db";
 import { lucia } from "@/server/auth/lucia";
+import { DEVICE_COOKIE, deviceCookieHeader, deviceCookieValue } from "@/server/auth/device";
 import { clientAddress } from "@/server/auth/rate-limit";
-import { sessionFromRequest } from "@/server/auth/session";
+import { readCookie, sessionFromRequest } from "@/server/auth/session";
 import { signIn } from "@/server/auth/sign-in";
 import { json, readJson, respond, assertSameOrigin } from "@/server/http/respond";
 import { signInSchema } from "@/server/staff/schemas";
@@ -9,9 +10,14 @@ import { signInSchema } from "@/server/staff/schemas";
 export async function POST(req: Request) {
   return respond(async () => {
     const input = await readJson(req, signInSchema);
-    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req));
+    const device = readCookie(req.headers.get("cookie"), DEVICE_COOKIE);
+    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req), device, req.headers.get("user-agent") ?? "");
     const cookie = lucia.createSessionCookie(session.id);
-    return json({ user }, { headers: { "Set-Cookie": cookie.serialize() } });
+    const headers = new Headers();
+    headers.append("Set-Cookie", cookie.serialize());
+    // This device has now signed in to the account: strangers' failed tries will not lock it out.
+    headers.append("Set-Cookie", deviceCookieHeader(deviceCookieValue(user.id, device)));
+    return json({ user }, { headers });
   });
 }
 

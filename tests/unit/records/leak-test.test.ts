@@ -226,10 +226,24 @@ describe("evaluateLeakTest: warnings", () => {
     expect(codes(evaluateLeakTest(leakTest({ method: "decay" }), context))).toEqual([]);
   });
 
-  it("keeps warnings as flags: a flagged test still passes on its readings", () => {
+  it("makes a test outside the procedure invalid, with every breach as a reason", () => {
     const outcome = evaluateLeakTest(leakTest({ holdMinutes: 5, gaugeFullScalePsi: 100 }), context);
-    expect(outcome.result).toBe("pass");
+    expect(outcome.result).toBe("invalid");
     expect(codes(outcome)).toEqual(["hold_too_short", "gauge_range"]);
+    expect(outcome.invalidReasons.map((r) => r.code)).toEqual(["hold_too_short", "gauge_range"]);
+  });
+
+  it("keeps cautions that are not procedure breaches as flags on a pass", () => {
+    const box = { ...context, partShape: "box" as const };
+    const outcome = evaluateLeakTest(leakTest({ method: "both", testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), box);
+    expect(outcome.result).toBe("pass");
+    expect(outcome.invalidReasons).toEqual([]);
+  });
+
+  it("calls pressure decay alone on a box tank invalid (trade reference, leak test: flat walls flex)", () => {
+    const box = { ...context, partShape: "box" as const };
+    const outcome = evaluateLeakTest(leakTest({ method: "decay", seams: [], testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), box);
+    expect(outcome.result).toBe("invalid");
   });
 });
 
@@ -245,7 +259,9 @@ describe("a pressure that rose after the temperature correction", () => {
     expect(outcome.result).toBe("pass");
     expect(codes(outcome)).toEqual(["pressure_rose_after_correction"]);
     expect(outcome.warnings[0].message).toBe(PRESSURE_ROSE_MESSAGE);
-    expect(PRESSURE_ROSE_MESSAGE).toBe("Pressure rose after correcting for temperature: check the thermometer and the gauge, then test again.");
+    expect(PRESSURE_ROSE_MESSAGE).toBe("Pressure rose after correcting for temperature: check the thermometer and the gauge before trusting this reading.");
+    // A result never pairs a pass with "test again".
+    expect(PRESSURE_ROSE_MESSAGE).not.toMatch(/test again/);
   });
 
   it("is flagged whatever the method, since it points at the instruments", () => {

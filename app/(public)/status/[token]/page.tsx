@@ -17,8 +17,8 @@ export async function generateMetadata({ params }: { params: Promise<{ token: st
   const { token } = await params;
   const { view, shop } = await loadStatus(token);
   return {
-    title: { absolute: view ? `Unit ${view.truck.unitNumber} · ${shop.name}` : `Status link not working · ${shop.name}` },
-    description: view ? `Progress of unit ${view.truck.unitNumber} at ${shop.name}` : null,
+    title: { absolute: view ? `Unit ${view.truck.unitNumber} · ${view.job.workOrder} · ${shop.name}` : `Status link not working · ${shop.name}` },
+    description: view ? `Progress of work order ${view.job.workOrder} (${view.job.description}) on unit ${view.truck.unitNumber} at ${shop.name}` : null,
     robots: { index: false, follow: false, nocache: true },
     referrer: "no-referrer",
   };

@@ -1,8 +1,9 @@
 import { format } from "date-fns";
 import { calendarZone, formatShopTime, parseCalendarDate } from "@/server/records/calendar";
 import type { Stage } from "@/db/schema";
-import { stageIndex, stagesFor } from "@/server/jobs/stages";
+import { stageIndex } from "@/server/jobs/stages";
 import type { StatusView as View } from "@/server/status/queries";
+import { stepsShown } from "@/server/status/route";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whereItIsNow } from "@/server/status/words";
 
 /** A moment (a move) as the day it was at the shop, not in the server's zone. */
@@ -24,10 +25,10 @@ function telHref(phone: string) {
 
 type Step = { stage: Stage; state: "done" | "now" | "next"; reachedAt: string | null; backAt: string | null };
 
-/** The job's route with the date each stage was last reached; later stages are still to come. */
+/** The job's own route with the date each step was last reached; later steps are still to come. */
 function steps(view: View): Step[] {
   const current = stageIndex(view.stage);
-  return stagesFor(view.scope).map((stage) => {
+  return stepsShown(view.route, view.stage).map((stage) => {
     const arrivals = view.timeline.filter((e) => e.toStage === stage);
     const last = arrivals.at(-1) ?? null;
     const state = stage === view.stage ? "now" : stageIndex(stage) < current ? "done" : "next";
@@ -50,8 +51,12 @@ export function StatusView({ view, token, repliesRead }: { view: View; token: st
     <main className="mx-auto max-w-xl px-4 pb-10 pt-5">
       <header className="mb-4">
         <p className="text-sm font-semibold text-bay-700">{view.shop.name}</p>
-        <h1 className="mt-1 text-2xl font-bold leading-tight">Unit {view.truck.unitNumber}</h1>
-        <p className="text-ink-soft">
+        <h1 className="mt-1 text-2xl font-bold leading-tight [overflow-wrap:anywhere]" data-testid="job-heading">
+          <span className="block">Unit {view.truck.unitNumber}</span>
+          <span className="block text-lg font-semibold text-ink-soft">Work order {view.job.workOrder}</span>
+          {view.job.description && <span className="mt-1 block text-xl font-semibold">{view.job.description}</span>}
+        </h1>
+        <p className="mt-1 text-ink-soft">
           {view.truck.year} {view.truck.description} · VIN ending {view.truck.vinTail}
         </p>
       </header>
@@ -60,7 +65,7 @@ export function StatusView({ view, token, repliesRead }: { view: View; token: st
         {whereItIsNow(view.stage)}
       </p>
       <p className="mt-2 px-1 text-ink-soft" data-testid="what-next">
-        {whatComesNext(view.stage, view.scope, view.linkDays)}
+        {whatComesNext(view.stage, view.route, view.linkDays)}
       </p>
 
       <dl className="mt-3 grid grid-cols-[auto_1fr] gap-x-3 rounded-lg bg-bay-50 px-4 py-3">

@@ -34,27 +34,39 @@ export function MessagesPanel(props: {
   initialLinks: Link[];
   initialShop: NotifySettings;
   timeZone: string;
+  /** EMAIL_QUIET_SECONDS, when the server sets the quiet period itself. */
+  quietOverrideSeconds?: number | null;
 }) {
   const office = props.role === "office" || props.role === "owner";
   return (
     <div className="space-y-5">
-      <StatusLinkBox jobId={props.jobId} office={office} initialLinks={props.initialLinks} timeZone={props.timeZone} />
+      <StatusLinkBox
+        jobId={props.jobId}
+        office={office}
+        initialLinks={props.initialLinks}
+        timeZone={props.timeZone}
+        recipients={props.initialSettings.emailOff ? [] : props.initialSettings.contacts.filter((c) => c.gets).map((c) => c.name || c.email)}
+      />
       <EmailSettingsBox jobId={props.jobId} office={office} initial={props.initialSettings} />
       <MessageList jobId={props.jobId} office={office} emailConfigured={props.emailConfigured} initial={props.initialMessages} timeZone={props.timeZone} />
-      {office && <ShopNotifyBox initial={props.initialShop} />}
+      {office && <ShopNotifyBox initial={props.initialShop} quietOverrideSeconds={props.quietOverrideSeconds ?? null} />}
     </div>
   );
 }
 
-function StatusLinkBox({ jobId, office, initialLinks, timeZone }: { jobId: number; office: boolean; initialLinks: Link[]; timeZone: string }) {
+function StatusLinkBox({ jobId, office, initialLinks, timeZone, recipients }: { jobId: number; office: boolean; initialLinks: Link[]; timeZone: string; recipients: string[] }) {
   const queryClient = useQueryClient();
   const links = useQuery({ queryKey: keys.links(jobId), queryFn: () => api<{ links: Link[] }>(`/api/jobs/${jobId}/status-links`).then((r) => r.links), initialData: initialLinks });
   const [fresh, setFresh] = useState<string | null>(null);
   const [copied, setCopied] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
+  const [asking, setAsking] = useState(false);
+  const [emailNew, setEmailNew] = useState(true);
+  const [emailedTo, setEmailedTo] = useState<string[]>([]);
   const live = links.data.find((l) => l.state === "active") ?? null;
   const ids = useId();
+  const canEmail = recipients.length > 0;
 
   async function run(work: () => Promise<void>) {
     setPending(true);
@@ -70,9 +82,12 @@ function StatusLinkBox({ jobId, office, initialLinks, timeZone }: { jobId: numbe
   }
   const issue = () =>
     run(async () => {
-      const { link } = await api<{ link: { url: string } }>(`/api/jobs/${jobId}/status-links`, { method: "POST" });
+      const { link } = await api<{ link: { url: string; emailedTo: string[] } }>(`/api/jobs/${jobId}/status-links`, { method: "POST", body: { emailContacts: live ? emailNew : false } });
       setFresh(link.url);
+      setEmailedTo(link.emailedTo);
       setCopied(false);
+      setAsking(false);
+      if (link.emailedTo.length) await queryClient.invalidateQueries({ queryKey: keys.messages(jobId) });
     });
   const revoke = (id: number) =>
     run(async () => {
@@ -97,6 +112,11 @@ function StatusLinkBox({ jobId, office, initialLinks, timeZone }: { jobId: numbe
           <label htmlFor={`${ids}-url`} className="block text-sm font-semibold">
             New link: copy it now, it is shown only once. The old link no longer works.
           </label>
+          {emailedTo.length > 0 && (
+            <p role="status" className="text-sm font-medium text-ok-700">
+              ✓ E-mailing it to {emailedTo.join(", ")} now (see Messages to the customer).
+            </p>
+          )}
           <div className="flex gap-2">
             <input id={`${ids}-url`} readOnly value={fresh} className={`${inputClass} min-w-0 flex-1 font-mono text-sm`} onFocus={(e) => e.currentTarget.select()} data-testid="new-status-link" />
             <button
@@ -112,10 +132,43 @@ function StatusLinkBox({ jobId, office, initialLinks, timeZone }: { jobId: numbe
           </div>
         </div>
       )}
-      {office && (
+      {office && asking && live && (
+        <div role="group" aria-labelledby={`${ids}-ask`} className="space-y-2 rounded-md border border-warn-700 bg-warn-100 p-3">
+          <p id={`${ids}-ask`} className="font-semibold text-warn-700">
+            Issue a new link? The current link stops working at once, for everyone who has it.
+          </p>
+          {canEmail ? (
+            <label className="flex min-h-11 items-center gap-3">
+              <input type="checkbox" className="h-5 w-5 accent-bay-700" checked={emailNew} onChange={(e) => setEmailNew(e.target.checked)} />
+              <span>E-mail the new link now to {recipients.join(", ")}</span>
+            </label>
+          ) : (
+            <p className="text-sm text-ink-soft">Nobody on this job gets e-mail updates, so you will copy the new link and send it yourself.</p>
+          )}
+          <div className="flex flex-wrap gap-2">
+            <button type="button" className={buttonClass.primary} disabled={pending} onClick={issue}>
+              {pending ? "Issuing…" : canEmail && emailNew ? "Issue and e-mail the new link" : "Issue the new link"}
+            </button>
+            <button type="button" className={buttonClass.secondary} disabled={pending} onClick={() => setAsking(false)}>
+              Keep the current link
+            </button>
+          </div>
+        </div>
+      )}
+      {office && !asking && (
         <div className="flex flex-wrap gap-2">
-          <button type="button" className={buttonClass.secondary} disabled={pending} onClick={issue}>
-            {live ? "Issue a new link" : "Issue a link"}
+          <button
+            type="button"
+            className={buttonClass.secondary}
+            disabled={pending}
+            onClick={() => {
+              if (live) {
+                setEmailNew(canEmail);
+                setAsking(true);
+              } else issue();
+            }}
+          >
+            {live ? "Issue a new link…" : "Issue a link"}
           </button>
           {live && (
             <button type="button" className={buttonClass.secondary} disabled={pending} onClick={() => revoke(live.id)}>
@@ -222,11 +275,11 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
 
-  async function resend(id: string) {
+  async function act(id: string, what: "resend" | "send-now") {
     setBusy(id);
     setError(null);
     try {
-      await api(`/api/messages/${id}/resend`, { method: "POST" });
+      await api(`/api/messages/${id}/${what}`, { method: "POST" });
     } catch (err) {
       setError(failureText(err));
     } finally {
@@ -254,7 +307,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
               <li key={m.id} className="space-y-1 p-3">
                 <div className="flex flex-wrap items-center justify-between gap-2">
                   <p className="font-semibold">
-                    {m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
+                    {m.kind === "link_issued" ? "New status link" : m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
                     {m.resendOf && <span className="font-normal text-ink-soft"> · sent again</span>}
                   </p>
                   <span className={`rounded-full px-2.5 py-0.5 text-sm font-semibold ${s.tone}`}>
@@ -262,8 +315,21 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
                     {m.state === "sent" && m.sentAt ? ` ${when(m.sentAt, timeZone)}` : ""}
                   </span>
                 </div>
+                {m.state === "waiting" && m.goesOutAt && (
+                  <div className="flex flex-wrap items-center gap-2 rounded-md bg-bay-50 px-3 py-2" data-testid="goes-out-at">
+                    <p className="text-sm font-medium text-bay-900">
+                      E-mail goes out at {when(m.goesOutAt, timeZone, "HH:mm")}
+                      {m.kind === "stage_changed" && !m.resendOf ? " unless the card moves again" : ""}.
+                    </p>
+                    {office && (
+                      <button type="button" className={buttonClass.secondary} disabled={busy === m.id} onClick={() => act(m.id, "send-now")}>
+                        {busy === m.id ? "Sending…" : "Send now"}
+                      </button>
+                    )}
+                  </div>
+                )}
                 <p className="text-sm text-ink-soft">
-                  Queued {when(m.createdAt, timeZone)}
+                  Written {when(m.createdAt, timeZone)}
                   {m.recipients.length > 0 && ` · to ${m.recipients.join(", ")}`}
                   {m.subject && ` · “${m.subject}”`}
                 </p>
@@ -275,9 +341,9 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
                 )}
                 {(m.state === "failed" || m.state === "skipped") && m.reason && <p className={`text-sm ${m.state === "failed" ? "text-stop-700" : "text-ink-soft"}`}>{m.reason}</p>}
                 {m.state === "sent" && m.reason && <p className="text-sm text-ink-soft">{m.reason}</p>}
-                {office && m.state !== "waiting" && m.state !== "retrying" && (
-                  <button type="button" className={buttonClass.secondary} disabled={busy === m.id} onClick={() => resend(m.id)}>
-                    {busy === m.id ? "Queuing…" : "Send again"}
+                {office && m.kind === "stage_changed" && !m.replaced && m.state !== "waiting" && m.state !== "retrying" && (
+                  <button type="button" className={buttonClass.secondary} disabled={busy === m.id} onClick={() => act(m.id, "resend")}>
+                    {busy === m.id ? "Sending…" : "Send again"}
                   </button>
                 )}
               </li>
@@ -289,24 +355,27 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
   );
 }
 
-function ShopNotifyBox({ initial }: { initial: NotifySettings }) {
+function ShopNotifyBox({ initial, quietOverrideSeconds }: { initial: NotifySettings; quietOverrideSeconds: number | null }) {
   const [stages, setStages] = useState<Stage[]>(initial.notifyStages);
   const [days, setDays] = useState(String(initial.statusLinkDays));
+  const [quiet, setQuiet] = useState(String(initial.quietMinutes));
   const [state, setState] = useState<{ kind: "idle" | "saving" | "saved" } | { kind: "error"; message: string; fields: Record<string, string[]> }>({ kind: "idle" });
   const ids = useId();
 
   async function save() {
     setState({ kind: "saving" });
     try {
-      const { settings } = await api<{ settings: NotifySettings }>("/api/notify-settings", { method: "PUT", body: { notifyStages: stages, statusLinkDays: Number(days) } });
+      const { settings } = await api<{ settings: NotifySettings }>("/api/notify-settings", { method: "PUT", body: { notifyStages: stages, statusLinkDays: Number(days), quietMinutes: Number(quiet) } });
       setStages(settings.notifyStages);
       setDays(String(settings.statusLinkDays));
+      setQuiet(String(settings.quietMinutes));
       setState({ kind: "saved" });
     } catch (err) {
       setState({ kind: "error", message: failureText(err), fields: err instanceof ApiRequestError ? err.failure.fields : {} });
     }
   }
   const daysError = state.kind === "error" ? state.fields.statusLinkDays?.join(" ") : undefined;
+  const quietError = state.kind === "error" ? state.fields.quietMinutes?.join(" ") : undefined;
 
   return (
     <details className="rounded-md border border-line p-3">
@@ -334,12 +403,25 @@ function ShopNotifyBox({ initial }: { initial: NotifySettings }) {
             {daysError ? `⚠ ${daysError}` : "Before delivery a link never ends."}
           </p>
         </div>
+        <div className="space-y-1">
+          <label htmlFor={`${ids}-quiet`} className="block text-sm font-semibold">
+            Wait after a move before e-mailing (minutes)
+          </label>
+          <input id={`${ids}-quiet`} type="number" inputMode="numeric" min={0} max={60} value={quiet} onChange={(e) => setQuiet(e.target.value)} aria-invalid={Boolean(quietError)} aria-describedby={`${ids}-quiet-msg`} className={`${inputClass} max-w-40`} />
+          <p id={`${ids}-quiet-msg`} aria-live="polite" className={quietError ? "text-sm font-medium text-stop-700" : "text-sm text-ink-soft"}>
+            {quietError
+              ? `⚠ ${quietError}`
+              : quietOverrideSeconds !== null
+                ? `This server waits ${quietOverrideSeconds} s instead (EMAIL_QUIET_SECONDS is set), whatever is saved here.`
+                : "A card moved again in this time sends one e-mail about where it ended up; moved straight back, none."}
+          </p>
+        </div>
         <div className="flex items-center gap-3">
           <button type="button" className={buttonClass.primary} disabled={state.kind === "saving"} onClick={save}>
             {state.kind === "saving" ? "Saving…" : "Save shop settings"}
           </button>
           {state.kind === "saved" && <span role="status" className="text-sm font-medium text-ok-700">✓ Saved for every job</span>}
-          {state.kind === "error" && !daysError && (
+          {state.kind === "error" && !daysError && !quietError && (
             <span role="alert" className="text-sm font-medium text-stop-700">
               ⚠ {state.message}
             </span>

@@ -1,7 +1,7 @@
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
-import { emailConfigured } from "@/server/email/env";
+import { emailConfigured, emailEnv } from "@/server/email/env";
 import { listMessages } from "@/server/email/messages";
 import { jobEmailSettings } from "@/server/email/recipients";
 import { notifySettings } from "@/server/email/settings";
@@ -9,6 +9,14 @@ import type { JobDetail } from "@/server/jobs/queries";
 import { shopSettings } from "@/server/shop/queries";
 import { listStatusLinks } from "@/server/status/links";
 import { MessagesPanel } from "./messages-panel";
+
+function quietOverride(): number | null {
+  try {
+    return emailEnv().EMAIL_QUIET_SECONDS ?? null;
+  } catch {
+    return null;
+  }
+}
 
 export async function MessagesSection({ job, user }: { job: JobDetail; user: StaffUser }) {
   const db = getDb();
@@ -30,6 +38,7 @@ export async function MessagesSection({ job, user }: { job: JobDetail; user: Sta
         initialLinks={links}
         initialShop={notify}
         timeZone={shop.timeZone}
+        quietOverrideSeconds={quietOverride()}
       />
     </Section>
   );

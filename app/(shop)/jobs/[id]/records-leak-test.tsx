@@ -1,7 +1,7 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useId, useRef, useState } from "react";
+import { useEffect, useId, useRef, useState } from "react";
 import { ApiRequestError } from "@/components/api";
 import { buttonClass, Field, FormActions, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import { IconCheck, IconStop, IconWarn } from "@/components/icons";
@@ -12,18 +12,16 @@ import type { PartShape } from "@/db/tables/records";
 import { STAGE_LABELS } from "@/server/jobs/stages";
 import { fieldErrorSummary } from "@/server/records/form-errors";
 import {
-  ASME_GAUGE_FULL_SCALE_RATIO,
-  ASME_MIN_HOLD_MINUTES,
   DROP_PRECISION_NOTE,
   type LeakTestResult,
   type LeakTestWarning,
   PRESSURE_ROSE_MESSAGE,
   SEA_LEVEL_PSIA,
-  UL142_TEST_PRESSURE_PSIG,
   dropAgainstAllowance,
   formatDropPsi,
   pneumaticTestCautions,
 } from "@/server/records/leak-test";
+import { type LeakTestProcedure, type ProcedureBreach, bandSource, gaugeSource, holdSource, pressureBand, procedureBreaches } from "@/server/records/procedure";
 import type { LeakTestMethod } from "@/server/records/schemas";
 import { canSendBackToFabricate, sendBackNote } from "@/server/records/send-back";
 import { useFocusFirstInvalid } from "./records-form-errors";
@@ -47,7 +45,16 @@ interface LeakTestAnswer {
   correctedDropPsi: number;
   result: LeakTestResult;
   warnings: LeakTestWarning[];
-  test: { partName: string; rawDropPsi: number; allowedDropPsi: number; holdMinutes: number; seams: { location: string; result: "pass" | "leak" }[] };
+  invalidReasons: LeakTestWarning[];
+  test: {
+    partName: string;
+    rawDropPsi: number;
+    allowedDropPsi: number;
+    holdMinutes: number;
+    gaugeFullScalePsi: number;
+    gaugeCalibratedOn: string;
+    seams: { location: string; result: "pass" | "leak" }[];
+  };
   /** The job as it stood when the test was saved; the page's copy may be older. */
   job: { id: number; stage: Stage; version: number; scope: JobScope };
 }
@@ -100,18 +107,34 @@ const FIELD_NAMES: Record<(typeof FIELD_ORDER)[number], string> = {
   tester: "Tester",
 };
 
-function bandHint(shape: PartShape) {
-  if (shape === "round" || shape === "box") {
-    const band = UL142_TEST_PRESSURE_PSIG[shape];
-    return `Usual for ${band.tank}: ${band.min}–${band.max} psig (UL 142 §42.2.1).`;
-  }
-  return "No published band for this shape: use the lowest pressure that finds a leak.";
+function bandHint(shape: PartShape, procedure: LeakTestProcedure) {
+  const band = pressureBand(procedure, shape);
+  if (band && (shape === "round" || shape === "box")) return `For ${band.tank}: ${band.min}–${band.max} psig (${bandSource(procedure, shape)}).`;
+  return "No set band for this shape: use the lowest pressure that finds a leak.";
 }
+
+/** The gauge a new form starts with: the last one used, unless that test showed it wrong for the work. */
+export function gaugePrefill(test: { gaugeFullScalePsi: number; gaugeCalibratedOn: string; warnings: LeakTestWarning[]; invalidReasons?: LeakTestWarning[] } | undefined) {
+  if (!test) return null;
+  const flagged = new Set([...test.warnings, ...(test.invalidReasons ?? [])].map((w) => w.code));
+  return {
+    fullScalePsi: flagged.has("gauge_range") ? null : test.gaugeFullScalePsi,
+    calibratedOn: flagged.has("gauge_calibration_old") || flagged.has("gauge_calibration_future") ? null : test.gaugeCalibratedOn,
+  };
+}
+
+const numberOrUndefined = (text: string) => {
+  const t = text.trim();
+  if (t === "") return undefined;
+  const n = Number(t);
+  return Number.isFinite(n) ? n : undefined;
+};
 
 export function LeakTestForm({
   job,
   part,
   allowedDropPsi,
+  procedure,
   today,
   tester,
   lastGauge,
@@ -120,15 +143,60 @@ export function LeakTestForm({
   job: LeakTestJob;
   part: LeakTestPart;
   allowedDropPsi: number;
+  procedure: LeakTestProcedure;
   today: string;
   tester: string;
-  lastGauge: { fullScalePsi: number; calibratedOn: string } | null;
+  lastGauge: { fullScalePsi: number | null; calibratedOn: string | null } | null;
+  onClose: () => void;
+}) {
+  // Each retest is a fresh form; the gauge it starts with comes from the test just saved, unless
+  // that test showed the gauge wrong for the work.
+  const [round, setRound] = useState(0);
+  const [gauge, setGauge] = useState(lastGauge);
+  return (
+    <LeakTestRound
+      key={round}
+      {...{ job, part, allowedDropPsi, procedure, today, tester, onClose }}
+      lastGauge={gauge}
+      focusOnOpen={true}
+      onRetest={(answer) => {
+        setGauge(gaugePrefill({ ...answer.test, warnings: answer.warnings, invalidReasons: answer.invalidReasons }));
+        setRound((n) => n + 1);
+      }}
+    />
+  );
+}
+
+function LeakTestRound({
+  job,
+  part,
+  allowedDropPsi,
+  procedure,
+  today,
+  tester,
+  lastGauge,
+  focusOnOpen,
+  onRetest,
+  onClose,
+}: {
+  job: LeakTestJob;
+  part: LeakTestPart;
+  allowedDropPsi: number;
+  procedure: LeakTestProcedure;
+  today: string;
+  tester: string;
+  lastGauge: { fullScalePsi: number | null; calibratedOn: string | null } | null;
+  focusOnOpen: boolean;
+  onRetest: (answer: LeakTestAnswer) => void;
   onClose: () => void;
 }) {
   const router = useRouter();
   const formId = useId();
   const [method, setMethod] = useState<LeakTestMethod>(part.shape === "box" ? "soap" : "both");
   const [testPressure, setTestPressure] = useState("");
+  const [hold, setHold] = useState("");
+  const [gaugeScale, setGaugeScale] = useState(lastGauge?.fullScalePsi != null ? String(lastGauge.fullScalePsi) : "");
+  const [calibratedOn, setCalibratedOn] = useState(lastGauge?.calibratedOn ?? "");
   const [seams, setSeams] = useState<SeamRow[]>(() =>
     (part.kind === "reservoir" ? RESERVOIR_SEAMS : [""]).map((location, key) => ({ key, location, result: "" as const })),
   );
@@ -194,10 +262,30 @@ export function LeakTestForm({
   const pressure = Number(testPressure);
   const gaugeHint =
     testPressure !== "" && Number.isFinite(pressure) && pressure > 0
-      ? `For ${fmt(pressure)} psig: a gauge of ${fmt(ASME_GAUGE_FULL_SCALE_RATIO.min * pressure)}–${fmt(ASME_GAUGE_FULL_SCALE_RATIO.max * pressure)} psi full scale, about ${fmt(2 * pressure)} (ASME BPVC Section V, Article 10).`
-      : "About twice the test pressure; never under 1.5× nor over 4× (ASME BPVC Section V, Article 10).";
+      ? `For ${fmt(pressure)} psig: a gauge of ${fmt(procedure.gaugeRatioMin * pressure)}–${fmt(procedure.gaugeRatioMax * pressure)} psi full scale, about ${fmt(2 * pressure)} (${gaugeSource(procedure)}).`
+      : `About twice the test pressure; never under ${fmt(procedure.gaugeRatioMin)}× nor over ${fmt(procedure.gaugeRatioMax)}× (${gaugeSource(procedure)}).`;
+  // The procedure's flags as the numbers are typed: the same rule the server decides with.
+  const flags = procedureBreaches(
+    { method, testPressurePsig: numberOrUndefined(testPressure), holdMinutes: numberOrUndefined(hold), gaugeFullScalePsi: numberOrUndefined(gaugeScale), gaugeCalibratedOn: calibratedOn || undefined },
+    { partShape: part.shape, procedure, today },
+  );
+  const flagFor = (field: ProcedureBreach["field"]) => flags.find((f) => f.field === field);
+  const hintOr = (field: ProcedureBreach["field"], hint: string) => {
+    const flag = flagFor(field);
+    return flag ? `⚠ Outside the procedure: ${flag.message}` : hint;
+  };
+  const flagsId = `${formId}-flags`;
 
-  if (answer) return <LeakTestOutcome job={job} part={part} answer={answer} onAgain={() => setAnswer(null)} onClose={onClose} />;
+  useEffect(() => {
+    if (!focusOnOpen) return;
+    const first = formRef.current?.querySelector<HTMLInputElement>("input:not([type=radio]), input[type=radio]:checked");
+    first?.focus({ preventScroll: true });
+    formRef.current?.scrollIntoView({ block: "start", behavior: "smooth" });
+    // Only when the form opens.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  if (answer) return <LeakTestOutcome job={job} part={part} answer={answer} onAgain={() => onRetest(answer)} onClose={onClose} />;
 
   const numberInput = (p: object, extra: Record<string, unknown> = {}) => <input {...p} type="text" inputMode="decimal" autoComplete="off" className={inputClass} {...extra} />;
 
@@ -230,25 +318,40 @@ export function LeakTestForm({
           ))}
         </div>
         {form.fields.method && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.method.join(" ")}</p>}
-        {part.shape === "box" && method !== "soap" && (
+        {part.shape === "box" && method === "both" && (
           <p className="flex gap-2 text-sm font-medium text-warn-700">
-            <IconWarn /> A box tank&apos;s flat walls flex, so pressure decay cannot be trusted on it: check every seam with soap.
+            <IconWarn /> A box tank&apos;s flat walls flex, so pressure decay cannot be trusted on it: the soap check on every seam decides.
+          </p>
+        )}
+        {flagFor("method") && (
+          <p className="flex gap-2 text-sm font-medium text-warn-700">
+            <IconWarn /> Outside the procedure: {flagFor("method")!.message}
           </p>
         )}
       </fieldset>
 
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Test pressure (psig)" name="testPressurePsig" errors={form.fields.testPressurePsig} hint={bandHint(part.shape)}>
+        <Field label="Test pressure (psig)" name="testPressurePsig" errors={form.fields.testPressurePsig} hint={hintOr("testPressurePsig", bandHint(part.shape, procedure))}>
           {(p) => numberInput(p, { value: testPressure, onChange: (e: React.ChangeEvent<HTMLInputElement>) => setTestPressure(e.target.value) })}
         </Field>
-        <Field label="Hold (minutes)" name="holdMinutes" errors={form.fields.holdMinutes} hint={`At least ${ASME_MIN_HOLD_MINUTES} min before examining (ASME BPVC Section V, Article 10).`}>
-          {(p) => numberInput(p)}
+        <Field
+          label="Hold (minutes)"
+          name="holdMinutes"
+          errors={form.fields.holdMinutes}
+          hint={hintOr("holdMinutes", `At least ${fmt(procedure.minHoldMinutes)} min before examining (${holdSource(procedure)}).`)}
+        >
+          {(p) => numberInput(p, { value: hold, onChange: (e: React.ChangeEvent<HTMLInputElement>) => setHold(e.target.value) })}
         </Field>
-        <Field label="Gauge full scale (psi)" name="gaugeFullScalePsi" errors={form.fields.gaugeFullScalePsi} hint={gaugeHint}>
-          {(p) => numberInput(p, { defaultValue: lastGauge ? String(lastGauge.fullScalePsi) : "" })}
+        <Field label="Gauge full scale (psi)" name="gaugeFullScalePsi" errors={form.fields.gaugeFullScalePsi} hint={hintOr("gaugeFullScalePsi", gaugeHint)}>
+          {(p) => numberInput(p, { value: gaugeScale, onChange: (e: React.ChangeEvent<HTMLInputElement>) => setGaugeScale(e.target.value) })}
         </Field>
-        <Field label="Gauge last calibrated" name="gaugeCalibratedOn" errors={form.fields.gaugeCalibratedOn} hint="The date on the gauge's calibration tag.">
-          {(p) => <input {...p} type="date" max={today} defaultValue={lastGauge?.calibratedOn ?? ""} className={inputClass} />}
+        <Field
+          label="Gauge last calibrated"
+          name="gaugeCalibratedOn"
+          errors={form.fields.gaugeCalibratedOn}
+          hint={hintOr("gaugeCalibratedOn", "The date on the gauge's calibration tag.")}
+        >
+          {(p) => <input {...p} type="date" max={today} value={calibratedOn} onChange={(e) => setCalibratedOn(e.target.value)} className={inputClass} />}
         </Field>
       </div>
 
@@ -272,7 +375,7 @@ export function LeakTestForm({
           {(p) => numberInput(p, { defaultValue: String(SEA_LEVEL_PSIA) })}
         </Field>
         <p className="text-sm text-ink-soft">
-          The server corrects the end pressure to the start temperature (ideal gas law, absolute units) and compares the drop with the shop&apos;s allowed {fmt(allowedDropPsi)} psi. {DROP_PRECISION_NOTE}
+          The end pressure is corrected to the start temperature (ideal gas law, absolute units) and the drop compared with the shop&apos;s allowed {fmt(allowedDropPsi)} psi. {DROP_PRECISION_NOTE}
         </p>
       </fieldset>
 
@@ -334,7 +437,28 @@ export function LeakTestForm({
           <span>{summary}</span>
         </p>
       )}
-      <FormActions pending={form.pending} label="Record the test" pendingLabel="Recording…" onCancel={onClose} describedBy={summary ? summaryId : undefined} />
+      <div id={flagsId} aria-live="polite">
+        {flags.length > 0 && (
+          <div className="rounded-md border-2 border-warn-700/50 bg-warn-100 p-3 text-sm text-ink" data-testid="procedure-flags">
+            <p className="flex items-center gap-2 font-bold text-warn-700">
+              <IconWarn /> Outside the shop&apos;s procedure: this test will be saved as invalid
+            </p>
+            <ul className="mt-1 list-disc space-y-0.5 pl-5">
+              {flags.map((f) => (
+                <li key={f.code}>{f.message}</li>
+              ))}
+            </ul>
+            <p className="mt-1">An invalid test is neither a pass nor a fail: fix what is listed and test again.</p>
+          </div>
+        )}
+      </div>
+      <FormActions
+        pending={form.pending}
+        label={flags.length > 0 ? "Record as invalid" : "Record the test"}
+        pendingLabel="Recording…"
+        onCancel={onClose}
+        describedBy={[summary ? summaryId : "", flags.length > 0 ? flagsId : ""].filter(Boolean).join(" ") || undefined}
+      />
     </form>
   );
 }
@@ -403,19 +527,39 @@ export function SendBackOffer({ job, seen, note }: { job: LeakTestJob; seen?: { 
 
 function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTestJob; part: LeakTestPart; answer: LeakTestAnswer; onAgain: () => void; onClose: () => void }) {
   const pass = answer.result === "pass";
+  const invalid = answer.result === "invalid";
   const leaks = answer.test.seams.filter((s) => s.result === "leak").map((s) => s.location);
   const raw = answer.test.rawDropPsi;
-  const cautions = cautionsOf(answer.correctedDropPsi, answer.warnings);
+  const reasonCodes = new Set(answer.invalidReasons.map((r) => r.code));
+  const cautions = cautionsOf(answer.correctedDropPsi, answer.warnings).filter((w) => !reasonCodes.has(w.code));
   const drop = correctedDropText(answer.correctedDropPsi);
   // A rise is no drop to weigh against the allowance; the caution below says what to check.
   const rose = formatDropPsi(answer.correctedDropPsi).startsWith("-");
+  const tone = pass ? "ok" : invalid ? "warn" : "stop";
+  const box = { ok: "border-ok-700 bg-ok-100", warn: "border-warn-700 bg-warn-100", stop: "border-stop-700 bg-stop-100" }[tone];
+  const text = { ok: "text-ok-700", warn: "text-warn-700", stop: "text-stop-700" }[tone];
+  const resultRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    resultRef.current?.focus({ preventScroll: true });
+    resultRef.current?.scrollIntoView({ block: "center", behavior: "smooth" });
+  }, []);
 
   return (
-    <div role="status" aria-live="polite" className={`space-y-2 rounded-md border-2 p-3 ${pass ? "border-ok-700 bg-ok-100" : "border-stop-700 bg-stop-100"}`}>
-      <p className={`flex items-center gap-2 text-xl font-bold ${pass ? "text-ok-700" : "text-stop-700"}`}>
-        {pass ? <IconCheck className="h-6 w-6" /> : <IconStop className="h-6 w-6" />}
-        {pass ? "Pass" : "Fail"} — {part.name}
+    <div ref={resultRef} tabIndex={-1} role="status" aria-live="polite" data-testid="leak-test-result" className={`space-y-2 rounded-md border-2 p-3 outline-none focus-visible:ring-2 focus-visible:ring-bay-600 ${box}`}>
+      <p className={`flex items-center gap-2 text-xl font-bold ${text}`}>
+        {pass ? <IconCheck className="h-6 w-6" /> : invalid ? <IconWarn className="h-6 w-6" /> : <IconStop className="h-6 w-6" />}
+        {pass ? "Pass" : invalid ? "Invalid" : "Fail"} — {part.name}
       </p>
+      {invalid && (
+        <div className="space-y-1">
+          <p className="font-semibold text-ink">The test did not follow the shop&apos;s procedure, so it proves nothing either way and the part is not released for coating:</p>
+          <ul className="list-disc space-y-0.5 pl-5 text-sm text-ink">
+            {answer.invalidReasons.map((r) => (
+              <li key={r.code}>{r.message}</li>
+            ))}
+          </ul>
+        </div>
+      )}
       <p className="text-ink">
         <strong>{drop.charAt(0).toUpperCase() + drop.slice(1)}</strong> over {fmt(answer.test.holdMinutes, 1)} min
         {rose ? "." : `, ${dropAgainstAllowance(answer.correctedDropPsi, answer.test.allowedDropPsi)}.`}{" "}
@@ -432,8 +576,8 @@ function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTes
           ))}
         </ul>
       )}
-      {!pass && <p className="text-sm text-ink">Repair it, mark the part reworked, and record a new test: a failed tank cannot go out for coating.</p>}
-      {!pass && (
+      {answer.result === "fail" && <p className="text-sm text-ink">Repair it, mark the part reworked, and record a new test: a failed tank cannot go out for coating.</p>}
+      {answer.result === "fail" && (
         <SendBackOffer
           job={job}
           seen={answer.job}
@@ -441,8 +585,8 @@ function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTes
         />
       )}
       <div className="flex flex-wrap gap-2">
-        <button type="button" className={buttonClass.secondary} onClick={onAgain}>
-          Record another test
+        <button type="button" className={invalid ? buttonClass.primary : buttonClass.secondary} onClick={onAgain}>
+          {invalid ? "Test again" : "Record another test"}
         </button>
         <button type="button" className={buttonClass.secondary} onClick={onClose}>
           Close

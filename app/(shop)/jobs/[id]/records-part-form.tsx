@@ -5,7 +5,7 @@ import { useId, useState } from "react";
 import { Field, FormActions, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import type { PartKind, PartMaterial, PartShape } from "@/db/tables/records";
 import type { PartView } from "@/server/records/queries";
-import { PART_KINDS, PART_MATERIALS, PART_SHAPES, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/schemas";
+import { PART_KINDS, PART_MATERIALS, PART_SHAPES, kindDefaults, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/schemas";
 
 /**
  * Adds a part to the job, or edits one. A reservoir may carry its geometry (inside dimensions,
@@ -31,7 +31,7 @@ export function PartForm({
   const id = useId();
   const [kind, setKind] = useState<PartKind>(part?.kind ?? (installOnly ? "bracket" : "reservoir"));
   const [shape, setShape] = useState<PartShape>(part?.shape ?? (installOnly ? "other" : "round"));
-  const [needsLeakTest, setNeedsLeakTest] = useState(part?.needsLeakTest ?? !installOnly);
+  const [needsLeakTest, setNeedsLeakTest] = useState(part?.needsLeakTest ?? (installOnly ? false : kindDefaults(installOnly ? "bracket" : "reservoir").needsLeakTest));
   const [needsCoating, setNeedsCoating] = useState(part?.needsCoating ?? !installOnly);
   const geometry = part?.geometry;
   const kindLocked = Boolean(part) && !canEditGates;
@@ -86,8 +86,11 @@ export function PartForm({
               disabled={kindLocked}
               onChange={(e) => {
                 const next = e.target.value as PartKind;
+                // A new kind brings its own defaults, as the server does: a bracket is not leak-tested unless ticked.
+                const fresh = kindDefaults(next, shape === "other" ? "round" : shape);
                 setKind(next);
-                if (next === "box") setShape("box");
+                setShape(fresh.shape);
+                if (!installOnly) setNeedsLeakTest(fresh.needsLeakTest);
               }}
               className={`${inputClass} disabled:bg-line disabled:text-ink-soft`}
             >

@@ -12,7 +12,8 @@ import { formatShopTime } from "@/server/records/calendar";
 import type { LeakTestView, PartView } from "@/server/records/queries";
 import { type PartGeometry, glossLabels, partKindLabels, partMaterialLabels } from "@/server/records/schemas";
 import { sendBackNote } from "@/server/records/send-back";
-import { type LeakTestJob, LeakTestForm, SendBackOffer, cautionsOf, correctedDropText } from "./records-leak-test";
+import type { LeakTestProcedure } from "@/server/records/procedure";
+import { type LeakTestJob, LeakTestForm, SendBackOffer, cautionsOf, correctedDropText, gaugePrefill } from "./records-leak-test";
 import { PartForm } from "./records-part-form";
 
 type Panel = { partId: number; mode: "test" | "edit" | "rework" } | { partId: null; mode: "add" } | null;
@@ -40,7 +41,8 @@ function Status({ tone, icon, children }: { tone: "ok" | "warn" | "stop" | "plai
 function LeakStatus({ part }: { part: PartView }) {
   if (!part.needsLeakTest) return <Status tone="plain" icon="–">No leak test needed</Status>;
   if (part.leak.passedSinceRework) return <Status tone="ok" icon={<IconCheck />}>Leak test passed{part.reworkCount > 0 ? " since its last rework" : ""}</Status>;
-  if (part.leak.lastResult === "fail") return <Status tone="stop" icon={<IconStop />}>Last leak test failed: rework and test again</Status>;
+  if (part.leak.lastResult === "fail") return <Status tone="stop" icon={<IconStop />}>Last leak test failed: rework it, then record a new test</Status>;
+  if (part.leak.lastResult === "invalid") return <Status tone="warn" icon={<IconWarn />}>Last leak test invalid (outside the shop&apos;s procedure): test it again</Status>;
   if (part.reworkCount > 0) return <Status tone="warn" icon={<IconWarn />}>Reworked: test it again</Status>;
   return <Status tone="warn" icon={<IconClock />}>Not leak-tested yet</Status>;
 }
@@ -102,14 +104,15 @@ function TestHistory({ tests, timeZone }: { tests: LeakTestView[]; timeZone: str
       <summary className="flex min-h-11 cursor-pointer items-center font-semibold text-bay-800">Leak-test history ({tests.length})</summary>
       <ol className="space-y-2">
         {tests.map((t) => (
-          <li key={t.id} className={`border-l-4 pl-3 text-sm ${t.result === "pass" ? "border-ok-700" : "border-stop-700"}`}>
+          <li key={t.id} className={`border-l-4 pl-3 text-sm ${t.result === "pass" ? "border-ok-700" : t.result === "invalid" ? "border-warn-700" : "border-stop-700"}`}>
             <p className="font-semibold">
-              {t.result === "pass" ? <IconCheck /> : <IconStop />} {t.result === "pass" ? "Pass" : "Fail"} · {dateTime(t.testedAt, timeZone)} · {t.tester}
+              {t.result === "pass" ? <IconCheck /> : t.result === "invalid" ? <IconWarn /> : <IconStop />} {t.result === "pass" ? "Pass" : t.result === "invalid" ? "Invalid" : "Fail"} · {dateTime(t.testedAt, timeZone)} · {t.tester}
               {!t.current && <span className="ml-1 rounded bg-line px-1.5 text-ink-soft">before a rework: no longer counts</span>}
             </p>
             <p className="text-ink-soft">
-              {t.testPressurePsig} psig held {t.holdMinutes} min ({t.method === "both" ? "soap and decay" : t.method === "soap" ? "soap" : "pressure decay"}); {t.startPressurePsig} → {t.endPressurePsig} psig at {t.startTempF} → {t.endTempF} °F; {correctedDropText(t.correctedDropPsi)} (allowed {t.allowedDropPsi} psi)
+              {t.testPressurePsig} psig held {t.holdMinutes} min ({t.method === "both" ? "soap and decay" : t.method === "soap" ? "soap" : "pressure decay"}) on a {t.gaugeFullScalePsi} psi gauge; {t.startPressurePsig} → {t.endPressurePsig} psig at {t.startTempF} → {t.endTempF} °F; {correctedDropText(t.correctedDropPsi)} (allowed {t.allowedDropPsi} psi)
             </p>
+            {t.result === "invalid" && <p className="font-semibold text-warn-700">Outside the shop&apos;s procedure, so it counts for nothing:</p>}
             {t.seams.some((s) => s.result === "leak") && <p className="text-stop-700">Leak at: {t.seams.filter((s) => s.result === "leak").map((s) => s.location).join(", ")}</p>}
             {cautionsOf(t.correctedDropPsi, t.warnings).map((w) => (
               <p key={w.code} className="text-warn-700">
@@ -128,6 +131,7 @@ export function RecordsParts({
   parts,
   leakTests,
   allowedDropPsi,
+  procedure,
   today,
   timeZone,
   userName,
@@ -137,6 +141,7 @@ export function RecordsParts({
   parts: PartView[];
   leakTests: LeakTestView[];
   allowedDropPsi: number;
+  procedure: LeakTestProcedure;
   today: string;
   timeZone: string;
   userName: string;
@@ -145,7 +150,8 @@ export function RecordsParts({
 }) {
   const [panel, setPanel] = useState<Panel>(null);
   const close = () => setPanel(null);
-  const lastGauge = leakTests[0] ? { fullScalePsi: leakTests[0].gaugeFullScalePsi, calibratedOn: leakTests[0].gaugeCalibratedOn } : null;
+  // The gauge the last test used, unless that test showed it out of range or out of calibration.
+  const lastGauge = gaugePrefill(leakTests[0]);
 
   return (
     <div className="space-y-3">
@@ -153,7 +159,7 @@ export function RecordsParts({
         <p className="text-ink-soft">An install-only job has no fabricated parts: nothing here is leak-tested or sent out for coating. Change the job&apos;s scope first if the shop builds parts for it.</p>
       )}
       {job.scope === "fabrication" && parts.length === 0 && (
-        <p className="text-ink-soft">No parts yet. Add each tank, box and bracket the shop builds for this job: the gates into coating and install read them.</p>
+        <p className="text-ink-soft">No parts yet. Add each tank, box and bracket the shop builds for this job: what the job needs before it can move to Outside coating and Install is read from them.</p>
       )}
       <ul className="space-y-3">
         {parts.map((part) => {
@@ -201,7 +207,7 @@ export function RecordsParts({
               {open && (
                 <div className="mt-3">
                   {open === "test" && (
-                    <LeakTestForm job={job} part={part} allowedDropPsi={allowedDropPsi} today={today} tester={userName} lastGauge={lastGauge} onClose={close} />
+                    <LeakTestForm job={job} part={part} allowedDropPsi={allowedDropPsi} procedure={procedure} today={today} tester={userName} lastGauge={lastGauge} onClose={close} />
                   )}
                   {open === "edit" && <PartForm jobId={job.id} part={part} canEditGates={canEditGates} installOnly={job.scope === "install_only"} onDone={close} onCancel={close} />}
                   {open === "rework" && <ReworkForm part={part} onDone={close} onCancel={close} />}

@@ -26,6 +26,7 @@ export async function RecordsSection({ job, user }: { job: JobDetail; user: Staf
           parts={parts}
           leakTests={leakTests}
           allowedDropPsi={settings.allowedDropPsi}
+          procedure={settings.procedure}
           today={today}
           timeZone={settings.timeZone}
           userName={user.name}

@@ -22,7 +22,8 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
       <div>
         <h1 className="text-2xl font-bold break-words">Unit {truck.unitNumber}</h1>
         <p className="text-ink-soft">
-          {truck.year} {truck.description} · <Link href={`/customers/${truck.customerId}`} className={linkClass}>{truck.customerName}</Link>
+          {[truck.year, truck.make, truck.model].filter(Boolean).join(" ")}
+          {truck.description ? ` ${truck.description}` : ""} · <Link href={`/customers/${truck.customerId}`} className={linkClass}>{truck.customerName}</Link>
         </p>
       </div>
 
@@ -38,8 +39,11 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
                 ["Unit number", truck.unitNumber],
                 ["VIN", <span key="vin" className="tracking-wider">{truck.vin}</span>],
                 ["Model year", String(truck.year)],
+                ["Make", truck.make],
+                ["Model", truck.model],
                 ["Description", truck.description],
                 ["Transmission", truck.transmission],
+                ["PTO opening", truck.ptoOpening],
                 ["Engine speed at work", truck.workEngineRpm === null ? "" : `${truck.workEngineRpm} rpm`],
               ]}
             />

@@ -1,0 +1,37 @@
+import type { Stage } from "@/db/schema";
+import { isStage } from "@/server/jobs/stages";
+
+export interface StageChangedPayload {
+  /** Where the customer last heard the job was (or the stage it left, for a first message). */
+  from: Stage | null;
+  to: Stage;
+  /** Set when the office asked for a message to go again. */
+  resendOf?: string;
+  requestedBy?: string;
+}
+
+export interface LinkIssuedPayload {
+  linkId: number;
+  requestedBy: string;
+}
+
+export function parsePayload(raw: string): StageChangedPayload | null {
+  try {
+    const p = JSON.parse(raw) as Partial<StageChangedPayload>;
+    if (typeof p.to !== "string" || !isStage(p.to)) return null;
+    if (p.from !== null && (typeof p.from !== "string" || !isStage(p.from))) return null;
+    return { from: p.from, to: p.to, resendOf: typeof p.resendOf === "string" ? p.resendOf : undefined, requestedBy: typeof p.requestedBy === "string" ? p.requestedBy : undefined };
+  } catch {
+    return null;
+  }
+}
+
+export function parseLinkPayload(raw: string): LinkIssuedPayload | null {
+  try {
+    const p = JSON.parse(raw) as Partial<LinkIssuedPayload>;
+    if (typeof p.linkId !== "number" || !Number.isInteger(p.linkId) || typeof p.requestedBy !== "string") return null;
+    return { linkId: p.linkId, requestedBy: p.requestedBy };
+  } catch {
+    return null;
+  }
+}
