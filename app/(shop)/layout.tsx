@@ -17,7 +17,7 @@ export default async function ShopLayout({ children }: { children: React.ReactNo
     { href: "/customers", label: "Customers" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
-    ...(user.role === "owner" ? [{ href: "/staff", label: "Staff" }] : []),
+    ...(user.role === "owner" ? [{ href: "/staff", label: "Staff" }, { href: "/settings", label: "Settings" }] : []),
   ];
   return (
     <Providers>
@@ -29,15 +29,19 @@ export default async function ShopLayout({ children }: { children: React.ReactNo
               <span className="text-lg">Baywright</span>
             </Link>
             <div className="flex items-center gap-1 md:hidden">
-              <span className="text-sm text-ink-soft">{user.name.split(" ")[0]} · {ROLE_WORDS[user.role]}</span>
+              <Link href="/account" className="inline-flex min-h-11 items-center px-1 text-sm text-ink-soft underline-offset-2 hover:underline">
+                {user.name.split(" ")[0]} · {ROLE_WORDS[user.role]}
+                <span className="sr-only">: your account</span>
+              </Link>
               <SignOutButton />
             </div>
           </div>
           <ShellNav items={items} />
           <div className="ml-auto hidden items-center gap-2 md:flex">
-            <span className="text-sm text-ink-soft" data-testid="signed-in-as">
+            <Link href="/account" className="text-sm text-ink-soft underline-offset-2 hover:underline" data-testid="signed-in-as" title="Your account: password and signed-in devices">
               {user.name} · {ROLE_WORDS[user.role]}
-            </span>
+              <span className="sr-only">: your account</span>
+            </Link>
             <SignOutButton />
           </div>
         </div>

@@ -24,7 +24,7 @@ export function uploadConnectSources(): string[] {
  * Styles allow inline attributes: React and the drag-and-drop library position cards with them,
  * and a style cannot run code.
  */
-export function contentSecurityPolicy(nonce: string, dev = process.env.NODE_ENV !== "production"): string {
+export function contentSecurityPolicy(nonce: string, dev = process.env.NODE_ENV === "development"): string {
   return [
     "default-src 'self'",
     `script-src 'self' 'nonce-${nonce}' 'strict-dynamic'${dev ? " 'unsafe-eval'" : ""}`,

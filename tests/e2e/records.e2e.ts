@@ -202,4 +202,44 @@ describe.skipIf(!enabled)("records forms in Chromium", () => {
   });
 });
 
+describe.skipIf(!enabled)("the owner's leak-test procedure in Chromium", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("the owner changes the shortest hold on Settings and the leak-test form follows it", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "owner");
+    await page.getByRole("link", { name: "Settings" }).click();
+    await page.waitForURL(/\/settings/);
+    const form = page.getByRole("form", { name: "Leak-test procedure" });
+    const hold = form.getByLabel("Shortest hold (min)");
+    expect(await hold.inputValue()).toBe("15");
+    await hold.fill("20");
+    await form.getByRole("button", { name: "Save the procedure" }).click();
+    await page.getByText(/Procedure saved/).waitFor();
+    await shot(page, "settings-procedure-desk");
+    try {
+      const { job } = await jobWithTank(page);
+      await page.goto(`${baseUrl()}/jobs/${job.id}`);
+      await page.getByRole("button", { name: "Record a leak test" }).click();
+      const test = page.getByRole("form", { name: /Leak test of/ });
+      await test.getByText("At least 20 min before examining (the shop's procedure).").waitFor();
+      await test.getByLabel("Hold (minutes)").fill("15");
+      await test.getByText(/hold at least 20 min/).first().waitFor();
+    } finally {
+      const reset = await page.request.patch(`${baseUrl()}/api/shop-settings/leak-test-procedure`, { data: { minHoldMinutes: 15 }, headers: { origin: baseUrl() } });
+      expect(reset.status()).toBe(200);
+    }
+    // The signed-in name leads to the account page.
+    await page.getByTestId("signed-in-as").click();
+    await page.waitForURL(/\/account/);
+    await context.close();
+  });
+});
+
 void DEMO;

@@ -67,6 +67,7 @@ export const ACCESS_MATRIX: Row[] = [
   officePage("PAGE /jobs/new"),
   ownerPage("PAGE /staff"),
   staffPage("PAGE /account"),
+  ownerPage("PAGE /settings"),
   staffPage("PAGE /trucks"),
   staffPage("PAGE /trucks/[id]"),
   officePage("PAGE /trucks/new"),

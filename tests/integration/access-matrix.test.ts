@@ -137,6 +137,8 @@ async function tryRoute(entry: AppEntry, who: Who): Promise<Outcome | string> {
   const req = request(fill(entry.path, values), { method: entry.method, cookie: cookie || undefined, body: withBody ? {} : undefined, headers: { origin: "http://localhost:3000", "sec-fetch-site": "same-origin" } });
   const res: Response = await mod[entry.method!](req, { params: Promise.resolve(values) });
   if (res.status >= 500) return `answered ${res.status}`;
+  // JSON holds one signed-in person's view of the shop: no cache may keep it.
+  if ((res.headers.get("content-type") ?? "").includes("json") && !/no-store/.test(res.headers.get("cache-control") ?? "")) return `JSON without Cache-Control: no-store (${res.status})`;
   if (res.status === 401 || res.status === 403) return res.status;
   if (res.status === 404 && entry.path.includes("[token]")) return 404;
   return "ok";

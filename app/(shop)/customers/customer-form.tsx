@@ -26,6 +26,7 @@ export function CustomerForm({ saved: first }: { saved?: Saved }) {
   const [rows, setRows] = useState<ContactRow[]>(() => (first ? rowsFrom(first.contacts) : [{ key: "new-0" }]));
   const [version, setVersion] = useState(0);
   const [notice, setNotice] = useState<string | null>(null);
+  const [kind, setKind] = useState<string>(first?.customer.kind ?? "company");
   const newKeys = useRef(1);
   // Field errors name contacts by their place in the list that was sent; remember which row was where.
   const sentKeys = useRef<string[]>([]);
@@ -84,9 +85,14 @@ export function CustomerForm({ saved: first }: { saved?: Saved }) {
       <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-4">
         <legend className="px-1 text-lg font-bold">Customer</legend>
         <div className="grid gap-3 sm:grid-cols-2">
-          <Field label="Kind" name="kind" errors={f.kind} hint="An owner-operator drives their own truck.">
+          <Field
+            label="Kind"
+            name="kind"
+            errors={f.kind}
+            hint={kind === "owner_operator" ? "An owner-operator drives their own truck; they are usually the contact too." : "A fleet or business: add the people who hear about its jobs as contacts."}
+          >
             {(p) => (
-              <select {...p} defaultValue={c?.kind ?? "company"} className={inputClass}>
+              <select {...p} defaultValue={c?.kind ?? "company"} onChange={(e) => setKind(e.target.value)} className={inputClass}>
                 <option value="company">{CUSTOMER_KIND_LABELS.company} (fleet or business)</option>
                 <option value="owner_operator">{CUSTOMER_KIND_LABELS.owner_operator}</option>
               </select>

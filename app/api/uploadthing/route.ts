@@ -15,7 +15,7 @@ const handler = createRouteHandler({
 export async function GET(req: NextRequest) {
   return respond(async () => {
     await requireStaff(req);
-    return handler.GET(req);
+    return noStore(await handler.GET(req));
   });
 }
 
@@ -30,11 +30,18 @@ export async function POST(req: NextRequest) {
       await requireStaff(req);
       assertSameOrigin(req);
     }
-    return handler.POST(await checkedBody(req));
+    return noStore(await handler.POST(await checkedBody(req)));
   });
 }
 
 const MAX_BODY_BYTES = 256 * 1024;
+
+/** The SDK's answers carry presigned upload URLs: no cache may keep them. */
+function noStore(res: Response): Response {
+  const headers = new Headers(res.headers);
+  if (!/no-store/.test(headers.get("cache-control") ?? "")) headers.set("Cache-Control", "no-store");
+  return new Response(res.body, { status: res.status, statusText: res.statusText, headers });
+}
 
 /**
  * The SDK answers 500 to a body nested thousands deep or a file name with half a UTF-16 pair; both

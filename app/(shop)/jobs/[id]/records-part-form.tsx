@@ -111,7 +111,18 @@ export function PartForm({
         </Field>
       </div>
       {(kind === "reservoir" || kind === "box") && (
-        <Field label="Shape" name="shape" errors={form.fields.shape} hint="Sets the usual test pressure and whether pressure decay is valid.">
+        <Field
+          label="Shape"
+          name="shape"
+          errors={form.fields.shape}
+          hint={
+            shape === "box"
+              ? "Flat walls flex: a box tank is checked with soap on every seam, at the box tank's test pressure."
+              : shape === "round"
+                ? "A round tank is tested at the round tank's pressure, with soap, pressure decay or both."
+                : "No set test pressure for this shape: the tester uses the lowest pressure that finds a leak."
+          }
+        >
           {(p) => (
             <select {...p} value={shape} onChange={(e) => setShape(e.target.value as PartShape)} className={inputClass}>
               {PART_SHAPES.map((s) => (
