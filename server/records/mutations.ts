@@ -61,8 +61,8 @@ async function assertJob(trx: Trx, jobId: number) {
 // An install-only job skips Pressure test and Outside coating, so a part that needs either could
 // never be released: refuse it and send the user to the job's scope.
 const INSTALL_ONLY = {
-  needsLeakTest: "This job is install only: it has no fabricated parts to leak-test. Change the job's scope first, or add the part without a leak test (a reservoir is always tested).",
-  needsCoating: "This job is install only: it has no fabricated parts to send out for coating. Change the job's scope first, or add the part without outside coating.",
+  needsLeakTest: "This job is install only: it has no fabricated parts to leak-test. Change the job's Work to fabricated parts first, or add the part without a leak test (a reservoir is always tested).",
+  needsCoating: "This job is install only: it has no fabricated parts to send out for coating. Change the job's Work to fabricated parts first, or add the part without outside coating.",
 } as const;
 
 /** Who may take a part off the gates' lists or change its kind: those decide what the gates into coating and install ask for. */
@@ -142,7 +142,7 @@ export async function patchPart(db: DB, actor: StaffUser, partId: number, patch:
       if (refused.length) {
         throw new ApiError(
           "forbidden",
-          `Only the office or the owner can ${refused.join(" or ")}: that decides what the gates into coating and install ask for. Ask them, or mark the part reworked.`,
+          `Only the office or the owner can ${refused.join(" or ")}: that decides what a job needs before it can move to Outside coating and Install. Ask them, or mark the part reworked.`,
         );
       }
     }
@@ -283,7 +283,7 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
     if (input.sentOn > today) problems.sentOn = `The sent date cannot be after today (${today}).`;
     if (input.receivedOn && input.receivedOn > today) problems.receivedOn = `The received date cannot be after today (${today}).`;
     const vendor = await trx.selectFrom("vendor").select("id").where("id", "=", input.vendorId).executeTakeFirst();
-    if (!vendor) problems.vendorId = "That coater is not on the vendors list.";
+    if (!vendor) problems.vendorId = "That coater is not on the list of coaters; choose one from the list.";
 
     const parts = await trx
       .selectFrom("part as p")
