@@ -3,6 +3,7 @@ import { type Transaction, sql } from "kysely";
 import type { DB } from "@/db";
 import type { Database, JobScope, Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
+import { type AuditActor, recordAudit } from "@/server/audit/record";
 import { ApiError, notFound } from "@/server/http/errors";
 import { evaluateLeakTest, type LeakTestOutcome } from "./leak-test";
 import {
@@ -190,7 +191,7 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
     throw new ApiError("forbidden", "Only the office or the owner can remove a part from a job. Ask them, or mark the part reworked if it was remade.");
   }
   await db.transaction().execute(async (trx) => {
-    const part = await trx.selectFrom("part").select("id").where("id", "=", partId).executeTakeFirst();
+    const part = await trx.selectFrom("part").innerJoin("job", "job.id", "part.job_id").select(["part.id", "part.name", "part.job_id", "job.work_order"]).where("part.id", "=", partId).executeTakeFirst();
     if (!part) throw notFound("That part");
     const test = await trx.selectFrom("leak_test").select("id").where("part_id", "=", partId).limit(1).executeTakeFirst();
     const run = await trx.selectFrom("coating_run_part").select("run_id").where("part_id", "=", partId).limit(1).executeTakeFirst();
@@ -198,6 +199,7 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
       throw new ApiError("conflict", "This part has a leak test or coating run on record, and records are kept. Edit the part instead.");
     }
     await trx.deleteFrom("part").where("id", "=", partId).execute();
+    await recordAudit(trx, { kind: "part_deleted", actor, subject: `work order ${part.work_order}`, summary: `${actor.name} deleted the part "${part.name}" from work order ${part.work_order}.`, details: { partId, jobId: part.job_id, name: part.name } });
   });
 }
 
@@ -421,12 +423,22 @@ export async function saveSignOff(db: DB, actor: StaffUser, jobId: number, input
   return (await findSignOff(db, jobId))!;
 }
 
-export async function updateLeakAllowance(db: DB, allowedDropPsi: number): Promise<void> {
+export async function updateLeakAllowance(db: DB, actor: AuditActor, allowedDropPsi: number): Promise<void> {
   await db.transaction().execute(async (trx) => {
     const shop = await trx.selectFrom("shop").select("id").where("id", "=", 1).executeTakeFirst();
     if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
+    const before = (await sql<{ drop: number | null }>`select leak_allowed_drop_psi as "drop" from shop where id = 1`.execute(trx)).rows[0]?.drop ?? null;
     // The column is this area's own addition to the shop table (migration 0003), so it is written by name.
     await sql`update shop set leak_allowed_drop_psi = ${allowedDropPsi} where id = 1`.execute(trx);
+    if (before !== allowedDropPsi) {
+      await recordAudit(trx, {
+        kind: "settings_changed",
+        actor,
+        subject: "Allowed leak-test drop",
+        summary: `${actor.name} changed the allowed leak-test drop from ${before ?? "the default"} psi to ${allowedDropPsi} psi.`,
+        details: { leakAllowedDropPsi: [before, allowedDropPsi] },
+      });
+    }
   });
 }
 
