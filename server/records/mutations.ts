@@ -442,12 +442,24 @@ export async function updateLeakAllowance(db: DB, actor: AuditActor, allowedDrop
   });
 }
 
+const PROCEDURE_WORDS: Record<keyof LeakTestProcedure, string> = {
+  minHoldMinutes: "shortest hold (min)",
+  gaugeRatioMin: "lowest gauge ratio (×)",
+  gaugeRatioMax: "highest gauge ratio (×)",
+  roundMinPsig: "round tank lowest test pressure (psig)",
+  roundMaxPsig: "round tank highest test pressure (psig)",
+  boxMinPsig: "box tank lowest test pressure (psig)",
+  boxMaxPsig: "box tank highest test pressure (psig)",
+  calibrationMonths: "oldest gauge calibration (months)",
+};
+
 /** The owner's change to the leak-test procedure. Tests already recorded keep the decision they were saved with. */
-export async function updateLeakTestProcedure(db: DB, patch: LeakTestProcedurePatch): Promise<LeakTestProcedure> {
+export async function updateLeakTestProcedure(db: DB, actor: AuditActor, patch: LeakTestProcedurePatch): Promise<LeakTestProcedure> {
   return db.transaction().execute(async (trx) => {
     const shop = await trx.selectFrom("shop").select("id").where("id", "=", 1).executeTakeFirst();
     if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
-    const merged = { ...(await recordsSettings(trx)).procedure, ...patch };
+    const before = (await recordsSettings(trx)).procedure;
+    const merged = { ...before, ...patch };
     const problems = procedureProblems(merged);
     if (Object.keys(problems).length) throw fieldErrors(problems);
     await trx
@@ -464,6 +476,16 @@ export async function updateLeakTestProcedure(db: DB, patch: LeakTestProcedurePa
       })
       .where("id", "=", 1)
       .execute();
+    const changed = (Object.keys(merged) as (keyof LeakTestProcedure)[]).filter((key) => merged[key] !== before[key]);
+    if (changed.length) {
+      await recordAudit(trx, {
+        kind: "settings_changed",
+        actor,
+        subject: "Leak-test procedure",
+        summary: `${actor.name} changed the leak-test procedure: ${changed.map((key) => `${PROCEDURE_WORDS[key]} from ${before[key]} to ${merged[key]}`).join("; ")}.`,
+        details: Object.fromEntries(changed.map((key) => [key, [before[key], merged[key]]])),
+      });
+    }
     return merged;
   });
 }
