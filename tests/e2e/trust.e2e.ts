@@ -131,7 +131,8 @@ describe.skipIf(!enabled)("the app under its Content-Security-Policy", () => {
   });
 
   it("a server action from another site is refused with 403, with or without a forged Origin", async () => {
-    for (const headers of [{ "sec-fetch-site": "cross-site" }, { origin: "https://elsewhere.example" }, { origin: "not a url" }, {}]) {
+    const tries: Record<string, string>[] = [{ "sec-fetch-site": "cross-site" }, { origin: "https://elsewhere.example" }, { origin: "not a url" }, {}];
+    for (const headers of tries) {
       const res = await fetch(`${baseUrl()}/first-run`, { method: "POST", headers: { ...headers, "next-action": "0".repeat(40), "content-type": "text/plain;charset=UTF-8" }, body: "[]" });
       expect(res.status, JSON.stringify(headers)).toBe(403);
     }
