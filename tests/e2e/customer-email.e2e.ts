@@ -55,10 +55,10 @@ describe.skipIf(!enabled)("customer e-mail and the status page follow the job's 
     const description = "Wet kit: 35 gal stainless tank, PTO pump";
     const officeContext = await browser.newContext(DESK);
     const office = await signIn(officeContext, "office");
-    const created = await office.request.post(`${baseUrl()}/api/jobs`, { data: { customerId: pick.customerId, truckId: pick.truckId, scope: "fabrication", description } });
+    const created = await office.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: pick.customerId, truckId: pick.truckId, scope: "fabrication", description } });
     expect(created.status()).toBe(201);
     const job = (await created.json()).job as { id: number; version: number; workOrder: string };
-    const part = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, {
+    const part = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, { headers: { origin: baseUrl() },
       data: { name: "35 gal stainless tank", kind: "reservoir", material: "stainless", shape: "round", geometry: { shape: "round", insideDiameterIn: 18, lengthIn: 32 }, needsLeakTest: true, needsCoating: false },
     });
     expect(part.status(), await part.text()).toBe(201);
@@ -87,7 +87,7 @@ describe.skipIf(!enabled)("customer e-mail and the status page follow the job's 
     // Two quick moves: one e-mail, about where the job ended up, and no word of a coater.
     const move = async (toStage: string) => {
       const current = (await (await office.request.get(`${baseUrl()}/api/jobs/${job.id}`)).json()).job;
-      const res = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { data: { toStage, version: current.version } });
+      const res = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage, version: current.version } });
       expect(res.status(), await res.text()).toBe(200);
     };
     const movedAt = new Date().toISOString();
