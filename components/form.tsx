@@ -8,7 +8,7 @@ import { buttonClass } from "./styles";
 export { buttonClass, inputClass } from "./styles";
 
 /** A labelled field with its error beside it, announced to screen readers. */
-export function Field({ label, name, errors, hint, children }: { label: string; name: string; errors?: string[]; hint?: string; children: (props: { id: string; "aria-invalid": boolean; "aria-describedby": string; name: string }) => ReactNode }) {
+export function Field({ label, name, errors, hint, hintTone, children }: { label: string; name: string; errors?: string[]; hint?: string; /** "warn" for a caution the entry raises (not an error: it still saves). */ hintTone?: "warn"; children: (props: { id: string; "aria-invalid": boolean; "aria-describedby": string; name: string }) => ReactNode }) {
   const id = useId();
   const describedBy = `${id}-msg`;
   return (
@@ -17,7 +17,7 @@ export function Field({ label, name, errors, hint, children }: { label: string; 
         {label}
       </label>
       {children({ id, name, "aria-invalid": Boolean(errors?.length), "aria-describedby": describedBy })}
-      <p id={describedBy} aria-live="polite" className={errors?.length ? "text-sm font-medium text-stop-700" : "text-sm text-ink-soft"}>
+      <p id={describedBy} aria-live="polite" className={errors?.length ? "text-sm font-medium text-stop-700" : hintTone === "warn" ? "text-sm font-medium text-warn-700" : "text-sm text-ink-soft"}>
         {errors?.length ? `⚠ ${errors.join(" ")}` : hint}
       </p>
     </div>

@@ -1,4 +1,5 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type { AuditTables } from "./tables/audit";
 import type { KitSpecTables } from "./tables/kit-spec";
 import type { MessagingTables } from "./tables/messaging";
 import type { RecordsTables } from "./tables/records";
@@ -143,7 +144,7 @@ export interface OutboxTable {
   replaced_at: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
-export interface Database extends RecordsTables, KitSpecTables, MessagingTables {
+export interface Database extends RecordsTables, KitSpecTables, MessagingTables, AuditTables {
   staff: StaffTable;
   session: SessionTable;
   shop: ShopTable;

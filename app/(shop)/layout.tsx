@@ -17,7 +17,13 @@ export default async function ShopLayout({ children }: { children: React.ReactNo
     { href: "/customers", label: "Customers" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
-    ...(user.role === "owner" ? [{ href: "/staff", label: "Staff" }, { href: "/settings", label: "Settings" }] : []),
+    ...(user.role === "owner"
+      ? [
+          { href: "/staff", label: "Staff" },
+          { href: "/settings", label: "Settings" },
+          { href: "/audit", label: "Audit" },
+        ]
+      : []),
   ];
   return (
     <Providers>

@@ -5,12 +5,15 @@ import { cache } from "react";
 import type { Role } from "@/db/schema";
 import { ApiError } from "@/server/http/errors";
 import { SESSION_COOKIE, lucia } from "./lucia";
+import { clientAddress } from "./rate-limit";
 
 export interface StaffUser {
   id: string;
   name: string;
   email: string;
   role: Role;
+  /** Where the request came from (route handlers behind a trusted proxy only), for the audit trail. */
+  address?: string | null;
   /** Set by the owner's reset: until they choose their own password they may only do that. */
   mustChangePassword?: boolean;
 }
@@ -53,7 +56,7 @@ export async function requireStaff(req: Request, roles?: readonly Role[], access
   if (!found) throw new ApiError("unauthenticated", "Sign in first.");
   assertPasswordChosen(found.user, access);
   assertRole(found.user, roles);
-  return found.user;
+  return { ...found.user, address: clientAddress(req) };
 }
 
 /** Like requireStaff, with the session id too (the account routes keep this device signed in). */

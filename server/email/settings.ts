@@ -4,6 +4,7 @@ import type { DB } from "@/db";
 import type { Database } from "@/db/schema";
 import type { Stage } from "@/db/schema";
 import { isStage } from "@/server/jobs/stages";
+import { recordAudit } from "@/server/audit/record";
 import { emailEnv } from "./env";
 import type { StaffUser } from "@/server/auth/session";
 import { DEFAULT_NOTIFY_STAGES, DEFAULT_STATUS_LINK_DAYS, type NotifySettingsInput } from "./schemas";
@@ -32,11 +33,29 @@ export async function saveNotifySettings(db: DB, actor: StaffUser, input: Notify
     updated_at: new Date().toISOString(),
     updated_by: actor.id,
   };
-  await db
-    .insertInto("message_setting")
-    .values({ id: 1, ...values })
-    .onConflict((oc) => oc.column("id").doUpdateSet(values))
-    .execute();
+  await db.transaction().execute(async (trx) => {
+    const before = await notifySettings(trx);
+    const quietBefore = await quietSeconds(trx);
+    await trx
+      .insertInto("message_setting")
+      .values({ id: 1, ...values })
+      .onConflict((oc) => oc.column("id").doUpdateSet(values))
+      .execute();
+    const changes: string[] = [];
+    const stagesBefore = before.notifyStages.join(",");
+    if (stagesBefore !== values.notify_stages) changes.push(`e-mail at stages ${stagesBefore || "none"} → ${values.notify_stages || "none"}`);
+    if (before.statusLinkDays !== values.status_link_days) changes.push(`status links last ${before.statusLinkDays} → ${values.status_link_days} days after delivery`);
+    if (values.quiet_seconds !== undefined && values.quiet_seconds !== quietBefore) changes.push(`stage e-mail waits ${quietBefore / 60} → ${values.quiet_seconds / 60} minutes after a move`);
+    if (changes.length) {
+      await recordAudit(trx, {
+        kind: "settings_changed",
+        actor,
+        subject: "Customer e-mail",
+        summary: `${actor.name} changed customer e-mail settings: ${changes.join("; ")}.`,
+        details: { notifyStages: [stagesBefore, values.notify_stages], statusLinkDays: [before.statusLinkDays, values.status_link_days], ...(values.quiet_seconds !== undefined ? { quietSeconds: [quietBefore, values.quiet_seconds] } : {}) },
+      });
+    }
+  });
   return notifySettings(db);
 }
 

@@ -72,7 +72,7 @@ export function checkMove(from: Stage, to: Stage, scope: JobScope, records: Gate
   if (!route.includes(to)) {
     return {
       kind: stageIndex(to) > stageIndex(from) ? "forward" : "backward",
-      unmet: [`This job has no fabricated parts, so it skips ${STAGE_LABELS[to]}. Change the job's scope first if that is wrong.`],
+      unmet: [`This job has no fabricated parts, so it skips ${STAGE_LABELS[to]}. Change the job's Work to fabricated parts first if that is wrong.`],
       impossible: true,
     };
   }

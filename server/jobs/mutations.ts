@@ -3,6 +3,7 @@ import { sql, type Transaction } from "kysely";
 import type { DB } from "@/db";
 import type { Database, Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
+import { recordAudit } from "@/server/audit/record";
 import { queueStageMessage } from "@/server/email/outbox";
 import { ApiError } from "@/server/http/errors";
 import { loadGateRecords } from "./gate-records";
@@ -142,6 +143,18 @@ export interface MoveResult {
  * an owner's override; then places it, keeps both columns dense, and writes the stage event and
  * the customer's outbox row in the same transaction.
  */
+async function auditOverride(trx: DB, actor: StaffUser, jobId: number, from: Stage, to: Stage, unmet: string[], reason: string, at: string) {
+  const { work_order } = await trx.selectFrom("job").select("work_order").where("id", "=", jobId).executeTakeFirstOrThrow();
+  await recordAudit(trx, {
+    kind: "override",
+    actor,
+    at,
+    subject: `work order ${work_order}`,
+    summary: `${actor.name} moved work order ${work_order} from ${STAGE_LABELS[from]} to ${STAGE_LABELS[to]} without: ${unmet.join("; ")}. Reason: ${reason}`,
+    details: { jobId, from, to, unmet, reason },
+  });
+}
+
 export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveInput): Promise<MoveResult> {
   const eventId = await db.transaction().execute(async (trx) => {
     const job = await trx.selectFrom("job").select(["id", "stage", "scope", "version", "position"]).where("id", "=", id).executeTakeFirst();
@@ -180,6 +193,7 @@ export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveIn
       .executeTakeFirstOrThrow();
     // The customer hears about stage changes only, after the quiet period (server/email/outbox.ts).
     await queueStageMessage(trx, { jobId: id, from: job.stage, to: move.toStage, at });
+    if (overrideReason) await auditOverride(trx, actor, id, job.stage, move.toStage, check.unmet, overrideReason, at);
     return event.id;
   });
   return { job: (await findJob(db, id))!, eventId };

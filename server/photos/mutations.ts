@@ -2,6 +2,7 @@ import "server-only";
 import type { DB } from "@/db";
 import type { Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
+import { recordAudit } from "@/server/audit/record";
 import { ApiError } from "@/server/http/errors";
 import { findPhoto, listJobPhotos } from "./queries";
 import type { PhotoPatch } from "./schemas";
@@ -64,10 +65,16 @@ export async function patchPhoto(db: DB, _actor: StaffUser, id: number, patch: P
   return (await listJobPhotos(db, photo.job_id)).find((p) => p.id === id)!;
 }
 
-export async function deletePhoto(db: DB, _actor: StaffUser, id: number) {
+export async function deletePhoto(db: DB, actor: StaffUser, id: number) {
   const photo = await findPhoto(db, id);
   if (!photo) throw new ApiError("not_found", "That photo was not found.");
-  await db.deleteFrom("photo").where("id", "=", id).execute();
+  await db.transaction().execute(async (trx) => {
+    const job = await trx.selectFrom("job").select("work_order").where("id", "=", photo.job_id).executeTakeFirst();
+    const removed = await trx.deleteFrom("photo").where("id", "=", id).executeTakeFirst();
+    if (Number(removed.numDeletedRows) !== 1) return;
+    const what = photo.caption ? `the photo "${photo.caption}"` : `a photo (${photo.original_name})`;
+    await recordAudit(trx, { kind: "photo_deleted", actor, subject: job ? `work order ${job.work_order}` : "", summary: `${actor.name} deleted ${what} from work order ${job?.work_order ?? photo.job_id}.`, details: { photoId: id, jobId: photo.job_id, customerVisible: photo.customer_visible === 1 } });
+  });
   await removePhotoFiles(photo.job_id, photo.upload_key);
   return { id, jobId: photo.job_id };
 }

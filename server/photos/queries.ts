@@ -29,7 +29,7 @@ export async function listJobPhotos(db: DB, jobId: number) {
 export type JobPhoto = Awaited<ReturnType<typeof listJobPhotos>>[number];
 
 export async function findPhoto(db: DB, id: number) {
-  return db.selectFrom("photo").select(["id", "job_id", "upload_key", "customer_visible"]).where("id", "=", id).executeTakeFirst();
+  return db.selectFrom("photo").select(["id", "job_id", "upload_key", "customer_visible", "caption", "original_name"]).where("id", "=", id).executeTakeFirst();
 }
 
 /** Whether a part belongs to the job (the photo table has no foreign key to parts: the app checks). */

@@ -3,6 +3,7 @@ import { type Transaction, sql } from "kysely";
 import type { DB } from "@/db";
 import type { Database, JobScope, Stage } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
+import { type AuditActor, recordAudit } from "@/server/audit/record";
 import { ApiError, notFound } from "@/server/http/errors";
 import { evaluateLeakTest, type LeakTestOutcome } from "./leak-test";
 import {
@@ -61,8 +62,8 @@ async function assertJob(trx: Trx, jobId: number) {
 // An install-only job skips Pressure test and Outside coating, so a part that needs either could
 // never be released: refuse it and send the user to the job's scope.
 const INSTALL_ONLY = {
-  needsLeakTest: "This job is install only: it has no fabricated parts to leak-test. Change the job's scope first, or add the part without a leak test (a reservoir is always tested).",
-  needsCoating: "This job is install only: it has no fabricated parts to send out for coating. Change the job's scope first, or add the part without outside coating.",
+  needsLeakTest: "This job is install only: it has no fabricated parts to leak-test. Change the job's Work to fabricated parts first, or add the part without a leak test (a reservoir is always tested).",
+  needsCoating: "This job is install only: it has no fabricated parts to send out for coating. Change the job's Work to fabricated parts first, or add the part without outside coating.",
 } as const;
 
 /** Who may take a part off the gates' lists or change its kind: those decide what the gates into coating and install ask for. */
@@ -142,7 +143,7 @@ export async function patchPart(db: DB, actor: StaffUser, partId: number, patch:
       if (refused.length) {
         throw new ApiError(
           "forbidden",
-          `Only the office or the owner can ${refused.join(" or ")}: that decides what the gates into coating and install ask for. Ask them, or mark the part reworked.`,
+          `Only the office or the owner can ${refused.join(" or ")}: that decides what a job needs before it can move to Outside coating and Install. Ask them, or mark the part reworked.`,
         );
       }
     }
@@ -190,7 +191,7 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
     throw new ApiError("forbidden", "Only the office or the owner can remove a part from a job. Ask them, or mark the part reworked if it was remade.");
   }
   await db.transaction().execute(async (trx) => {
-    const part = await trx.selectFrom("part").select("id").where("id", "=", partId).executeTakeFirst();
+    const part = await trx.selectFrom("part").innerJoin("job", "job.id", "part.job_id").select(["part.id", "part.name", "part.job_id", "job.work_order"]).where("part.id", "=", partId).executeTakeFirst();
     if (!part) throw notFound("That part");
     const test = await trx.selectFrom("leak_test").select("id").where("part_id", "=", partId).limit(1).executeTakeFirst();
     const run = await trx.selectFrom("coating_run_part").select("run_id").where("part_id", "=", partId).limit(1).executeTakeFirst();
@@ -198,6 +199,7 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
       throw new ApiError("conflict", "This part has a leak test or coating run on record, and records are kept. Edit the part instead.");
     }
     await trx.deleteFrom("part").where("id", "=", partId).execute();
+    await recordAudit(trx, { kind: "part_deleted", actor, subject: `work order ${part.work_order}`, summary: `${actor.name} deleted the part "${part.name}" from work order ${part.work_order}.`, details: { partId, jobId: part.job_id, name: part.name } });
   });
 }
 
@@ -283,7 +285,7 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
     if (input.sentOn > today) problems.sentOn = `The sent date cannot be after today (${today}).`;
     if (input.receivedOn && input.receivedOn > today) problems.receivedOn = `The received date cannot be after today (${today}).`;
     const vendor = await trx.selectFrom("vendor").select("id").where("id", "=", input.vendorId).executeTakeFirst();
-    if (!vendor) problems.vendorId = "That coater is not on the vendors list.";
+    if (!vendor) problems.vendorId = "That coater is not on the list of coaters; choose one from the list.";
 
     const parts = await trx
       .selectFrom("part as p")
@@ -421,21 +423,43 @@ export async function saveSignOff(db: DB, actor: StaffUser, jobId: number, input
   return (await findSignOff(db, jobId))!;
 }
 
-export async function updateLeakAllowance(db: DB, allowedDropPsi: number): Promise<void> {
+export async function updateLeakAllowance(db: DB, actor: AuditActor, allowedDropPsi: number): Promise<void> {
   await db.transaction().execute(async (trx) => {
     const shop = await trx.selectFrom("shop").select("id").where("id", "=", 1).executeTakeFirst();
     if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
+    const before = (await sql<{ drop: number | null }>`select leak_allowed_drop_psi as "drop" from shop where id = 1`.execute(trx)).rows[0]?.drop ?? null;
     // The column is this area's own addition to the shop table (migration 0003), so it is written by name.
     await sql`update shop set leak_allowed_drop_psi = ${allowedDropPsi} where id = 1`.execute(trx);
+    if (before !== allowedDropPsi) {
+      await recordAudit(trx, {
+        kind: "settings_changed",
+        actor,
+        subject: "Allowed leak-test drop",
+        summary: `${actor.name} changed the allowed leak-test drop from ${before ?? "the default"} psi to ${allowedDropPsi} psi.`,
+        details: { leakAllowedDropPsi: [before, allowedDropPsi] },
+      });
+    }
   });
 }
 
+const PROCEDURE_WORDS: Record<keyof LeakTestProcedure, string> = {
+  minHoldMinutes: "shortest hold (min)",
+  gaugeRatioMin: "lowest gauge ratio (×)",
+  gaugeRatioMax: "highest gauge ratio (×)",
+  roundMinPsig: "round tank lowest test pressure (psig)",
+  roundMaxPsig: "round tank highest test pressure (psig)",
+  boxMinPsig: "box tank lowest test pressure (psig)",
+  boxMaxPsig: "box tank highest test pressure (psig)",
+  calibrationMonths: "oldest gauge calibration (months)",
+};
+
 /** The owner's change to the leak-test procedure. Tests already recorded keep the decision they were saved with. */
-export async function updateLeakTestProcedure(db: DB, patch: LeakTestProcedurePatch): Promise<LeakTestProcedure> {
+export async function updateLeakTestProcedure(db: DB, actor: AuditActor, patch: LeakTestProcedurePatch): Promise<LeakTestProcedure> {
   return db.transaction().execute(async (trx) => {
     const shop = await trx.selectFrom("shop").select("id").where("id", "=", 1).executeTakeFirst();
     if (!shop) await trx.insertInto("shop").values({ id: 1, name: "Your shop" }).execute();
-    const merged = { ...(await recordsSettings(trx)).procedure, ...patch };
+    const before = (await recordsSettings(trx)).procedure;
+    const merged = { ...before, ...patch };
     const problems = procedureProblems(merged);
     if (Object.keys(problems).length) throw fieldErrors(problems);
     await trx
@@ -452,6 +476,16 @@ export async function updateLeakTestProcedure(db: DB, patch: LeakTestProcedurePa
       })
       .where("id", "=", 1)
       .execute();
+    const changed = (Object.keys(merged) as (keyof LeakTestProcedure)[]).filter((key) => merged[key] !== before[key]);
+    if (changed.length) {
+      await recordAudit(trx, {
+        kind: "settings_changed",
+        actor,
+        subject: "Leak-test procedure",
+        summary: `${actor.name} changed the leak-test procedure: ${changed.map((key) => `${PROCEDURE_WORDS[key]} from ${before[key]} to ${merged[key]}`).join("; ")}.`,
+        details: Object.fromEntries(changed.map((key) => [key, [before[key], merged[key]]])),
+      });
+    }
     return merged;
   });
 }

@@ -5,6 +5,7 @@ import { hashSessionId } from "@/server/auth/lucia";
 import { hashPassword, verifyPassword } from "@/server/auth/password";
 import { beginSignIn } from "@/server/auth/rate-limit";
 import type { StaffUser } from "@/server/auth/session";
+import { recordAudit } from "@/server/audit/record";
 import { ApiError, notFound } from "@/server/http/errors";
 import { deviceName } from "./devices";
 import type { passwordChangeSchema } from "./schemas";
@@ -34,7 +35,16 @@ export async function changeOwnPassword(db: DB, user: StaffUser, sessionId: stri
   const signedOut = await db.transaction().execute(async (trx) => {
     await trx.updateTable("staff").set({ password_hash: passwordHash, must_change_password: 0 }).where("id", "=", user.id).execute();
     const others = await trx.deleteFrom("session").where("staff_id", "=", user.id).where("id", "!=", hashSessionId(sessionId)).executeTakeFirst();
-    return Number(others.numDeletedRows);
+    const count = Number(others.numDeletedRows);
+    await recordAudit(trx, {
+      kind: "password_changed",
+      actor: user,
+      address,
+      subject: user.name,
+      summary: `${user.name} changed their own password${count ? `; ${count === 1 ? "1 other signed-in device was" : `${count} other signed-in devices were`} signed out` : ""}.`,
+      details: { staffId: user.id, otherDevicesSignedOut: count },
+    });
+    return count;
   });
   return { otherDevicesSignedOut: signedOut };
 }
@@ -64,6 +74,13 @@ export async function resetStaffPassword(db: DB, owner: StaffUser, staffId: stri
   await db.transaction().execute(async (trx) => {
     await trx.updateTable("staff").set({ password_hash: passwordHash, must_change_password: 1 }).where("id", "=", staffId).execute();
     await trx.deleteFrom("session").where("staff_id", "=", staffId).execute();
+    await recordAudit(trx, {
+      kind: "password_reset",
+      actor: owner,
+      subject: person.name,
+      summary: `${owner.name} reset ${person.name}'s password to a temporary one; their signed-in devices were signed out.`,
+      details: { staffId },
+    });
   });
   return { name: person.name, temporaryPassword: password };
 }

@@ -6,6 +6,7 @@ import type { StaffUser } from "@/server/auth/session";
 import { queueLinkMessage } from "@/server/email/outbox";
 import { recipientsFor } from "@/server/email/recipients";
 import { notifySettings } from "@/server/email/settings";
+import { recordAudit } from "@/server/audit/record";
 import { ApiError } from "@/server/http/errors";
 import { deliveredAt } from "./queries";
 import { linkExpiresAt, linkState } from "./rules";
@@ -67,7 +68,7 @@ async function insertLink(trx: Trx, jobId: number, issuedBy: string | null, at: 
 export async function issueStatusLink(db: DB, actor: StaffUser, jobId: number, options: { emailContacts?: boolean } = {}) {
   const at = new Date().toISOString();
   const link = await db.transaction().execute(async (trx) => {
-    const job = await trx.selectFrom("job").select("id").where("id", "=", jobId).executeTakeFirst();
+    const job = await trx.selectFrom("job").select(["id", "work_order"]).where("id", "=", jobId).executeTakeFirst();
     if (!job) throw new ApiError("not_found", "That job was not found.");
     // Checked before anything changes: a refused request leaves the old link working.
     let recipients: string[] = [];
@@ -77,9 +78,18 @@ export async function issueStatusLink(db: DB, actor: StaffUser, jobId: number, o
       if (to.length === 0) throw new ApiError("conflict", "Nobody on this job gets e-mail updates: choose a contact with an e-mail address, or issue the link without e-mailing it.");
       recipients = to;
     }
-    await trx.updateTable("status_link").set({ revoked_at: at, revoked_by: actor.id }).where("job_id", "=", jobId).where("revoked_at", "is", null).execute();
+    const replaced = await trx.updateTable("status_link").set({ revoked_at: at, revoked_by: actor.id }).where("job_id", "=", jobId).where("revoked_at", "is", null).executeTakeFirst();
     const issued = await insertLink(trx, jobId, actor.id, at);
     const outboxId = options.emailContacts ? await queueLinkMessage(trx, { jobId, linkId: issued.id, requestedBy: actor.id, at }) : null;
+    const turnedOff = Number(replaced.numUpdatedRows);
+    await recordAudit(trx, {
+      kind: "status_link_issued",
+      actor,
+      at,
+      subject: `work order ${job.work_order}`,
+      summary: `${actor.name} issued a new status link for work order ${job.work_order}${turnedOff ? `, turning off the ${turnedOff === 1 ? "one" : turnedOff} before it` : ""}${options.emailContacts ? `, e-mailed to ${recipients.length === 1 ? "1 contact" : `${recipients.length} contacts`}` : ""}.`,
+      details: { jobId, linkId: issued.id, turnedOff, emailedTo: recipients.length },
+    });
     return { ...issued, outboxId, recipients };
   });
   return { id: link.id, url: statusUrl(link.token), createdAt: at, emailedTo: link.recipients, outboxId: link.outboxId };
@@ -87,10 +97,14 @@ export async function issueStatusLink(db: DB, actor: StaffUser, jobId: number, o
 
 export async function revokeStatusLink(db: DB, actor: StaffUser, linkId: number) {
   const at = new Date().toISOString();
-  const link = await db.selectFrom("status_link").select(["id", "job_id", "revoked_at"]).where("id", "=", linkId).executeTakeFirst();
+  const link = await db.selectFrom("status_link").innerJoin("job", "job.id", "status_link.job_id").select(["status_link.id", "status_link.job_id", "status_link.revoked_at", "job.work_order"]).where("status_link.id", "=", linkId).executeTakeFirst();
   if (!link) throw new ApiError("not_found", "That status link was not found.");
   if (!link.revoked_at) {
-    await db.updateTable("status_link").set({ revoked_at: at, revoked_by: actor.id }).where("id", "=", linkId).where("revoked_at", "is", null).execute();
+    await db.transaction().execute(async (trx) => {
+      const off = await trx.updateTable("status_link").set({ revoked_at: at, revoked_by: actor.id }).where("id", "=", linkId).where("revoked_at", "is", null).executeTakeFirst();
+      if (Number(off.numUpdatedRows) !== 1) return;
+      await recordAudit(trx, { kind: "status_link_turned_off", actor, at, subject: `work order ${link.work_order}`, summary: `${actor.name} turned off the status link for work order ${link.work_order}.`, details: { jobId: link.job_id, linkId } });
+    });
   }
   return { id: link.id, jobId: link.job_id, revokedAt: link.revoked_at ?? at };
 }

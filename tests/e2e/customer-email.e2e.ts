@@ -58,7 +58,8 @@ describe.skipIf(!enabled)("customer e-mail and the status page follow the job's 
     const created = await office.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: pick.customerId, truckId: pick.truckId, scope: "fabrication", description } });
     expect(created.status()).toBe(201);
     const job = (await created.json()).job as { id: number; version: number; workOrder: string };
-    const part = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, { headers: { origin: baseUrl() },
+    const part = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, {
+      headers: { origin: baseUrl() },
       data: { name: "35 gal stainless tank", kind: "reservoir", material: "stainless", shape: "round", geometry: { shape: "round", insideDiameterIn: 18, lengthIn: 32 }, needsLeakTest: true, needsCoating: false },
     });
     expect(part.status(), await part.text()).toBe(201);

@@ -66,6 +66,7 @@ export const ACCESS_MATRIX: Row[] = [
   staffPage("PAGE /jobs/[id]"),
   officePage("PAGE /jobs/new"),
   ownerPage("PAGE /staff"),
+  ownerPage("PAGE /audit"),
   staffPage("PAGE /account"),
   ownerPage("PAGE /settings"),
   staffPage("PAGE /trucks"),
@@ -143,6 +144,7 @@ export const ACCESS_MATRIX: Row[] = [
 
   // Staff and shop settings: the owner.
   ownerOnly("GET /api/staff"),
+  ownerOnly("GET /api/audit"),
   ownerOnly("POST /api/staff"),
   ownerOnly("PATCH /api/staff/[id]"),
   ownerOnly("POST /api/staff/[id]/password-reset"),

@@ -166,7 +166,7 @@ describe("backup and restore drill", () => {
     const closed = join(root, "closed.db");
     new SQLite(closed).close();
     expect(databaseInUse(closed)).toBe(false);
-  });
+  }, 30_000);
 
   it("refuses a folder that is not a backup, and one whose photos were changed", async () => {
     const empty = join(root, "not-a-backup");

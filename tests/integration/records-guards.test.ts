@@ -192,7 +192,7 @@ describe("install-only jobs have no fabricated parts", () => {
       expect(res.status, String(body.name)).toBe(400);
       const error = (await readBody(res)).error;
       expect(Object.keys(error.details.fields).sort()).toEqual(names);
-      for (const name of names) expect(error.details.fields[name][0]).toMatch(/install only: it has no fabricated parts.*Change the job's scope first/);
+      for (const name of names) expect(error.details.fields[name][0]).toMatch(/install only: it has no fabricated parts.*Change the job's Work to fabricated parts first/);
     }
     expect(await db().selectFrom("part").select("id").where("job_id", "=", job.id).execute()).toEqual([]);
 

@@ -175,6 +175,9 @@ describe("the procedure's minimums are shop settings the owner changes", () => {
     const ok = await procedure.PATCH(request("/api/shop-settings/leak-test-procedure", { method: "PATCH", cookie: owner.cookie, body: { minHoldMinutes: 30 } }));
     expect(ok.status).toBe(200);
     expect((await readBody(ok)).procedure.minHoldMinutes).toBe(30);
+    // The owner sees the change on the audit trail, with the figure before and after.
+    const audit = await db().selectFrom("audit_event").select(["kind", "subject", "summary", "actor_id"]).where("subject", "=", "Leak-test procedure").execute();
+    expect(audit).toEqual([{ kind: "settings_changed", subject: "Leak-test procedure", summary: `${owner.staff.name} changed the leak-test procedure: shortest hold (min) from 15 to 30.`, actor_id: owner.staff.id }]);
 
     // A 20-minute hold passed by the book, but not by this shop's 30 minutes.
     const job = await makeJob(db(), { stage: "pressure_test" });

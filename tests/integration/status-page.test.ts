@@ -245,6 +245,28 @@ describe("the status page", () => {
     }
   });
 
+  it("lists only the steps on the job's own route, names the job in its heading, and shows a new route once a part is added", async () => {
+    const job = await makeJob(db(), { stage: "fabricate", parts: false });
+    await db().updateTable("job").set({ description: "Wet kit: 35 gal stainless tank, PTO pump" }).where("id", "=", job.id).execute();
+    const now = new Date().toISOString();
+    const addPart = (name: string, leak: number, coat: number) =>
+      db().insertInto("part").values({ job_id: job.id, name, kind: leak ? "reservoir" : "bracket", material: "stainless", needs_leak_test: leak, needs_coating: coat, created_at: now, updated_at: now } as never).execute();
+    await addPart("35 gal stainless tank", 1, 0);
+    const { token } = await issuedToken(job.id);
+    const steps = (html: string) => [...html.matchAll(/<p class="[^"]*">([^<]+) <span class="text-sm font-normal text-ink-soft">· /g)].map((m) => m[1]);
+
+    const stainless = await pageHtml(token);
+    expect(stainless).toContain(job.work_order);
+    expect(stainless).toContain("Wet kit: 35 gal stainless tank, PTO pump");
+    expect(steps(stainless)).toEqual(["Booked in", "Fabrication", "Pressure test", "Install", "Wiring and run test", "Ready for pickup", "Picked up"]);
+    expect(stainless).toContain("Next, the fabricated parts are pressure-tested for leaks.");
+    expect(stainless).not.toMatch(/powder coat|coater/i);
+
+    // The office adds a bracket that goes out for powder coat: the route grows from then on.
+    await addPart("Pump mount bracket", 0, 1);
+    expect(steps(await pageHtml(token))).toEqual(["Booked in", "Fabrication", "Pressure test", "Powder coat", "Install", "Wiring and run test", "Ready for pickup", "Picked up"]);
+  });
+
   it("the browser tab names the unit and the shop, not the software", async () => {
     const job = await makeJob(db());
     const unit = (await db().selectFrom("truck").innerJoin("job", "job.truck_id", "truck.id").select("truck.unit_number").where("job.id", "=", job.id).executeTakeFirstOrThrow()).unit_number;

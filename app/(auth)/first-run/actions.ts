@@ -4,6 +4,7 @@ import { cookies, headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { getDb } from "@/db";
 import { lucia } from "@/server/auth/lucia";
+import { clientAddress } from "@/server/auth/rate-limit";
 import { ApiError, fieldErrors } from "@/server/http/errors";
 import { CROSS_SITE_MESSAGE, writeOrigin } from "@/server/http/origin";
 import { createFirstOwner } from "@/server/staff/mutations";
@@ -24,7 +25,7 @@ export async function createOwnerAction(_prev: FirstRunState, formData: FormData
   if (!parsed.success) return { message: "Check the fields marked below.", fields: fieldErrors(parsed.error), values };
   let id: string;
   try {
-    id = await createFirstOwner(getDb(), parsed.data);
+    id = await createFirstOwner(getDb(), parsed.data, clientAddress(new Request("http://first-run.local/", { headers: await headers() })));
   } catch (err) {
     if (err instanceof ApiError) return { message: err.message, values };
     throw err;

@@ -43,7 +43,7 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
     },
   );
 
-  if (vendors.length === 0) return <p className="text-ink-soft">Add a coater to the vendors list first.</p>;
+  if (vendors.length === 0) return <p className="text-ink-soft">Add a coater first (Coaters, on this page).</p>;
 
   const partError = (partId: number) => {
     const index = chosen.indexOf(partId);

@@ -4,6 +4,7 @@ import { DEVICE_COOKIE, deviceCookieHeader, deviceCookieValue } from "@/server/a
 import { clientAddress } from "@/server/auth/rate-limit";
 import { readCookie, sessionFromRequest } from "@/server/auth/session";
 import { signIn } from "@/server/auth/sign-in";
+import { auditSignInRefused, auditSignedIn } from "@/server/audit/sign-in";
 import { json, readJson, respond, assertSameOrigin } from "@/server/http/respond";
 import { signInSchema } from "@/server/staff/schemas";
 
@@ -11,7 +12,13 @@ export async function POST(req: Request) {
   return respond(async () => {
     const input = await readJson(req, signInSchema);
     const device = readCookie(req.headers.get("cookie"), DEVICE_COOKIE);
-    const { session, user } = await signIn(getDb(), input.email, input.password, clientAddress(req), device, req.headers.get("user-agent") ?? "");
+    const address = clientAddress(req);
+    const db = getDb();
+    const { session, user } = await signIn(db, input.email, input.password, address, device, req.headers.get("user-agent") ?? "").catch(async (err: unknown) => {
+      await auditSignInRefused(db, err, input.email, address);
+      throw err;
+    });
+    await auditSignedIn(db, user, address);
     const cookie = lucia.createSessionCookie(session.id);
     const headers = new Headers();
     headers.append("Set-Cookie", cookie.serialize());

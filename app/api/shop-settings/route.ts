@@ -20,9 +20,9 @@ export async function GET(req: Request) {
 /** The owner sets the shop's allowed leak-test drop; tests already recorded keep the allowance they were decided on. */
 export async function PATCH(req: Request) {
   return respond(async () => {
-    await requireStaff(req, ["owner"]);
+    const owner = await requireStaff(req, ["owner"]);
     const patch = await readJson(req, recordsSettingsPatchSchema);
-    await updateLeakAllowance(getDb(), patch.leakAllowedDropPsi);
+    await updateLeakAllowance(getDb(), owner, patch.leakAllowedDropPsi);
     return json(await settings());
   });
 }

@@ -14,8 +14,8 @@ export async function GET(req: Request) {
 
 export async function POST(req: Request) {
   return respond(async () => {
-    await requireStaff(req, ["owner"]);
+    const owner = await requireStaff(req, ["owner"]);
     const input = await readJson(req, newStaffSchema);
-    return json({ staff: await createStaff(getDb(), input) }, { status: 201 });
+    return json({ staff: await createStaff(getDb(), owner, input) }, { status: 201 });
   });
 }

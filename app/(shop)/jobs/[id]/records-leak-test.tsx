@@ -331,24 +331,28 @@ function LeakTestRound({
       </fieldset>
 
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Test pressure (psig)" name="testPressurePsig" errors={form.fields.testPressurePsig} hint={hintOr("testPressurePsig", bandHint(part.shape, procedure))}>
+        <Field label="Test pressure (psig)" name="testPressurePsig" errors={form.fields.testPressurePsig} hintTone={flagFor("testPressurePsig") ? "warn" : undefined}
+          hint={hintOr("testPressurePsig", bandHint(part.shape, procedure))}>
           {(p) => numberInput(p, { value: testPressure, onChange: (e: React.ChangeEvent<HTMLInputElement>) => setTestPressure(e.target.value) })}
         </Field>
         <Field
           label="Hold (minutes)"
           name="holdMinutes"
           errors={form.fields.holdMinutes}
+          hintTone={flagFor("holdMinutes") ? "warn" : undefined}
           hint={hintOr("holdMinutes", `At least ${fmt(procedure.minHoldMinutes)} min before examining (${holdSource(procedure)}).`)}
         >
           {(p) => numberInput(p, { value: hold, onChange: (e: React.ChangeEvent<HTMLInputElement>) => setHold(e.target.value) })}
         </Field>
-        <Field label="Gauge full scale (psi)" name="gaugeFullScalePsi" errors={form.fields.gaugeFullScalePsi} hint={hintOr("gaugeFullScalePsi", gaugeHint)}>
+        <Field label="Gauge full scale (psi)" name="gaugeFullScalePsi" errors={form.fields.gaugeFullScalePsi} hintTone={flagFor("gaugeFullScalePsi") ? "warn" : undefined}
+          hint={hintOr("gaugeFullScalePsi", gaugeHint)}>
           {(p) => numberInput(p, { value: gaugeScale, onChange: (e: React.ChangeEvent<HTMLInputElement>) => setGaugeScale(e.target.value) })}
         </Field>
         <Field
           label="Gauge last calibrated"
           name="gaugeCalibratedOn"
           errors={form.fields.gaugeCalibratedOn}
+          hintTone={flagFor("gaugeCalibratedOn") ? "warn" : undefined}
           hint={hintOr("gaugeCalibratedOn", "The date on the gauge's calibration tag.")}
         >
           {(p) => <input {...p} type="date" max={today} value={calibratedOn} onChange={(e) => setCalibratedOn(e.target.value)} className={inputClass} />}

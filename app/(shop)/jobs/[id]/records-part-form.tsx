@@ -152,7 +152,7 @@ export function PartForm({
       )}
       <div className="space-y-2">
         {installOnly && (
-          <p className="text-sm text-ink-soft">This job is install only: its parts get no leak test and no outside coating. Change the job&apos;s scope first if the shop builds parts for it.</p>
+          <p className="text-sm text-ink-soft">This job is install only: its parts get no leak test and no outside coating. Change the job&apos;s Work to fabricated parts first if the shop builds parts for it.</p>
         )}
         <label className="flex min-h-11 items-center gap-3">
           <input

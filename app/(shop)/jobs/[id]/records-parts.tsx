@@ -156,7 +156,7 @@ export function RecordsParts({
   return (
     <div className="space-y-3">
       {job.scope === "install_only" && parts.length === 0 && (
-        <p className="text-ink-soft">An install-only job has no fabricated parts: nothing here is leak-tested or sent out for coating. Change the job&apos;s scope first if the shop builds parts for it.</p>
+        <p className="text-ink-soft">An install-only job has no fabricated parts: nothing here is leak-tested or sent out for coating. Change the job&apos;s Work to fabricated parts first if the shop builds parts for it.</p>
       )}
       {job.scope === "fabrication" && parts.length === 0 && (
         <p className="text-ink-soft">No parts yet. Add each tank, box and bracket the shop builds for this job: what the job needs before it can move to Outside coating and Install is read from them.</p>

@@ -18,8 +18,8 @@ export async function GET(req: Request) {
 /** Only the owner changes the procedure; tests already recorded keep the decision they were saved with. */
 export async function PATCH(req: Request) {
   return respond(async () => {
-    await requireStaff(req, ["owner"]);
+    const owner = await requireStaff(req, ["owner"]);
     const patch = await readJson(req, leakTestProcedurePatchSchema);
-    return json({ procedure: await updateLeakTestProcedure(getDb(), patch), published: PUBLISHED_PROCEDURE });
+    return json({ procedure: await updateLeakTestProcedure(getDb(), owner, patch), published: PUBLISHED_PROCEDURE });
   });
 }

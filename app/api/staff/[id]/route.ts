@@ -9,6 +9,6 @@ export async function PATCH(req: Request, ctx: { params: Promise<{ id: string }>
     const owner = await requireStaff(req, ["owner"]);
     const { id } = await ctx.params;
     const patch = await readJson(req, staffPatchSchema);
-    return json({ staff: await updateStaff(getDb(), owner.id, id, patch) });
+    return json({ staff: await updateStaff(getDb(), owner, id, patch) });
   });
 }

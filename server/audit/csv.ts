@@ -1,0 +1,16 @@
+/**
+ * CSV for spreadsheets. A cell that starts with = + - @ or a tab or carriage return would run as
+ * a formula when the file is opened (CSV injection, OWASP's "CSV Injection" page), and a staff
+ * name, a typed e-mail or an override reason is text anyone could have chosen: such cells get a
+ * leading apostrophe, which spreadsheets show as text.
+ */
+export function csvCell(value: string | number | null | undefined): string {
+  let text = value === null || value === undefined ? "" : String(value);
+  if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`;
+  // RFC 4180: quote a field holding a comma, quote or line break, doubling its quotes.
+  return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
+}
+
+export function toCsv(header: string[], rows: (string | number | null | undefined)[][]): string {
+  return [header, ...rows].map((row) => row.map(csvCell).join(",")).join("\r\n") + "\r\n";
+}
