@@ -9,7 +9,7 @@ import { withCheckDigit } from "@/server/vehicles/vin";
  * A generated shop for measurements: thousands of jobs, most long delivered, a busy board.
  * Written straight through better-sqlite3 in one transaction so it takes seconds, not minutes.
  */
-export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number; onBoard: number; password: string }) {
+export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number; onBoard: number; password: string; history?: boolean }) {
   const hash = await hashPassword(opts.password);
   const now = new Date();
   const iso = now.toISOString();
@@ -35,6 +35,37 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
         trucks.push({ id: Number(insTruck.run(customerId, `B-${n}`, vin, iso).lastInsertRowid), customer: customerId });
       }
     }
+    // The records a job leaves behind (with `history`): a tested reservoir and a bracket, one leak
+    // test, two photos (one the customer sees), and the e-mails of its last two steps.
+    const insPart = sqlite.prepare(
+      "insert into part (job_id, name, kind, material, shape, needs_leak_test, needs_coating, created_at, updated_at) values (?, ?, ?, 'aluminum', ?, ?, 0, ?, ?)",
+    );
+    const insTest = sqlite.prepare(
+      `insert into leak_test (part_id, rework_count, method, part_shape, test_pressure_psig, gauge_full_scale_psi, gauge_calibrated_on, hold_minutes, start_pressure_psig, end_pressure_psig,
+        start_temp_f, end_temp_f, barometric_psia, tester, raw_drop_psi, corrected_drop_psi, allowed_drop_psi, result, recorded_by, tested_at)
+       values (?, 0, 'decay', 'round', 5, 15, '2026-01-05', 15, 5.0, 4.99, 70, 70, 14.7, 'Bench Person 2', 0.01, 0.01, 0.05, 'pass', ?, ?)`,
+    );
+    const insPhoto = sqlite.prepare(
+      "insert into photo (job_id, stage, caption, customer_visible, uploaded_by, upload_key, original_name, original_type, original_bytes, width, height, created_at, updated_at) values (?, ?, ?, ?, ?, ?, 'IMG.jpg', 'image/jpeg', 2400000, 1600, 1200, ?, ?)",
+    );
+    const insOutbox = sqlite.prepare("insert into outbox (id, job_id, kind, payload, status, attempts, next_attempt_at, created_at, sent_at) values (?, ?, 'stage_changed', ?, 'sent', 1, ?, ?, ?)");
+    const insEmail = sqlite.prepare(
+      "insert into email_message (outbox_id, job_id, from_address, to_addresses, subject, html, text, created_at) values (?, ?, 'shop@bench.example', '[\"fleet@customer.example\"]', ?, ?, ?, ?)",
+    );
+    const history = (jobId: number, scope: string, steps: string[], tech: string) => {
+      if (scope === "fabrication") {
+        const tank = Number(insPart.run(jobId, "Hydraulic reservoir", "reservoir", "round", 1, iso, iso).lastInsertRowid);
+        insPart.run(jobId, "Pump bracket", "bracket", "other", 0, iso, iso);
+        if (steps.includes("coating") || steps.includes("install")) insTest.run(tank, tech, iso);
+      }
+      insPhoto.run(jobId, steps.at(-1), "Kit mounted", 1, tech, `bench-${jobId}-a`, iso, iso);
+      insPhoto.run(jobId, steps.at(-1), "Frame rail detail", 0, tech, `bench-${jobId}-b`, iso, iso);
+      for (const [from, to] of steps.slice(1).map((s, i) => [steps[i], s]).slice(-2)) {
+        const id = randomUUID();
+        insOutbox.run(id, jobId, JSON.stringify({ from, to }), iso, iso, iso);
+        insEmail.run(id, jobId, `Your truck is at ${to}`, `<p>Your truck moved to ${to}.</p>`, `Your truck moved to ${to}.`, iso);
+      }
+    };
     const positions = new Map<string, number>();
     for (let j = 0; j < opts.jobs; j++) {
       const truck = trucks[j % trucks.length];
@@ -50,6 +81,7 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
       );
       const steps = route.slice(0, route.indexOf(stage) + 1);
       steps.forEach((s, i) => insEvent.run(jobId, i === 0 ? null : steps[i - 1], s, techs[j % techs.length], iso));
+      if (opts.history) history(jobId, scope, steps, techs[j % techs.length]);
     }
     sqlite.prepare("update shop set next_work_order = ?").run(opts.jobs + 1);
   });

@@ -1,19 +1,26 @@
 import { type ChildProcess, spawn, spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { createHash } from "node:crypto";
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { gzipSync } from "node:zlib";
 import autocannon from "autocannon";
 import { createDb, openSqlite } from "@/db";
-import { migrateToLatest } from "@/migrations";
+import { migrateToLatest, migrations } from "@/migrations";
+import { demoKitCalcInput } from "@/server/kit-calc/demo";
 import { generateShop } from "./bench-shop";
 import { benchStatusAndPhotos } from "./bench-status";
 
 const JOBS = 5000;
 const ON_BOARD = 600;
 const CONNECTIONS = 16;
-const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
+/** BENCH_QUICK=1: the same runs, shorter, for a look in about a minute (the 100,000-job shop is kept between runs). */
+const QUICK = process.env.BENCH_QUICK === "1";
+const SECONDS = Number(process.env.BENCH_SECONDS ?? (QUICK ? 3 : 10));
+const BIG_JOBS = 100_000;
+const MIXED_CLIENTS = 50;
+const MIXED_SECONDS = Number(process.env.BENCH_MIXED_SECONDS ?? (QUICK ? 8 : 30));
 const PASSWORD = "bench-password-2026";
 
 async function freePort(): Promise<number> {
@@ -32,11 +39,11 @@ function percentile(sorted: number[], p: number) {
 }
 
 /** Latency of one GET under 16 concurrent connections, each response timed by autocannon. */
-async function measureGet(url: string, cookie: string) {
+async function measureGet(url: string, cookie: string, seconds = SECONDS) {
   const times: number[] = [];
   let bad = 0;
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const instance = autocannon({ url, connections: CONNECTIONS, duration: SECONDS, headers: { cookie } }, (err, res) => (err ? reject(err) : resolve(res)));
+    const instance = autocannon({ url, connections: CONNECTIONS, duration: seconds, headers: { cookie } }, (err, res) => (err ? reject(err) : resolve(res)));
     instance.on("response", (_client, status, _bytes, ms) => {
       if (status !== 200) bad++;
       times.push(ms);
@@ -99,6 +106,120 @@ async function boardFirstLoadJs(base: string, cookie: string) {
   return { scripts: srcs.length, rawKb: raw / 1024, gzipKb: gz / 1024 };
 }
 
+/**
+ * A shop's day at once: `clients` people each doing one thing after another for `seconds`:
+ * looking at the board, opening a job page, moving a card, working the calculator (no moves in the
+ * read-only run). Every request is timed from send to its last byte.
+ */
+async function mixedLoad(base: string, cookie: string, opts: { clients: number; seconds: number; moves: boolean; jobIds: number[]; movers: { id: number; version: number; stage: string }[] }) {
+  const times: number[] = [];
+  let errors = 0;
+  let non2xx = 0;
+  const until = Date.now() + opts.seconds * 1000;
+  const started = Date.now();
+  const calcBody = JSON.stringify(demoKitCalcInput);
+  const headers = { cookie, "content-type": "application/json", origin: base };
+  const client = async (c: number) => {
+    const mine = opts.movers.filter((_, i) => i % opts.clients === c);
+    let n = c;
+    while (Date.now() < until) {
+      n++;
+      const roll = (n * 37 + c * 11) % 100;
+      const t0 = performance.now();
+      try {
+        let res: Response;
+        if (roll < 40) res = await fetch(`${base}/api/board`, { headers: { cookie } });
+        else if (roll < 65) res = await fetch(`${base}/jobs/${opts.jobIds[n % opts.jobIds.length]}`, { headers: { cookie } });
+        else if (roll < 85 && opts.moves && mine.length) {
+          const card = mine[n % mine.length];
+          res = await fetch(`${base}/api/jobs/${card.id}/moves`, { method: "POST", headers, body: JSON.stringify({ toStage: card.stage === "queued" ? "fabricate" : "queued", version: card.version }) });
+          if (res.ok) {
+            const body = (await res.json()) as { job: { version: number; stage: string } };
+            card.version = body.job.version;
+            card.stage = body.job.stage;
+          }
+        } else res = await fetch(`${base}/api/kit-calc`, { method: "POST", headers, body: calcBody });
+        if (!res.bodyUsed) await res.arrayBuffer();
+        if (res.status < 200 || res.status > 299) non2xx++;
+      } catch {
+        errors++;
+      }
+      times.push(performance.now() - t0);
+    }
+  };
+  await Promise.all(Array.from({ length: opts.clients }, (_, c) => client(c)));
+  const elapsed = (Date.now() - started) / 1000;
+  times.sort((a, b) => a - b);
+  return { clients: opts.clients, seconds: opts.seconds, rps: Math.round(times.length / elapsed), p50Ms: Math.round(percentile(times, 50)), p95Ms: Math.round(percentile(times, 95)), p99Ms: Math.round(percentile(times, 99)), errors, non2xx };
+}
+
+/** Starts `next start` on a database; answers its base URL, a signed-in owner's cookie and how to stop it. */
+async function startServer(dbPath: string, ownerEmail: string) {
+  const port = await freePort();
+  const base = `http://127.0.0.1:${port}`;
+  const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env: { ...process.env, DATABASE_PATH: dbPath, NODE_ENV: "production", APP_URL: base }, stdio: "ignore", detached: true });
+  const stop = () => {
+    try {
+      if (server.pid) process.kill(-server.pid, "SIGTERM");
+    } catch {
+      // already gone
+    }
+  };
+  process.on("exit", stop);
+  for (let i = 0; i < 400; i++) {
+    try {
+      if ((await fetch(`${base}/api/health`)).ok) break;
+    } catch {
+      // not up yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  const signIn = await fetch(`${base}/api/session`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ email: ownerEmail, password: PASSWORD }) });
+  if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
+  const cookie = (signIn.headers.get("set-cookie") ?? "").split(";")[0];
+  return { base, cookie, stop };
+}
+
+/**
+ * A migrated shop of `jobs` jobs with their history. The 100,000-job one takes about a minute to
+ * write, so it is kept in bench/.shops (gitignored), named after the generator's source, the
+ * migrations and the size; a run copies it, so every run starts from the same shop.
+ */
+async function shopDatabase(dir: string, jobs: number) {
+  const key = createHash("sha256").update(readFileSync("scripts/bench-shop.ts")).update(Object.keys(migrations).join(",")).update(String(jobs)).digest("hex").slice(0, 12);
+  const shops = join("bench", ".shops");
+  const kept = join(shops, `shop-${jobs}-${key}.db`);
+  const dbPath = join(dir, `shop-${jobs}.db`);
+  let seedMs = 0;
+  if (!existsSync(kept)) {
+    rmSync(shops, { recursive: true, force: true });
+    mkdirSync(shops, { recursive: true });
+    const building = `${kept}.building`;
+    const db = createDb(building);
+    await migrateToLatest(db);
+    await db.destroy();
+    const sqlite = openSqlite(building);
+    const t0 = performance.now();
+    await generateShop(sqlite, { jobs, onBoard: ON_BOARD, password: PASSWORD, history: true });
+    seedMs = performance.now() - t0;
+    sqlite.pragma("wal_checkpoint(TRUNCATE)");
+    sqlite.close();
+    renameSync(building, kept);
+  }
+  copyFileSync(kept, dbPath);
+  return { dbPath, seedMs };
+}
+
+/** Cards the movers shuttle, and the job pages people open (on the board, and a few delivered). */
+function shopSample(dbPath: string) {
+  const sqlite = openSqlite(dbPath);
+  const movers = sqlite.prepare("select id, version, stage from job where stage in ('queued', 'fabricate') and scope = 'fabrication' limit 64").all() as { id: number; version: number; stage: string }[];
+  const jobIds = (sqlite.prepare("select id from job where stage in ('fabricate', 'pressure_test', 'coating', 'install', 'wire') order by id limit 40").all() as { id: number }[]).map((r) => r.id);
+  jobIds.push(...(sqlite.prepare("select id from job where stage = 'delivered' order by id desc limit 10").all() as { id: number }[]).map((r) => r.id));
+  sqlite.close();
+  return { movers, jobIds };
+}
+
 async function main() {
   if (!existsSync(".next/BUILD_ID")) {
     console.log("Building first…");
@@ -112,38 +233,17 @@ async function main() {
   await db.destroy();
   const sqlite = openSqlite(dbPath);
   const t0 = performance.now();
-  const { ownerEmail } = await generateShop(sqlite, { jobs: JOBS, onBoard: ON_BOARD, password: PASSWORD });
+  const { ownerEmail } = await generateShop(sqlite, { jobs: JOBS, onBoard: ON_BOARD, password: PASSWORD, history: true });
   const seedMs = performance.now() - t0;
-  const movers = sqlite.prepare("select id, version, stage from job where stage in ('queued', 'fabricate') and scope = 'fabrication' limit 64").all() as { id: number; version: number; stage: string }[];
   sqlite.close();
+  const { movers, jobIds } = shopSample(dbPath);
 
   const cold = spawnSync("npx", ["tsx", "--conditions=react-server", "scripts/bench-board-cold.ts", dbPath, "40"], { encoding: "utf8" });
   if (cold.status !== 0) throw new Error(`cold board timing failed: ${cold.stderr}`);
   const boardCold = JSON.parse(cold.stdout.trim().split("\n").at(-1)!) as { p50Ms: number; p95Ms: number; bytes: number };
 
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env: { ...process.env, DATABASE_PATH: dbPath, NODE_ENV: "production", APP_URL: base }, stdio: "ignore", detached: true });
-  const stop = () => {
-    try {
-      if (server.pid) process.kill(-server.pid, "SIGTERM");
-    } catch {
-      // already gone
-    }
-  };
-  process.on("exit", stop);
+  const { base, cookie, stop } = await startServer(dbPath, ownerEmail);
   try {
-    for (let i = 0; i < 200; i++) {
-      try {
-        if ((await fetch(`${base}/api/health`)).ok) break;
-      } catch {
-        // not up yet
-      }
-      await new Promise((r) => setTimeout(r, 250));
-    }
-    const signIn = await fetch(`${base}/api/session`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ email: ownerEmail, password: PASSWORD }) });
-    if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
-    const cookie = (signIn.headers.get("set-cookie") ?? "").split(";")[0];
     const boardBody = await (await fetch(`${base}/api/board`, { headers: { cookie } })).json();
     if (boardBody.cards.length !== ON_BOARD) throw new Error(`board shows ${boardBody.cards.length} cards, expected ${ON_BOARD}`);
 
@@ -154,10 +254,53 @@ async function main() {
     const board = await measureGet(`${base}/api/board`, cookie);
     const moves = await measureMoves(base, cookie, movers);
     const js = await boardFirstLoadJs(base, cookie);
-    const statusAndPhotos = await benchStatusAndPhotos({ baseUrl: base, databasePath: dbPath });
+    const statusAndPhotos = await benchStatusAndPhotos({ baseUrl: base, databasePath: dbPath, requests: QUICK ? 120 : 300, photoRuns: QUICK ? 1 : 3 });
+    // Server pages, as a browser asks for them (HTML, rendered on the server).
+    const activeJob = jobIds[0];
+    await measureGetQuick(`${base}/jobs/${activeJob}`, cookie);
+    await measureGetQuick(`${base}/jobs`, cookie);
+    const jobPage = await measureGet(`${base}/jobs/${activeJob}`, cookie);
+    const jobsList = await measureGet(`${base}/jobs`, cookie);
+    const search = await measureGet(`${base}/jobs?q=Customer%2012`, cookie);
+    const readOnly = await mixedLoad(base, cookie, { clients: MIXED_CLIENTS, seconds: MIXED_SECONDS, moves: false, jobIds, movers: [] });
+    const mixed = await mixedLoad(base, cookie, { clients: MIXED_CLIENTS, seconds: MIXED_SECONDS, moves: true, jobIds, movers: shopSample(dbPath).movers });
+    stop();
 
+    // The same board, job page, Jobs list and search on a shop twenty times older.
+    const big = await shopDatabase(dir, BIG_JOBS);
+    const bigSample = shopSample(big.dbPath);
+    const bigServer = await startServer(big.dbPath, ownerEmail);
+    let board100k: { p50Ms: number; p95Ms: number; ratioTo5k: number };
+    let big100k: Record<string, { p95Ms: number; ratioTo5k: number }>;
+    try {
+      const bigSeconds = Math.max(3, Math.round(SECONDS / 2));
+      await measureGetQuick(`${bigServer.base}/api/board`, bigServer.cookie);
+      await measureGetQuick(`${bigServer.base}/jobs/${bigSample.jobIds[0]}`, bigServer.cookie);
+      await measureGetQuick(`${bigServer.base}/jobs`, bigServer.cookie);
+      const b = await measureGet(`${bigServer.base}/api/board`, bigServer.cookie, bigSeconds);
+      const jp = await measureGet(`${bigServer.base}/jobs/${bigSample.jobIds[0]}`, bigServer.cookie, bigSeconds);
+      const jl = await measureGet(`${bigServer.base}/jobs`, bigServer.cookie, bigSeconds);
+      const se = await measureGet(`${bigServer.base}/jobs?q=Customer%2012`, bigServer.cookie, bigSeconds);
+      const cold100k = spawnSync("npx", ["tsx", "--conditions=react-server", "scripts/bench-board-cold.ts", big.dbPath, "20"], { encoding: "utf8" });
+      const boardCold100k = cold100k.status === 0 ? (JSON.parse(cold100k.stdout.trim().split("\n").at(-1)!) as { p95Ms: number }) : null;
+      const ratio = (a: number, b: number) => Math.round((a / Math.max(b, 1)) * 100) / 100;
+      board100k = { p50Ms: Math.round(b.p50), p95Ms: Math.round(b.p95), ratioTo5k: ratio(b.p95, board.p95) };
+      big100k = {
+        jobPage: { p95Ms: Math.round(jp.p95), ratioTo5k: ratio(jp.p95, jobPage.p95) },
+        jobsList: { p95Ms: Math.round(jl.p95), ratioTo5k: ratio(jl.p95, jobsList.p95) },
+        search: { p95Ms: Math.round(se.p95), ratioTo5k: ratio(se.p95, search.p95) },
+        ...(boardCold100k ? { boardBuiltFromDatabase: { p95Ms: Math.round(boardCold100k.p95Ms * 10) / 10, ratioTo5k: ratio(boardCold100k.p95Ms, boardCold.p95Ms) } } : {}),
+      };
+    } finally {
+      bigServer.stop();
+    }
+
+    const previous = existsSync("bench/results.json") ? (JSON.parse(readFileSync("bench/results.json", "utf8")) as Record<string, unknown>) : {};
     const results = {
+      ...previous,
       at: new Date().toISOString(),
+      quick: QUICK,
+      loadAverageAtEnd: (await import("node:os")).loadavg().map((n) => Math.round(n * 10) / 10),
       machine: { cpus: (await import("node:os")).cpus().length, node: process.version },
       shop: { jobs: JOBS, onBoard: ON_BOARD, seedMs: Math.round(seedMs) },
       connections: CONNECTIONS,
@@ -169,6 +312,13 @@ async function main() {
       boardFirstLoadJs: { scripts: js.scripts, gzipKb: Math.round(js.gzipKb), rawKb: Math.round(js.rawKb) },
       statusPage: statusAndPhotos.statusPage,
       photo5MB: statusAndPhotos.photo5MB,
+      jobPage: { p50Ms: Math.round(jobPage.p50), p95Ms: Math.round(jobPage.p95), rps: Math.round(jobPage.rps) },
+      jobsList: { p50Ms: Math.round(jobsList.p50), p95Ms: Math.round(jobsList.p95), rps: Math.round(jobsList.rps) },
+      search: { p50Ms: Math.round(search.p50), p95Ms: Math.round(search.p95), rps: Math.round(search.rps) },
+      mixedLoad: mixed,
+      readOnlyLoad: readOnly,
+      board100k,
+      shop100k: { jobs: BIG_JOBS, seedMs: big.seedMs ? Math.round(big.seedMs) : "kept from an earlier run", ...big100k },
     };
     mkdirSync("bench", { recursive: true });
     writeFileSync("bench/results.json", `${JSON.stringify(results, null, 2)}\n`);
@@ -182,6 +332,9 @@ async function main() {
     console.log(`board page first-load JS: ${results.boardFirstLoadJs.gzipKb} kB gzipped in ${js.scripts} scripts (goal < 200 kB)`);
     if (statusAndPhotos.statusPage) console.log(`status page: p50 ${Math.round(statusAndPhotos.statusPage.p50Ms)} ms, p95 ${Math.round(statusAndPhotos.statusPage.p95Ms)} ms at ${statusAndPhotos.statusPage.concurrency} concurrent`);
     if (statusAndPhotos.photo5MB) console.log(`5 MB photo, upload check to thumbnail: median ${Math.round(statusAndPhotos.photo5MB.medianMs)} ms over ${statusAndPhotos.photo5MB.runsMs.length} runs`);
+    console.log(`job page p95 ${results.jobPage.p95Ms} ms, Jobs list p95 ${results.jobsList.p95Ms} ms, search p95 ${results.search.p95Ms} ms at ${CONNECTIONS} connections (goal < 100 ms)`);
+    console.log(`mixed load, ${mixed.clients} clients for ${mixed.seconds} s: ${mixed.rps} req/s, p50 ${mixed.p50Ms} ms, p95 ${mixed.p95Ms} ms, p99 ${mixed.p99Ms} ms, ${mixed.errors} errors, ${mixed.non2xx} not 2xx; read-only p95 ${readOnly.p95Ms} ms`);
+    console.log(`100,000 jobs: board p95 ${board100k.p95Ms} ms (${board100k.ratioTo5k}x the 5,000-job figure), ${Object.entries(big100k).map(([k, v]) => `${k} ${v.p95Ms} ms (${v.ratioTo5k}x)`).join(", ")}`);
     console.log("written to bench/results.json");
   } finally {
     stop();

@@ -8,6 +8,7 @@ import * as notify from "@/app/api/notify-settings/route";
 import * as partItem from "@/app/api/parts/[id]/route";
 import * as photoItem from "@/app/api/photos/[id]/route";
 import * as session from "@/app/api/session/route";
+import * as procedure from "@/app/api/shop-settings/leak-test-procedure/route";
 import * as shopSettings from "@/app/api/shop-settings/route";
 import * as passwordReset from "@/app/api/staff/[id]/password-reset/route";
 import * as staffItem from "@/app/api/staff/[id]/route";
@@ -165,6 +166,7 @@ describe("the audit trail records", () => {
 
     expect((await shopSettings.PATCH(request("/api/shop-settings", { cookie: ownerCookie, method: "PATCH", body: { leakAllowedDropPsi: 0.1 } }))).status).toBe(200);
     expect((await notify.PUT(request("/api/notify-settings", { cookie: ownerCookie, method: "PUT", body: { notifyStages: ["ready"], statusLinkDays: 30 } }))).status).toBe(200);
+    expect((await procedure.PATCH(request("/api/shop-settings/leak-test-procedure", { cookie: ownerCookie, method: "PATCH", body: { minHoldMinutes: 20 } }))).status).toBe(200);
 
     const wo = job.work_order;
     expect((await lines()).map((l) => [l.kind, l.actor_id, l.summary])).toEqual([
@@ -175,10 +177,12 @@ describe("the audit trail records", () => {
       ["photo_deleted", office.id, `${office.name} deleted the photo "Frame rail before drilling" from work order ${wo}.`],
       ["settings_changed", owner.id, `${owner.name} changed the allowed leak-test drop from 0.05 psi to 0.1 psi.`],
       ["settings_changed", owner.id, expect.stringMatching(new RegExp(`^${owner.name} changed customer e-mail settings: e-mail at stages .+ → ready; status links last 60 → 30 days after delivery\\.$`))],
+      ["settings_changed", owner.id, `${owner.name} changed the leak-test procedure: shortest hold (min) from 15 to 20.`],
     ]);
     // Saving the same settings again changes nothing, and says nothing.
     await shopSettings.PATCH(request("/api/shop-settings", { cookie: ownerCookie, method: "PATCH", body: { leakAllowedDropPsi: 0.1 } }));
-    expect(await lines("settings_changed")).toHaveLength(2);
+    await procedure.PATCH(request("/api/shop-settings/leak-test-procedure", { cookie: ownerCookie, method: "PATCH", body: { minHoldMinutes: 20 } }));
+    expect(await lines("settings_changed")).toHaveLength(3);
   });
 
   it("is written in the change's own transaction: when the line cannot be written, the change is not made either", async () => {

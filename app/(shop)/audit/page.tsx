@@ -32,7 +32,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         </a>
       </div>
       <p className="max-w-3xl text-ink-soft">
-        Sign-ins, staff and password changes, overrides, status links, deletions and setting changes: who did it, when ({timeZone} time) and from which address. Entries are never changed or removed.
+        Sign-ins, staff and password changes, overrides, status links, deletions and setting changes: who did it, when ({timeZone} time) and from which address (known when the app runs behind a proxy). Entries are never changed or removed.
       </p>
       <form className="grid gap-2 sm:grid-cols-2 lg:flex lg:flex-wrap lg:items-end" action="/audit">
         <label className="text-sm font-semibold">
@@ -105,10 +105,14 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
                 ) : (
                   <span className="hidden text-ink-soft lg:inline">—</span>
                 )}
-                <span className="break-all text-ink-soft">
-                  <span className="lg:hidden">From </span>
-                  {l.address || "—"}
-                </span>
+                {l.address ? (
+                  <span className="break-all text-ink-soft">
+                    <span className="lg:hidden">From </span>
+                    {l.address}
+                  </span>
+                ) : (
+                  <span className="hidden text-ink-soft lg:inline">—</span>
+                )}
                 <span className="break-words">{l.summary}</span>
               </li>
             ))}
