@@ -15,6 +15,16 @@ export const dynamic = "force-dynamic";
 export const metadata: Metadata = {
   title: { default: "Baywright", template: "%s · Baywright" },
   description: "Job tracking for truck upfit shops",
+  applicationName: "Baywright",
+  manifest: "/manifest.webmanifest",
+  icons: {
+    icon: [
+      { url: "/favicon.ico", sizes: "16x16 32x32 48x48" },
+      { url: "/icon.svg", type: "image/svg+xml" },
+    ],
+    apple: "/apple-touch-icon.png",
+  },
+  appleWebApp: { capable: true, title: "Baywright", statusBarStyle: "default" },
 };
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#0e5a54" };

@@ -2,11 +2,11 @@
 
 import { Field, inputClass } from "./form";
 
-/** The scope, due date, assignment and priority of a job: the same fields when opening and editing one. */
+/** The kind of work (`scope`), due date, assignment and priority of a job: the same fields when opening and editing one. */
 export function JobPlanFields({ fields, techs, initial }: { fields: Record<string, string[]>; techs: { id: string; name: string }[]; initial?: { scope: string; dueOn: string | null; assignedTechId: string | null; priority: string } }) {
   return (
     <>
-      <Field label="Scope" name="scope" errors={fields.scope}>
+      <Field label="Work" name="scope" errors={fields.scope}>
         {(p) => (
           <select {...p} defaultValue={initial?.scope ?? "fabrication"} className={inputClass}>
             <option value="fabrication">Fabricated parts: fabricate, pressure test, outside coating, install, wire</option>

@@ -35,7 +35,8 @@ export async function saveNotifySettings(db: DB, actor: StaffUser, input: Notify
   };
   await db.transaction().execute(async (trx) => {
     const before = await notifySettings(trx);
-    const quietBefore = await quietSeconds(trx);
+    // The shop's saved figure, not EMAIL_QUIET_SECONDS: the audit line is about what the owner changed.
+    const quietBefore = Math.round(before.quietMinutes * 60);
     await trx
       .insertInto("message_setting")
       .values({ id: 1, ...values })

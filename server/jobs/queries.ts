@@ -94,6 +94,16 @@ export async function listJobs(db: DB, filter: JobListFilter = {}) {
   return query.limit(filter.limit ?? 500).offset(filter.offset ?? 0).execute();
 }
 
+/** How far an empty shop has got: what to add before the first job. */
+export async function shopBeginnings(db: DB) {
+  const [customers, trucks, jobs] = await Promise.all(
+    (["customer", "truck", "job"] as const).map((table) =>
+      db.selectFrom(table).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow().then((r) => Number(r.n)),
+    ),
+  );
+  return { customers, trucks, jobs };
+}
+
 /** A job id from a route: 400 when it is not an id, 404 when no such job exists. */
 export async function existingJobId(db: DB, raw: string): Promise<number> {
   const id = parseId(raw, "Job");

@@ -20,8 +20,8 @@ export const BOARD_STAGES = STAGES.filter((s) => s !== "delivered");
 const FAB_ONLY: readonly Stage[] = ["fabricate", "pressure_test", "coating"];
 
 export const SCOPE_LABELS: Record<JobScope, string> = {
-  fabrication: "Fabricated parts (full route)",
-  install_only: "Install only (no fabrication)",
+  fabrication: "Fabricated parts",
+  install_only: "Install only",
 };
 
 /** A job whose scope has no fabricated parts skips fabricate, pressure test and coating. */

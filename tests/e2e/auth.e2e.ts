@@ -45,7 +45,9 @@ describe.skipIf(!enabled)("signing in and out in Chromium", () => {
     expect(page.url()).not.toMatch(/\/staff/);
     const api = await page.request.get(`${baseUrl()}/api/staff`);
     expect(api.status()).toBe(403);
-    await page.getByRole("button", { name: "Sign out" }).first().click();
+    // On a phone, sign-out sits in the menu with the pages.
+    await page.getByRole("button", { name: /^Menu/ }).click();
+    await page.getByRole("button", { name: "Sign out", exact: true }).click();
     await page.waitForURL(/\/sign-in/);
     const after = await page.request.get(`${baseUrl()}/api/me`);
     expect(after.status()).toBe(401);

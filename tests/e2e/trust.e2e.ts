@@ -130,6 +130,14 @@ describe.skipIf(!enabled)("the app under its Content-Security-Policy", () => {
     }
   });
 
+  it("a server action from another site is refused with 403, with or without a forged Origin", async () => {
+    const tries: Record<string, string>[] = [{ "sec-fetch-site": "cross-site" }, { origin: "https://elsewhere.example" }, { origin: "not a url" }, {}];
+    for (const headers of tries) {
+      const res = await fetch(`${baseUrl()}/first-run`, { method: "POST", headers: { ...headers, "next-action": "0".repeat(40), "content-type": "text/plain;charset=UTF-8" }, body: "[]" });
+      expect(res.status, JSON.stringify(headers)).toBe(403);
+    }
+  });
+
   it("a path with a broken %-escape answers 400, not 500", async () => {
     for (const path of ["/api/jobs/%", "/status/%", "/api/jobs/%E0%A4%A", "/jobs/%zz", "/api/customers/%/x"]) {
       const res = await fetch(`${baseUrl()}${path}`);

@@ -11,6 +11,7 @@ import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as jobLinks from "@/app/api/jobs/[id]/status-links/route";
 import * as resend from "@/app/api/messages/[id]/resend/route";
 import * as sendNowRoute from "@/app/api/messages/[id]/send-now/route";
+import * as notify from "@/app/api/notify-settings/route";
 import { closeDb, getDb } from "@/db";
 import type { Role, Stage } from "@/db/schema";
 import { type Fakes, startFakes } from "@/fakes/server.mjs";
@@ -181,6 +182,35 @@ describe("the quiet period after a move", () => {
       const dueB = Date.parse((await outbox(second.job.id))[0].next_attempt_at) - t1;
       expect(dueB).toBeGreaterThanOrEqual(600_000);
       expect(dueB).toBeLessThan(605_000);
+    } finally {
+      await db().deleteFrom("message_setting").execute();
+      process.env.EMAIL_QUIET_SECONDS = String(QUIET_S);
+    }
+  });
+});
+
+describe("the shop's quiet period setting", () => {
+  const put = (cookie: string, body: unknown) => notify.PUT(request("/api/notify-settings", { method: "PUT", cookie, body }));
+
+  it("the office saves it in whole minutes; a move then waits that long; a bad figure changes nothing", async () => {
+    delete process.env.EMAIL_QUIET_SECONDS;
+    try {
+      const office = await as("office");
+      const stages = ["fabricate", "pressure_test", "coating", "install", "wire", "ready", "delivered"];
+      const saved = await put(office.cookie, { notifyStages: stages, statusLinkDays: 60, quietMinutes: 5 });
+      expect(saved.status).toBe(200);
+      expect((await readBody(saved)).settings.quietMinutes).toBe(5);
+      const bad = await put(office.cookie, { notifyStages: stages, statusLinkDays: 60, quietMinutes: 61 });
+      expect(bad.status).toBe(400);
+      expect((await readBody(bad)).error.details.fields.quietMinutes[0]).toMatch(/60 minutes or fewer/);
+      expect((await put((await as("tech")).cookie, { notifyStages: stages, statusLinkDays: 60, quietMinutes: 0 })).status).toBe(403);
+
+      const { job } = await customerJob();
+      const t0 = Date.now();
+      await move((await as("tech")).cookie, job.id, "fabricate");
+      const due = Date.parse((await outbox(job.id))[0].next_attempt_at) - t0;
+      expect(due).toBeGreaterThanOrEqual(300_000);
+      expect(due).toBeLessThan(305_000);
     } finally {
       await db().deleteFrom("message_setting").execute();
       process.env.EMAIL_QUIET_SECONDS = String(QUIET_S);

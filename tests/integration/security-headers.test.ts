@@ -61,6 +61,15 @@ describe("headers on every page and route", () => {
     expect(hosted["connect-src"]).toContain("https://*.ingest.uploadthing.com");
   });
 
+  it("every signed-in page sends a visitor without a session cookie to sign in (add its area to SIGNED_IN_AREAS in proxy.ts)", () => {
+    const shopPages = appEntries().filter((e) => e.kind === "page" && e.file.includes("(shop)"));
+    expect(shopPages.length).toBeGreaterThan(5);
+    for (const page of shopPages) {
+      const res = proxy(new NextRequest(`http://localhost:3000${page.path.replace(/\[(?:\.\.\.)?\w+\]/g, "1")}`));
+      expect([page.path, res.status, res.headers.get("location")]).toEqual([page.path, 307, "http://localhost:3000/sign-in"]);
+    }
+  });
+
   it("the redirect to sign-in carries them too, and Next does not announce itself", () => {
     const res = proxy(new NextRequest("http://localhost:3000/board"));
     expect(res.status).toBe(307);

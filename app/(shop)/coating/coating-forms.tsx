@@ -251,7 +251,7 @@ export function InspectionForm({ runId }: { runId: number }) {
   );
 }
 
-/** Adds a coater to the vendors list. */
+/** Adds a coater to the shop's list. */
 export function VendorForm() {
   const router = useRouter();
   const [added, setAdded] = useState<string | null>(null);

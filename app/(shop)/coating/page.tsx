@@ -156,8 +156,21 @@ export default async function CoatingPage() {
         </p>
       </header>
 
-      <div className="grid grid-cols-[minmax(0,1fr)] gap-4 xl:grid-cols-[minmax(0,1fr)_420px]">
-        <div className="min-w-0 space-y-4">
+      {/* On a phone "Send parts out" comes first (the job done most often here), the runs after it and the
+          coaters' list last; on a desk the runs fill the left and the two panels stack on the right. */}
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-4 xl:grid-cols-[minmax(0,1fr)_420px] xl:grid-rows-[auto_1fr] xl:items-start">
+        <div className="min-w-0 xl:col-start-2 xl:row-start-1">
+          <Section title="Send parts out" id="send">
+            {office ? (
+              <SendRunForm vendors={vendors} candidates={candidates} today={today} />
+            ) : (
+              <p className="text-ink-soft">
+                <IconStop /> The office sends coating runs. {waiting} {waiting === 1 ? "part is" : "parts are"} waiting to go out.
+              </p>
+            )}
+          </Section>
+        </div>
+        <div className="min-w-0 space-y-4 xl:col-start-1 xl:row-span-2 xl:row-start-1">
           <Section title={`Out now (${out.length})`} id="out">
             {out.length === 0 ? <p className="text-ink-soft">Nothing is out at a coater.</p> : (
               <div className="space-y-3">
@@ -180,7 +193,8 @@ export default async function CoatingPage() {
             <p className="mb-2 text-sm text-ink-soft">
               Runs sent in the last {VENDOR_RECORD_WINDOW_DAYS} days. Turnaround in business days, sent to received. On time means back by the promised date; a run still out past its promise counts as late.
             </p>
-            <div className="overflow-x-auto">
+            {/* Focusable and named, so a keyboard can scroll the figures sideways on a phone. */}
+            <div tabIndex={0} role="region" aria-label="Each coater's record, table" className="overflow-x-auto">
               <table className="w-full min-w-[640px] text-left text-sm">
                 <thead>
                   <tr className="border-b border-line">
@@ -223,16 +237,7 @@ export default async function CoatingPage() {
           )}
         </div>
 
-        <div className="min-w-0 space-y-4">
-          <Section title="Send parts out" id="send">
-            {office ? (
-              <SendRunForm vendors={vendors} candidates={candidates} today={today} />
-            ) : (
-              <p className="text-ink-soft">
-                <IconStop /> The office sends coating runs. {waiting} {waiting === 1 ? "part is" : "parts are"} waiting to go out.
-              </p>
-            )}
-          </Section>
+        <div className="min-w-0 xl:col-start-2 xl:row-start-2">
           <Section title="Coaters" id="vendors">
             <ul className="space-y-2">
               {vendors.map((v) => (

@@ -1,14 +1,22 @@
+import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { JobList } from "@/components/job-list";
 import { getDb } from "@/db";
-import { requirePageStaff } from "@/server/auth/session";
-import { customerDetail } from "@/server/customers/queries";
+import { currentStaff, requirePageStaff } from "@/server/auth/session";
+import { customerDetail, findCustomer } from "@/server/customers/queries";
+import { listJobs } from "@/server/jobs/queries";
 import { CUSTOMER_KIND_LABELS } from "@/server/customers/schemas";
 import { CustomerForm } from "../customer-form";
 import { ButtonLink } from "../controls";
 import { BackLink, Facts, idFromParam, linkClass } from "../facts";
 
-export const metadata = { title: "Customer" };
+export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
+  const id = idFromParam((await params).id);
+  // Names reach the tab only for signed-in staff; the page itself checks access as before.
+  const customer = id !== null && (await currentStaff()) ? await findCustomer(getDb(), id) : undefined;
+  return { title: customer ? customer.name : "Customer" };
+}
 
 export default async function CustomerPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requirePageStaff();
@@ -17,6 +25,7 @@ export default async function CustomerPage({ params }: { params: Promise<{ id: s
   if (!detail) notFound();
   const { customer, contacts, trucks } = detail;
   const canEdit = user.role !== "tech";
+  const jobs = await listJobs(getDb(), { customerId: customer.id, sort: "newest" });
 
   return (
     <section className="space-y-3">
@@ -62,35 +71,57 @@ export default async function CustomerPage({ params }: { params: Promise<{ id: s
           </div>
         )}
 
-        <section aria-labelledby="trucks-heading" className="order-first space-y-3 lg:order-none rounded-lg border border-line bg-panel p-4">
-          <div className="flex flex-wrap items-center justify-between gap-2">
-            <h2 id="trucks-heading" className="text-lg font-bold">
-              Trucks <span className="font-normal text-ink-soft">({trucks.length})</span>
-            </h2>
-            {canEdit && (
-              <ButtonLink href={`/trucks/new?customerId=${customer.id}`}>
-                <span aria-hidden="true">+</span> Add truck
-              </ButtonLink>
+        <div className="order-first space-y-5 lg:order-none">
+          <section aria-labelledby="trucks-heading" className="space-y-3 rounded-lg border border-line bg-panel p-4">
+            <div className="flex flex-wrap items-center justify-between gap-2">
+              <h2 id="trucks-heading" className="text-lg font-bold">
+                Trucks <span className="font-normal text-ink-soft">({trucks.length})</span>
+              </h2>
+              {canEdit && (
+                <ButtonLink href={`/trucks/new?customerId=${customer.id}`}>
+                  <span aria-hidden="true">+</span> Add truck
+                </ButtonLink>
+              )}
+            </div>
+            {trucks.length === 0 ? (
+              <p className="text-ink-soft">No trucks on file for this customer yet.</p>
+            ) : (
+              <ul className="divide-y divide-line">
+                {trucks.map((t) => (
+                  <li key={t.id}>
+                    <Link href={`/trucks/${t.id}`} className="block min-h-11 py-2 hover:bg-paper">
+                      <span className={linkClass}>Unit {t.unitNumber}</span>
+                      <span className="block text-sm text-ink-soft">
+                        {t.year} · {t.description || "No description"}
+                      </span>
+                      <span className="block text-sm tracking-wide text-ink-soft">VIN {t.vin}</span>
+                    </Link>
+                  </li>
+                ))}
+              </ul>
             )}
-          </div>
-          {trucks.length === 0 ? (
-            <p className="text-ink-soft">No trucks on file for this customer yet.</p>
-          ) : (
-            <ul className="divide-y divide-line">
-              {trucks.map((t) => (
-                <li key={t.id}>
-                  <Link href={`/trucks/${t.id}`} className="block min-h-11 py-2 hover:bg-paper">
-                    <span className={linkClass}>Unit {t.unitNumber}</span>
-                    <span className="block text-sm text-ink-soft">
-                      {t.year} · {t.description || "No description"}
-                    </span>
-                    <span className="block text-sm tracking-wide text-ink-soft">VIN {t.vin}</span>
-                  </Link>
-                </li>
-              ))}
-            </ul>
-          )}
-        </section>
+          </section>
+
+          <section aria-labelledby="jobs-heading" className="space-y-3 rounded-lg border border-line bg-panel p-4">
+            <div className="flex flex-wrap items-center justify-between gap-2">
+              <h2 id="jobs-heading" className="text-lg font-bold">
+                Jobs <span className="font-normal text-ink-soft">({jobs.length})</span>
+              </h2>
+              {canEdit && trucks.length > 0 && (
+                <ButtonLink href={`/jobs/new?customerId=${customer.id}`}>
+                  <span aria-hidden="true">+</span> New job
+                </ButtonLink>
+              )}
+            </div>
+            <JobList
+              rows={jobs}
+              hide={["customer"]}
+              caption={`Jobs for ${customer.name}`}
+              narrow
+              empty={<p className="text-ink-soft">{trucks.length === 0 ? "No jobs yet. Add their truck first, then open a job for it." : "No jobs for this customer yet."}</p>}
+            />
+          </section>
+        </div>
       </div>
     </section>
   );

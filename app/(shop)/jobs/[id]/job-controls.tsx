@@ -105,7 +105,7 @@ export function JobEditor({ job, techs, role }: { job: JobDetail; techs: { id: s
       )}
       {!techOnly && (
         <>
-          <Field label="Work" name="description" errors={form.fields.description}>{(p) => <textarea {...p} rows={2} defaultValue={job.description} className={inputClass} />}</Field>
+          <Field label="Work description" name="description" errors={form.fields.description}>{(p) => <textarea {...p} rows={2} defaultValue={job.description} className={inputClass} />}</Field>
           <JobPlanFields fields={form.fields} techs={techs} initial={job} />
         </>
       )}

@@ -1,3 +1,4 @@
+import type { Metadata } from "next";
 import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -5,7 +6,7 @@ import { PrintButton } from "@/components/print-button";
 import { Section } from "@/components/section";
 import { StageBadge } from "@/components/stage-badge";
 import { getDb } from "@/db";
-import { requirePageStaff } from "@/server/auth/session";
+import { currentStaff, requirePageStaff } from "@/server/auth/session";
 import { formatShopTime } from "@/server/records/calendar";
 import { shopSettings } from "@/server/shop/queries";
 import { findJob, stageEvents } from "@/server/jobs/queries";
@@ -17,7 +18,13 @@ import { MessagesSection } from "./messages-section";
 import { PhotosSection } from "./photos-section";
 import { RecordsSection } from "./records-section";
 
-export const metadata = { title: "Job" };
+export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
+  const raw = (await params).id;
+  // Names reach the tab only for signed-in staff; the page itself checks access as before.
+  if (!(await currentStaff()) || !/^[1-9]\d{0,9}$/.test(raw)) return { title: "Job" };
+  const job = await findJob(getDb(), Number(raw));
+  return { title: job ? `${job.workOrder} · Unit ${job.unitNumber}` : "Job not found" };
+}
 
 export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requirePageStaff();
@@ -58,10 +65,10 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
         <div className="space-y-4 lg:col-start-1 lg:row-span-2 lg:row-start-1">
           <Section title="The job">
             <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-2">
-              <dt className="font-semibold">Work</dt>
+              <dt className="font-semibold">Work description</dt>
               <dd>{job.description}</dd>
-              <dt className="font-semibold">Scope</dt>
-              <dd>{SCOPE_LABELS[job.scope]} — route: {route.filter((s) => s !== "delivered").map((s) => STAGE_LABELS[s]).join(" → ")}</dd>
+              <dt className="font-semibold">Work</dt>
+              <dd>{SCOPE_LABELS[job.scope]} — stages: {route.filter((s) => s !== "delivered").map((s) => STAGE_LABELS[s]).join(" → ")}</dd>
               <dt className="font-semibold">Due</dt>
               <dd>{job.dueOn ? showStoredDate(job.dueOn, "EEE d MMM yyyy") : "No date set"}</dd>
               <dt className="font-semibold">Assigned</dt>
@@ -100,7 +107,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
                     {formatShopTime(e.at, shop.timeZone, "d MMM yyyy, HH:mm")} · {e.actorName ?? "system"}
                   </p>
                   {e.note && <p className="text-sm">“{e.note}”</p>}
-                  {e.overrideReason && <p className="mt-1 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">⚑ Gate overridden by the owner: {e.overrideReason}</p>}
+                  {e.overrideReason && <p className="mt-1 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">⚑ Owner’s override: {e.overrideReason}</p>}
                 </li>
               ))}
             </ol>

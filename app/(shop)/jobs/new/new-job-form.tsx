@@ -62,12 +62,12 @@ export function NewJobForm({ customers, trucks, techs, preset }: Props) {
           This customer has no truck on file. <Link className="underline" href={`/trucks/new?customerId=${customerId}`}>Add their truck</Link>.
         </p>
       )}
-      <Field label="Work" name="description" errors={form.fields.description} hint="For example: wet kit, 40 gal aluminum round reservoir between the rails">
+      <Field label="Work description" name="description" errors={form.fields.description} hint="For example: wet kit, 40 gal aluminum round reservoir between the rails">
         {(p) => <textarea {...p} rows={3} className={inputClass} />}
       </Field>
       <JobPlanFields fields={form.fields} techs={techs} />
       <Field label="Notes (staff only)" name="notes" errors={form.fields.notes}>{(p) => <textarea {...p} rows={3} className={inputClass} />}</Field>
-      <button type="submit" className={buttonClass.primary} disabled={form.pending}>{form.pending ? "Opening…" : "Open the work order"}</button>
+      <button type="submit" className={buttonClass.primary} disabled={form.pending}>{form.pending ? "Opening…" : "Open the job"}</button>
     </form>
   );
 }

@@ -4,7 +4,7 @@ import { requirePageStaff } from "@/server/auth/session";
 import { listTechs } from "@/server/staff/queries";
 import { NewJobForm } from "./new-job-form";
 
-export const metadata = { title: "New work order" };
+export const metadata = { title: "New job" };
 
 export default async function NewJobPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   await requirePageStaff(["owner", "office"]);
@@ -20,7 +20,7 @@ export default async function NewJobPage({ searchParams }: { searchParams: Promi
       <p className="text-sm text-ink-soft">
         <Link href="/jobs" className="underline">Jobs</Link> / New
       </p>
-      <h1 className="text-2xl font-bold">New work order</h1>
+      <h1 className="text-2xl font-bold">New job</h1>
       {customers.length === 0 ? (
         <p>
           Add a customer and their truck first: <Link href="/customers/new" className="underline">new customer</Link>.

@@ -1,13 +1,22 @@
+import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { JobList } from "@/components/job-list";
 import { getDb } from "@/db";
-import { requirePageStaff } from "@/server/auth/session";
+import { currentStaff, requirePageStaff } from "@/server/auth/session";
+import { listJobs } from "@/server/jobs/queries";
 import { listCustomerChoices } from "@/server/customers/queries";
 import { findTruck } from "@/server/trucks/queries";
+import { buttonClass } from "@/components/styles";
 import { BackLink, Facts, idFromParam, linkClass } from "../../customers/facts";
 import { TruckForm } from "../truck-form";
 
-export const metadata = { title: "Truck" };
+export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
+  const id = idFromParam((await params).id);
+  // Names reach the tab only for signed-in staff; the page itself checks access as before.
+  const truck = id !== null && (await currentStaff()) ? await findTruck(getDb(), id) : undefined;
+  return { title: truck ? `Unit ${truck.unitNumber} · ${truck.customerName}` : "Truck" };
+}
 
 export default async function TruckPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requirePageStaff();
@@ -15,6 +24,7 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
   const truck = id === null ? undefined : await findTruck(getDb(), id);
   if (!truck) notFound();
   const canEdit = user.role !== "tech";
+  const jobs = await listJobs(getDb(), { truckId: truck.id, sort: "newest" });
 
   return (
     <section className="space-y-3">
@@ -51,15 +61,18 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
           </section>
         )}
 
-        <section aria-labelledby="jobs-heading" className="space-y-2 rounded-lg border-2 border-dashed border-line bg-panel p-4">
-          <h2 id="jobs-heading" className="text-lg font-bold">Jobs</h2>
-          <p className="text-ink-soft">
-            Jobs for this truck are listed on the{" "}
-            <Link href="/jobs" className={linkClass}>
-              Jobs page
-            </Link>
-            .
-          </p>
+        <section aria-labelledby="jobs-heading" className="order-first space-y-3 rounded-lg border border-line bg-panel p-4 lg:order-none">
+          <div className="flex flex-wrap items-center justify-between gap-2">
+            <h2 id="jobs-heading" className="text-lg font-bold">
+              Jobs <span className="font-normal text-ink-soft">({jobs.length})</span>
+            </h2>
+            {canEdit && (
+              <Link href={`/jobs/new?truckId=${truck.id}`} className={buttonClass.primary}>
+                <span aria-hidden="true">+</span> New job
+              </Link>
+            )}
+          </div>
+          <JobList rows={jobs} hide={["customer", "truck"]} caption={`Jobs for unit ${truck.unitNumber}`} narrow empty={<p className="text-ink-soft">No jobs for this truck yet.</p>} />
         </section>
       </div>
     </section>
