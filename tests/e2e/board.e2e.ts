@@ -135,12 +135,12 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     await waitForCard(page, wo, "pressure_test");
     const toast = page.locator("[data-move-toast]");
     await toast.getByText(`Moved ${wo} to Pressure test`).waitFor();
-    expect(await focusedCard(page)).toBe(wo);
+    await expect.poll(() => focusedCard(page)).toBe(wo);
     await shot(page, "board-desk-moved");
     await toast.getByRole("button", { name: `Undo: put ${wo} back in Install` }).click();
     await toast.getByText(`${wo} is back in Install.`).waitFor();
     expect(await cardsIn(page, "install")).toEqual(before);
-    expect(await focusedCard(page)).toBe(wo);
+    await expect.poll(() => focusedCard(page)).toBe(wo);
     await page.reload();
     await waitForCard(page, wo, "install");
     expect(await cardsIn(page, "install")).toEqual(before);
