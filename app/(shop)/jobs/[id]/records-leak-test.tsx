@@ -130,6 +130,18 @@ const numberOrUndefined = (text: string) => {
   return Number.isFinite(n) ? n : undefined;
 };
 
+/** What the leak-test form needs from the job page: the part, the shop's figures and the last gauge used. */
+interface LeakTestFormProps {
+  job: LeakTestJob;
+  part: LeakTestPart;
+  allowedDropPsi: number;
+  procedure: LeakTestProcedure;
+  today: string;
+  tester: string;
+  lastGauge: { fullScalePsi: number | null; calibratedOn: string | null } | null;
+  onClose: () => void;
+}
+
 export function LeakTestForm({
   job,
   part,
@@ -139,16 +151,7 @@ export function LeakTestForm({
   tester,
   lastGauge,
   onClose,
-}: {
-  job: LeakTestJob;
-  part: LeakTestPart;
-  allowedDropPsi: number;
-  procedure: LeakTestProcedure;
-  today: string;
-  tester: string;
-  lastGauge: { fullScalePsi: number | null; calibratedOn: string | null } | null;
-  onClose: () => void;
-}) {
+}: LeakTestFormProps) {
   // Each retest is a fresh form; the gauge it starts with comes from the test just saved, unless
   // that test showed the gauge wrong for the work.
   const [round, setRound] = useState(0);
@@ -178,17 +181,9 @@ function LeakTestRound({
   focusOnOpen,
   onRetest,
   onClose,
-}: {
-  job: LeakTestJob;
-  part: LeakTestPart;
-  allowedDropPsi: number;
-  procedure: LeakTestProcedure;
-  today: string;
-  tester: string;
-  lastGauge: { fullScalePsi: number | null; calibratedOn: string | null } | null;
+}: LeakTestFormProps & {
   focusOnOpen: boolean;
   onRetest: (answer: LeakTestAnswer) => void;
-  onClose: () => void;
 }) {
   const router = useRouter();
   const formId = useId();
