@@ -110,6 +110,18 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/parts/[id]"),
   anyStaff("PATCH /api/parts/[id]"),
   officeUp("DELETE /api/parts/[id]"),
+  // Bought-in parts: any staff lists and receives them and marks them installed (costs are checked
+  // inside: a tech's cost is refused); office and owner remove lines and make purchase orders.
+  anyStaff("GET /api/jobs/[id]/bought-parts"),
+  anyStaff("POST /api/jobs/[id]/bought-parts"),
+  anyStaff("POST /api/jobs/[id]/bought-parts/from-kit-spec"),
+  anyStaff("GET /api/bought-parts/[id]"),
+  anyStaff("PATCH /api/bought-parts/[id]"),
+  officeUp("DELETE /api/bought-parts/[id]"),
+  anyStaff("POST /api/bought-parts/[id]/receipts"),
+  officeUp("POST /api/purchase-orders"),
+  officeUp("GET /api/purchase-orders/[id]"),
+  officeUp("PATCH /api/purchase-orders/[id]"),
   anyStaff("GET /api/parts/[id]/leak-tests"),
   anyStaff("POST /api/parts/[id]/leak-tests"),
   anyStaff("GET /api/jobs/[id]/sign-off"),

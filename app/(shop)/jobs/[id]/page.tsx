@@ -12,6 +12,7 @@ import { shopSettings } from "@/server/shop/queries";
 import { findJob, stageEvents } from "@/server/jobs/queries";
 import { SCOPE_LABELS, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
 import { listTechs } from "@/server/staff/queries";
+import { BoughtPartsSection } from "./bought-parts-section";
 import { JobEditor, MoveControl } from "./job-controls";
 import { KitSpecSection } from "./kit-spec-section";
 import { MessagesSection } from "./messages-section";
@@ -84,6 +85,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
             </dl>
           </Section>
           <RecordsSection job={job} user={user} />
+          <BoughtPartsSection job={job} user={user} />
           <KitSpecSection job={job} user={user} />
           <div className="no-print space-y-4">
             <PhotosSection job={job} user={user} />
