@@ -123,6 +123,11 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("POST /api/bought-parts/[id]/receipts"),
   officeUp("POST /api/purchase-orders"),
   officeUp("GET /api/parts-desk"),
+  // The labour clock: each person clocks themselves on and off; the office and owner correct entries.
+  anyStaff("GET /api/clock"),
+  anyStaff("POST /api/clock"),
+  anyStaff("DELETE /api/clock"),
+  officeUp("PATCH /api/clock-entries/[id]"),
   officeUp("GET /api/purchase-orders/[id]"),
   officeUp("PATCH /api/purchase-orders/[id]"),
   anyStaff("GET /api/parts/[id]/leak-tests"),
