@@ -149,7 +149,7 @@ describe("properties of the D-shaped tank and of usable oil", () => {
       }),
       { numRuns: 300 },
     );
-  });
+  }, 30_000);
 });
 
 describe("properties of pump flow (Q = D × N / 231, fluid-power textbook)", () => {
@@ -189,7 +189,7 @@ describe("properties of pump flow (Q = D × N / 231, fluid-power textbook)", () 
       }),
       { numRuns: 200 },
     );
-  });
+  }, 30_000);
 });
 
 describe("properties of line sizing (d = √(0.4085 × gpm / v), fluid-power textbook)", () => {
@@ -217,7 +217,7 @@ describe("properties of line sizing (d = √(0.4085 × gpm / v), fluid-power tex
       }),
       { numRuns: 300 },
     );
-  });
+  }, 30_000);
 });
 
 describe("every valid input gives finite numbers", () => {
@@ -225,10 +225,10 @@ describe("every valid input gives finite numbers", () => {
     fc.assert(
       fc.property(validInputArbitrary, (input) => {
         const spec = computeKitSpec(input);
-        for (const value of numbersIn(spec)) expect(Number.isFinite(value)).toBe(true);
+        expect(numbersIn(spec).filter((value) => !Number.isFinite(value))).toEqual([]);
         expect(JSON.stringify(spec)).not.toContain("null");
       }),
-      { numRuns: 1000 },
+      { numRuns: 600 },
     );
-  });
+  }, 60_000);
 });
