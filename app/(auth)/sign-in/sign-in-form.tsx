@@ -9,7 +9,7 @@ export function SignInForm() {
     (v) => ({ path: "/api/session", body: { email: str(v.email), password: str(v.password) } }),
     (answer) => {
       // A temporary password from the owner's reset goes straight to choosing a new one.
-      router.replace(answer.user.mustChangePassword ? "/account" : "/board");
+      router.replace(answer.user.mustChangePassword ? "/account" : "/");
       router.refresh();
     },
   );
