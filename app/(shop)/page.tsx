@@ -32,11 +32,13 @@ function JobRows({ jobs, late }: { jobs: OverviewJob[]; late: boolean }) {
   return (
     <ul className="divide-y divide-line">
       {jobs.map((j) => (
-        <li key={j.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
-          <Link href={`/jobs/${j.id}`} className={`${linkClass} whitespace-nowrap`}>{j.workOrder}</Link>
-          <span className="min-w-0 flex-1 truncate">{j.customerName} · Unit {j.unitNumber}</span>
-          <StageBadge stage={j.stage} />
-          <span className="text-sm text-ink-soft">
+        <li key={j.id} className="py-2">
+          <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+            <Link href={`/jobs/${j.id}`} className={`${linkClass} inline-flex min-h-11 items-center whitespace-nowrap`}>{j.workOrder}</Link>
+            <span className="min-w-0 flex-1 truncate">{j.customerName} · Unit {j.unitNumber}</span>
+            <StageBadge stage={j.stage} />
+          </div>
+          <p className="text-sm text-ink-soft">
             {late ? (
               <>
                 <strong className="text-stop-700">{plural(j.daysLate, "business day")} late</strong> (due {day(j.dueOn)})
@@ -45,7 +47,7 @@ function JobRows({ jobs, late }: { jobs: OverviewJob[]; late: boolean }) {
               <>Due {day(j.dueOn)}</>
             )}
             {j.daysInStage !== null && <> · {plural(j.daysInStage, "business day")} in {j.stageLabel}</>}
-          </span>
+          </p>
         </li>
       ))}
     </ul>
@@ -63,8 +65,7 @@ export default async function OverviewPage() {
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h1 id="overview-title" className="text-2xl font-bold">Overview</h1>
         <p className="text-ink-soft">
-          {day(o.today)} · {plural(o.onBoard, "job")} on the board ·{" "}
-          <Link href="/reports" className={linkClass}>Reports</Link>
+          {day(o.today)} · {plural(o.onBoard, "job")} on the board
         </p>
       </div>
 

@@ -17,7 +17,8 @@ async function signInWhereTheyLand(browser: Browser, role: "office" | "owner" | 
   await page.getByLabel("E-mail").fill(DEMO[role]);
   await page.getByLabel("Password").fill(DEMO.password);
   await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((url) => url.pathname === "/" || url.pathname === "/board");
+  await page.waitForURL(role === "tech" ? /\/board$/ : (url) => url.pathname === "/");
+  await page.waitForLoadState("networkidle");
   return page;
 }
 
