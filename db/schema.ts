@@ -63,6 +63,18 @@ export interface ShopTable {
   /** What an hour of labour costs, cents; 0 until the owner sets it (migration 0012). */
   labour_rate_cents: ColumnType<number, number | undefined, number>;
   next_purchase_order: ColumnType<number, number | undefined, number>;
+  /** The shop's street address (migration 0011), printed on the shop sheet. */
+  address: ColumnType<string, string | undefined, string>;
+  /** 1 when the customer's status page shows "likely ready around …" (migration 0011). */
+  show_predicted_date: ColumnType<number, number | undefined, number>;
+  /** Bumped by every save of the shop's details, so a stale form is refused (migration 0011). */
+  settings_version: ColumnType<number, number | undefined, number>;
+}
+
+/** A day the shop is closed (migration 0011): business days skip it everywhere. */
+export interface ShopHolidayTable {
+  day: string;
+  name: ColumnType<string, string | undefined, string>;
 }
 
 export interface CustomerTable {
@@ -158,6 +170,7 @@ export interface Database extends RecordsTables, KitSpecTables, MessagingTables,
   job: JobTable;
   stage_event: StageEventTable;
   outbox: OutboxTable;
+  shop_holiday: ShopHolidayTable;
 }
 
 export type Staff = Selectable<StaffTable>;

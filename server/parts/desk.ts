@@ -1,5 +1,6 @@
 import "server-only";
 import { addDays, formatISO, startOfISOWeek } from "date-fns";
+import { sql } from "kysely";
 import type { DB } from "@/db";
 import type { BoughtPartKind, BoughtPartState } from "@/db/tables/bought-parts";
 import { shopToday } from "@/server/records/turnaround";
@@ -124,12 +125,16 @@ export async function loadPartsDesk(db: DB, now = new Date()): Promise<PartsDesk
   };
 }
 
-/** Counts for an overview: lines to order, on order, overdue. */
-export async function partsWaitingCounts(db: DB, now = new Date()) {
-  const desk = await loadPartsDesk(db, now);
-  return {
-    toOrder: desk.toOrder.reduce((n, g) => n + g.lines.length, 0),
-    onOrder: desk.onOrder.reduce((n, g) => n + g.lines.length, 0),
-    overdue: desk.overdue.length,
-  };
+/** Counts for the overview: lines to order, lines on order, and those past their expected date. */
+export async function partsWaitingCounts(db: DB, today: string) {
+  const row = await db
+    .selectFrom("bought_part")
+    .select([
+      sql<number>`coalesce(sum(state = 'needed'), 0)`.as("to_order"),
+      sql<number>`coalesce(sum(state = 'ordered'), 0)`.as("on_order"),
+      sql<number>`coalesce(sum(state = 'ordered' and expected_on < ${today}), 0)`.as("overdue"),
+    ])
+    .where("state", "in", ["needed", "ordered"])
+    .executeTakeFirstOrThrow();
+  return { toOrder: Number(row.to_order), onOrder: Number(row.on_order), overdue: Number(row.overdue) };
 }
