@@ -135,6 +135,8 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("POST /api/clock"),
   anyStaff("DELETE /api/clock"),
   officeUp("PATCH /api/clock-entries/[id]"),
+  officeUp("GET /api/shop-settings/labour-rate"),
+  ownerOnly("PATCH /api/shop-settings/labour-rate"),
   officeUp("GET /api/purchase-orders/[id]"),
   officeUp("PATCH /api/purchase-orders/[id]"),
   anyStaff("GET /api/parts/[id]/leak-tests"),

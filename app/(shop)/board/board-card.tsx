@@ -5,6 +5,7 @@ import Link from "next/link";
 import { useState } from "react";
 import { formatDay } from "@/components/dates";
 import { IconCheck, IconClock, IconPerson, IconStop, IconWarn } from "@/components/icons";
+import { ClockButton } from "@/components/labour-clock";
 import type { MoveRefusal } from "@/components/move-job";
 import { RefusalNote } from "@/components/refusal-note";
 import type { Stage } from "@/db/schema";
@@ -15,6 +16,8 @@ export interface CardActions {
   moveTo: (card: BoardCard, stage: Stage) => void;
   override: (card: BoardCard, reason: string) => void;
   dismiss: (card: BoardCard) => void;
+  /** Show a one-tap clock button on each card (techs). */
+  showClock?: boolean;
 }
 
 /** A card on the board; `dropBefore` draws the line where a dragged card would land, without moving anything. */
@@ -127,6 +130,7 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
         )}
       </dl>
       {actions && <MoveToList card={card} stages={route} onMove={(stage) => actions.moveTo(card, stage)} />}
+      {actions?.showClock && <ClockButton jobId={card.id} workOrder={card.workOrder} compact />}
       {refusal && actions && (
         <div className="mt-2">
           <RefusalNote refusal={refusal} onOverride={(reason) => actions.override(card, reason)} onDismiss={() => actions.dismiss(card)} jobHref={`/jobs/${card.id}`} />

@@ -20,6 +20,7 @@ import Link from "next/link";
 import { usePathname, useRouter } from "next/navigation";
 import { useCallback, useMemo, useRef, useState } from "react";
 import { api } from "@/components/api";
+import { ClockStrip, type OpenClock } from "@/components/labour-clock";
 import { type MoveBody, type MoveRefusal, refusalOf, sendMove, sendUndo } from "@/components/move-job";
 import type { Role, Stage } from "@/db/schema";
 import { BOARD_STAGES, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
@@ -60,7 +61,7 @@ interface FocusRequest {
   on: "card" | "refusal";
 }
 
-export function BoardView({ initial, initialFilter, role, meId, denied }: { initial: Board; initialFilter: BoardFilter; role: Role; meId: string; denied: boolean }) {
+export function BoardView({ initial, initialFilter, role, meId, denied, clock }: { initial: Board; initialFilter: BoardFilter; role: Role; meId: string; denied: boolean; clock?: OpenClock | null }) {
   const router = useRouter();
   const pathname = usePathname();
   const qc = useQueryClient();
@@ -191,6 +192,8 @@ export function BoardView({ initial, initialFilter, role, meId, denied }: { init
       setRefusals(({ [card.id]: _, ...rest }) => rest);
       focusCard({ id: card.id, on: "card" });
     },
+    // Techs clock their hours from the card; the office's desk board stays dense.
+    showClock: role === "tech",
   };
 
   const routeOf = useCallback((card: BoardCard) => stagesFor(card.scope).filter((s) => (BOARD_STAGES as readonly Stage[]).includes(s)), []);
@@ -324,6 +327,7 @@ export function BoardView({ initial, initialFilter, role, meId, denied }: { init
           )}
         </div>
       </div>
+      <ClockStrip initial={clock} />
       <BoardFilters filter={filter} board={board} onChange={changeFilter} meId={meId} open={filtersOpen} />
       {board.firstSteps && <FirstSteps steps={board.firstSteps} canOpenJobs={canOpenJobs} />}
       {!board.firstSteps && board.cards.length === 0 && filterCount > 0 && (

@@ -1,6 +1,8 @@
 import { getDb } from "@/db";
 import { requirePageStaff } from "@/server/auth/session";
 import { loadBoard } from "@/server/jobs/board";
+import { openClockOf } from "@/server/labour/queries";
+import { shopSettings } from "@/server/shop/queries";
 import { boardFilterSchema } from "@/server/jobs/schemas";
 import { BoardView } from "./board-view";
 
@@ -12,7 +14,8 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
   const raw = Object.fromEntries(Object.entries(params).filter(([, v]) => typeof v === "string" && v !== "")) as Record<string, string>;
   const parsed = boardFilterSchema.safeParse(raw);
   const filter = parsed.success ? parsed.data : {};
-  const initial = await loadBoard(getDb(), filter);
+  const db = getDb();
+  const [initial, clock] = await Promise.all([loadBoard(db, filter), shopSettings(db).then((shop) => openClockOf(db, user.id, shop.timeZone))]);
   // A tech sent here from an office page is told why.
-  return <BoardView initial={initial} initialFilter={filter} role={user.role} meId={user.id} denied={params.denied === "1"} />;
+  return <BoardView initial={initial} initialFilter={filter} role={user.role} meId={user.id} denied={params.denied === "1"} clock={clock} />;
 }

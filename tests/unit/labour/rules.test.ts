@@ -96,3 +96,21 @@ describe("hours per person per week", () => {
     expect(Object.fromEntries(weeks.get("a")!)).toEqual({ "2026-03-02": 2.5, "2026-03-09": 1 });
   });
 });
+
+describe("job cost in cents", () => {
+  it("labour is hours × rate, rounded half-up to the cent, per stage", async () => {
+    const { jobCost, labourCents } = await import("@/server/labour/cost");
+    // 1 h 20 min at $125.00/h = $166.666… → $166.67; 10 min at $95.00/h = $15.8333… → $15.83.
+    expect(labourCents(80 * 60_000, 12_500)).toBe(16_667);
+    expect(labourCents(10 * 60_000, 9_500)).toBe(1_583);
+    // Exactly half a cent rounds up: 18 s at $1.00/h = 0.5 ¢ → 1 ¢.
+    expect(labourCents(18_000, 100)).toBe(1);
+    const cost = jobCost({
+      rateCentsPerHour: 12_500,
+      msByStage: [["install", 2 * H], ["wire", 0.5 * H]],
+      boughtLines: [{ quantity: 2, unitCostCents: 9_475 }, { quantity: 1, unitCostCents: 118_500 }, { quantity: 1, unitCostCents: null }],
+    });
+    // Labour 2.5 h × $125 = $312.50; parts 2 × $94.75 + $1,185.00 = $1,374.50; total $1,687.00.
+    expect(cost).toEqual(expect.objectContaining({ hours: 2.5, labourCents: 31_250, partsCents: 137_450, unpricedParts: 1, totalCents: 168_700 }));
+  });
+});

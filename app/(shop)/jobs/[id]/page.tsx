@@ -14,6 +14,7 @@ import { findJob, stageEvents } from "@/server/jobs/queries";
 import { SCOPE_LABELS, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
 import { listTechs } from "@/server/staff/queries";
 import { BoughtPartsSection } from "./bought-parts-section";
+import { JobCostSection, LabourSection } from "./labour-section";
 import { JobEditor, MoveControl } from "./job-controls";
 import { KitSpecSection } from "./kit-spec-section";
 import { MessagesSection } from "./messages-section";
@@ -63,6 +64,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           <Section title="Move this job">
             <MoveControl job={{ id: job.id, stage: job.stage, version: job.version, scope: job.scope }} role={user.role} />
           </Section>
+          <div className="mt-4">
+            <Suspense fallback={<SectionLoading title="Hours" />}>
+              <LabourSection job={job} user={user} />
+            </Suspense>
+          </div>
         </div>
         <div className="space-y-4 lg:col-start-1 lg:row-span-2 lg:row-start-1">
           <Section title="The job">
@@ -110,6 +116,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               <JobEditor job={job} techs={techs} role={user.role} />
             </Section>
           </div>
+          {user.role !== "tech" && (
+            <Suspense fallback={<SectionLoading title="Job cost" />}>
+              <JobCostSection job={job} />
+            </Suspense>
+          )}
           <Section title="Stage timeline" id="timeline">
             <ol className="space-y-3">
               {events.map((e) => (
