@@ -19,7 +19,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/customers", label: "Customers" },
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
-    ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }] : []),
+    ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }, { href: "/job-costs", label: "Hours" }] : []),
     { href: "/calculator", label: "Calculator" },
     ...(role === "owner"
       ? [

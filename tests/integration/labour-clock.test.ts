@@ -1,6 +1,9 @@
 import { describe, expect, it } from "vitest";
 import * as clockEntry from "@/app/api/clock-entries/[id]/route";
 import * as clock from "@/app/api/clock/route";
+import * as jobCosts from "@/app/api/reports/job-costs/route";
+import * as labourRate from "@/app/api/shop-settings/labour-rate/route";
+import * as boughtParts from "@/app/api/jobs/[id]/bought-parts/route";
 import type { Role } from "@/db/schema";
 import { jobHours } from "@/server/labour/queries";
 import { useFreshDatabase } from "../support/db";
@@ -113,5 +116,36 @@ describe("the labour clock", () => {
     const hours = await jobHours(db(), job.id, new Date("2026-03-03T00:00:00.000Z"));
     expect(hours.totalHours).toBe(3);
     expect(Object.fromEntries(hours.byStage.map((s) => [s.stage, s.hours]))).toEqual({ install: 2, wire: 1 });
+  });
+});
+
+describe("job cost", () => {
+  it("only the owner sets the labour rate (an audit line); the report prices hours × rate plus bought-in parts, in cents, and downloads as CSV", async () => {
+    const owner = await as("owner");
+    const office = await as("office");
+    const tech = await as("tech");
+    const rate = (cookie: string, body: unknown) => labourRate.PATCH(request("/api/shop-settings/labour-rate", { method: "PATCH", cookie, body }));
+    expect((await rate(office.cookie, { labourRateCents: 12_500 })).status).toBe(403);
+    const bad = await rate(owner.cookie, { labourRateCents: 125.5 });
+    expect(bad.status).toBe(400);
+    expect(Object.keys((await readBody(bad)).error.details.fields)).toEqual(["labourRateCents"]);
+    expect((await rate(owner.cookie, { labourRateCents: 12_500 })).status).toBe(200);
+    expect(await db().selectFrom("audit_event").select("summary").where("kind", "=", "settings_changed").execute()).toEqual([{ summary: expect.stringContaining("from $0.00 to $125.00 an hour") }]);
+
+    const job = await makeJob(db(), { stage: "install", scope: "install_only" });
+    await boughtParts.POST(request(`/api/jobs/${job.id}/bought-parts`, { cookie: office.cookie, body: { kind: "pump", description: "Gear pump", quantity: 1, costCents: 64_900 } }), params({ id: String(job.id) }));
+    const today = new Date();
+    const start = new Date(today.getTime() - 3 * 3_600_000);
+    // 1 h 20 min on the clock: at $125.00/h that is $166.666… → $166.67.
+    await db().insertInto("clock_entry").values({ staff_id: tech.staff.id, job_id: job.id, stage: "install", started_at: start.toISOString(), ended_at: new Date(start.getTime() + 80 * 60_000).toISOString() }).execute();
+    const res = await jobCosts.GET(request("/api/reports/job-costs", { cookie: office.cookie }));
+    expect(res.status).toBe(200);
+    const report = await readBody(res);
+    const row = report.jobs.find((j: { jobId: number }) => j.jobId === job.id);
+    expect(row).toEqual(expect.objectContaining({ labourCents: 16_667, partsCents: 64_900, totalCents: 81_567 }));
+    const csv = await (await jobCosts.GET(request("/api/reports/job-costs?format=csv", { cookie: office.cookie }))).text();
+    expect(csv).toContain(`${job.work_order},`);
+    expect(csv).toContain(",1.33,166.67,649.00,0,815.67,");
+    expect((await jobCosts.GET(request("/api/reports/job-costs", { cookie: tech.cookie }))).status).toBe(403);
   });
 });

@@ -1,0 +1,118 @@
+import type { APIRequestContext, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser } from "playwright-core";
+import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+
+const enabled = Boolean(baseUrl());
+
+async function json<T = any>(res: Awaited<ReturnType<APIRequestContext["get"]>>, status = 200): Promise<T> {
+  expect(res.status(), await res.text()).toBe(status);
+  return (await res.json()) as T;
+}
+
+/** A fresh install-only job on a demo truck, made through the API so no other file's moves matter. */
+async function newJob(page: Page, what: string) {
+  const jobs = (await json<{ jobs: { customerName: string; customerId: number; truckId: number }[] }>(await page.request.get(`${baseUrl()}/api/jobs`))).jobs;
+  const truck = jobs.find((j) => j.customerName === "Dell Okafor")!;
+  const made = await json(await page.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `${what} ${Date.now().toString(36)}` } }), 201);
+  return made.job as { id: number; workOrder: string };
+}
+
+const card = (page: Page, wo: string) => page.locator(`li[data-card="${wo}"]`);
+
+describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("on a 390 px phone a tech clocks on from the board card, moves the job, and clocks off on the job page; the hours follow the move", async () => {
+    const office = await browser.newContext(DESK);
+    const desk = await signIn(office, "office");
+    const job = await newJob(desk, "Clocked indicator rewire");
+    await office.close();
+
+    const context = await browser.newContext(PHONE);
+    const page = await signIn(context, "tech");
+    await card(page, job.workOrder).waitFor();
+    await card(page, job.workOrder).getByRole("button", { name: `Clock on ${job.workOrder}` }).click();
+    const strip = page.locator("[data-clock-strip]");
+    await strip.waitFor();
+    expect(await strip.textContent()).toContain(`On the clock: ${job.workOrder}`);
+    await expect.poll(() => card(page, job.workOrder).getByRole("button", { name: `Clock off ${job.workOrder}` }).count()).toBe(1);
+    await shot(page, "clock-board-phone");
+
+    await page.goto(`${baseUrl()}/jobs/${job.id}`);
+    const hours = page.locator("#hours");
+    await hours.getByText("You are on the clock here").waitFor();
+    await shot(page, "clock-job-phone");
+    await page.getByRole("combobox", { name: /^Move to/ }).selectOption("install");
+    await page.getByRole("button", { name: "Move to Install" }).click();
+    await page.getByText("Moved to Install.").waitFor();
+    await page.waitForTimeout(1200);
+    await hours.getByRole("button", { name: `Clock off ${job.workOrder}` }).click();
+    await hours.getByText("Your clock is off.").waitFor();
+    expect((await json(await page.request.get(`${baseUrl()}/api/clock`))).clock).toBeNull();
+    // The entry ran across the move: its hours count to Queued and to Install.
+    await page.reload();
+    const byStage = (await hours.getByText(/^By stage:/).textContent()) ?? "";
+    expect(byStage).toMatch(/Queued \d+\.\d\d h/);
+    expect(byStage).toMatch(/Install \d+\.\d\d h/);
+    await shot(page, "clock-job-after-phone");
+    await context.close();
+  });
+
+  it("the office orders a PTO on a purchase order and receives it on the parts desk; the card's 'waiting on' clears", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "office");
+    const job = await newJob(page, "PTO swap");
+    const supplier = `Hollow Pine Drive Supply ${Date.now().toString(36)}`;
+    const description = "10-bolt PTO, air shift, 122 % output";
+    await json(await page.request.post(`${baseUrl()}/api/jobs/${job.id}/bought-parts`, { headers: { origin: baseUrl() }, data: { kind: "pto", description, quantity: 1, supplier, costCents: 118_500, fitsTransmission: "18-speed manual", ratioPercent: 122 } }), 201);
+
+    await page.goto(`${baseUrl()}/board`);
+    const waiting = card(page, job.workOrder).locator("[data-waiting-parts]");
+    await waiting.waitFor();
+    expect(await waiting.textContent()).toContain(`Waiting on 1 part: ${description}`);
+    // Install refuses, naming the part.
+    const refused = await page.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: 1 } });
+    expect(refused.status()).toBe(422);
+    expect((await refused.json()).error.details.unmet).toEqual([`Into Install: waiting on ${description}: not ordered yet; order it from the parts desk.`]);
+
+    await page.goto(`${baseUrl()}/parts`);
+    const group = page.locator(`form[data-order-group="${supplier}"]`);
+    expect(await group.getByRole("checkbox", { name: `Order ${description} for ${job.workOrder}` }).isChecked()).toBe(true);
+    await group.getByLabel("Expected on").fill(new Date(Date.now() + 5 * 86_400_000).toISOString().slice(0, 10));
+    await group.getByRole("button", { name: "Order 1 line on one PO" }).click();
+    await page.waitForURL(/\/purchase-orders\/\d+$/);
+    expect(await page.locator("[data-po-total]").textContent()).toBe("$1,185.00");
+    const poNumber = ((await page.getByRole("heading", { level: 1 }).textContent()) ?? "").replace("Purchase order ", "");
+    expect(poNumber).toMatch(/^PO-\d{2}-\d{4}$/);
+    await shot(page, "purchase-order-desk");
+
+    await page.goto(`${baseUrl()}/parts`);
+    const row = page.locator(`tr[data-on-order="${description}"]`, { hasText: job.workOrder });
+    expect(await row.textContent()).toContain(poNumber);
+    await shot(page, "parts-desk-desk");
+    await row.getByRole("button", { name: `Receive ${description} for ${job.workOrder}` }).click();
+    await row.getByRole("button", { name: "Record" }).click();
+    await page.locator(`tr[data-on-order="${description}"]`, { hasText: job.workOrder }).waitFor({ state: "detached" });
+
+    await page.goto(`${baseUrl()}/board`);
+    await card(page, job.workOrder).waitFor();
+    expect(await card(page, job.workOrder).locator("[data-waiting-parts]").count()).toBe(0);
+    const moved = await page.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: 1 } });
+    expect(moved.status()).toBe(200);
+
+    await page.goto(`${baseUrl()}/jobs/${job.id}#bought-parts`);
+    const line = page.locator(`[data-bought-part="${description}"]`);
+    await line.waitFor();
+    expect(await line.locator("[data-state]").getAttribute("data-state")).toBe("received");
+    expect(await line.locator("[data-fit-flag]").count()).toBe(0);
+    await shot(page, "job-bought-parts-desk");
+    await context.close();
+  });
+});
