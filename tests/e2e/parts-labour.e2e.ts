@@ -104,12 +104,13 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     await page.goto(`${baseUrl()}/board`);
     await card(page, job.workOrder).waitFor();
     expect(await card(page, job.workOrder).locator("[data-waiting-parts]").count()).toBe(0);
-    const moved = await page.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: 1 } });
-    expect(moved.status()).toBe(200);
-
-    await page.goto(`${baseUrl()}/jobs/${job.id}#bought-parts`);
+    await page.goto(`${baseUrl()}/jobs/${job.id}`);
     const line = page.locator(`[data-bought-part="${description}"]`);
     await line.waitFor();
+    // Every part is here, so the job moves to Install.
+    await page.getByRole("combobox", { name: /^Move to/ }).selectOption("install");
+    await page.getByRole("button", { name: "Move to Install" }).click();
+    await page.getByText("Moved to Install.").waitFor();
     expect(await line.locator("[data-state]").getAttribute("data-state")).toBe("received");
     expect(await line.locator("[data-fit-flag]").count()).toBe(0);
     await shot(page, "job-bought-parts-desk");
