@@ -18,6 +18,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
+    ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
     ...(role === "owner"
       ? [
           { href: "/staff", label: "Staff" },

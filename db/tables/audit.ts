@@ -15,6 +15,10 @@ export const AUDIT_KINDS = [
   "photo_deleted",
   "coating_run_deleted",
   "settings_changed",
+  "price_changed",
+  "quote_sent",
+  "quote_approved",
+  "quote_declined",
 ] as const;
 export type AuditKind = (typeof AUDIT_KINDS)[number];
 
