@@ -143,6 +143,7 @@ function PriceItemForm({ item, onSaved, onCancel }: { item?: PriceItem; onSaved:
   const label = item ? `Change ${item.name}` : "Add a price";
   return (
     <form onSubmit={onSubmit} noValidate aria-label={label} className="space-y-3 rounded-md border border-line p-3">
+      {!item && <h3 className="font-bold">Add a price</h3>}
       <FormAlert failure={form.failure} />
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <Field label="What" name="name" errors={form.fields.name} hint="As the customer reads it on a quote.">
