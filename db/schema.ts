@@ -68,6 +68,18 @@ export interface ShopTable {
   deposit_fixed_cents: ColumnType<number, number | undefined, number>;
   /** Printed under every quote; the customer ticks that they accept them. */
   quote_terms: ColumnType<string, string | undefined, string>;
+  /** The shop's street address (migration 0011), printed on the shop sheet. */
+  address: ColumnType<string, string | undefined, string>;
+  /** 1 when the customer's status page shows "likely ready around …" (migration 0011). */
+  show_predicted_date: ColumnType<number, number | undefined, number>;
+  /** Bumped by every save of the shop's details, so a stale form is refused (migration 0011). */
+  settings_version: ColumnType<number, number | undefined, number>;
+}
+
+/** A day the shop is closed (migration 0011): business days skip it everywhere. */
+export interface ShopHolidayTable {
+  day: string;
+  name: ColumnType<string, string | undefined, string>;
 }
 
 export interface CustomerTable {
@@ -163,6 +175,7 @@ export interface Database extends RecordsTables, KitSpecTables, MessagingTables,
   job: JobTable;
   stage_event: StageEventTable;
   outbox: OutboxTable;
+  shop_holiday: ShopHolidayTable;
 }
 
 export type Staff = Selectable<StaffTable>;
