@@ -19,6 +19,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/customers", label: "Customers" },
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
+    ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }] : []),
     { href: "/calculator", label: "Calculator" },
     ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
     ...(role === "owner"

@@ -6,6 +6,7 @@ import { formatWorkOrder } from "@/server/jobs/work-order";
 import { withCheckDigit } from "@/server/vehicles/vin";
 import type { DB } from "./index";
 import { seedMoney } from "./seed-money";
+import { seedBoughtParts } from "./seed-bought-parts";
 import { seedRecords } from "./seed-records";
 import type { JobScope, Priority, Role, Stage } from "./schema";
 
@@ -125,5 +126,6 @@ export async function seedDemo(db: DB, password = process.env.DEMO_PASSWORD || D
     await trx.updateTable("shop").set({ next_work_order: seq }).where("id", "=", 1).execute();
     await seedRecords(trx, today);
     await seedMoney(trx, today);
+    await seedBoughtParts(trx, today);
   });
 }

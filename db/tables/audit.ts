@@ -19,6 +19,8 @@ export const AUDIT_KINDS = [
   "quote_sent",
   "quote_approved",
   "quote_declined",
+  "bought_part_deleted",
+  "clock_corrected",
 ] as const;
 export type AuditKind = (typeof AUDIT_KINDS)[number];
 

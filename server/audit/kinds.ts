@@ -22,4 +22,6 @@ export const AUDIT_KIND_LABELS: Record<AuditKind, string> = {
   quote_sent: "Quote sent",
   quote_approved: "Quote approved by the customer",
   quote_declined: "Quote declined by the customer",
+  bought_part_deleted: "Bought-in part deleted",
+  clock_corrected: "Clock entry corrected",
 };
