@@ -48,6 +48,7 @@ const PAGES: PageCase[] = [
   { name: "calculator", path: "/calculator" },
   { name: "staff", path: "/staff" },
   { name: "settings", path: "/settings" },
+  { name: "prices", path: "/prices" },
   { name: "audit", path: "/audit" },
   { name: "account", path: "/account" },
   { name: "not-found-address", path: "/no-such-page", notFound: true },
