@@ -21,6 +21,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/coating", label: "Coating" },
     ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }, { href: "/job-costs", label: "Hours" }] : []),
     { href: "/calculator", label: "Calculator" },
+    ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
     ...(role === "owner"
       ? [
           { href: "/staff", label: "Staff" },
