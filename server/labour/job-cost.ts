@@ -43,3 +43,32 @@ export async function setLabourRate(db: DB, owner: StaffUser, cents: number) {
     });
   });
 }
+
+/**
+ * What the job's approved quote and change orders priced (before tax): labour hours and amount,
+ * bought-in parts, outside coating, and the subtotal the margin is counted from. Null when nothing
+ * is approved yet. Quote lines carry no stage, so the comparison by stage is of hours only in total.
+ */
+export async function quotedFor(db: DB, jobId: number) {
+  const lines = await db
+    .selectFrom("quote_line as l")
+    .innerJoin("quote as q", "q.id", "l.quote_id")
+    .select(["l.kind", "l.quantity_milli", "l.amount_cents"])
+    .where("q.job_id", "=", jobId)
+    .where("q.status", "=", "approved")
+    .execute();
+  if (lines.length === 0) return null;
+  let labourMilliHours = 0;
+  const cents = { labour: 0, part: 0, fabrication: 0, coating: 0, fee: 0 } as Record<string, number>;
+  for (const l of lines) {
+    cents[l.kind] = (cents[l.kind] ?? 0) + l.amount_cents;
+    if (l.kind === "labour") labourMilliHours += l.quantity_milli;
+  }
+  return {
+    labourHours: labourMilliHours / 1000,
+    labourCents: cents.labour,
+    partsCents: cents.part,
+    coatingCents: cents.coating,
+    subtotalCents: Object.values(cents).reduce((a, b) => a + b, 0),
+  };
+}

@@ -21,12 +21,17 @@ export interface JobCostRow {
   unpricedParts: number;
   totalCents: number;
   byStage: Record<string, number>;
+  /** The approved quote and change orders before tax; null when none is approved. */
+  quotedCents: number | null;
+  quotedHours: number | null;
+  /** Cost so far less the quote: above 0 is over the quote. */
+  overQuoteCents: number | null;
 }
 
 /**
  * Each job's cost from the clock entries started in the period (split by stage at its moves) and
  * all its bought-in parts, plus hours by stage across those jobs and hours per person per week.
- * Quotes are not built yet, so "over or under quote" has no figure here.
+ * A job with an approved quote is compared with it in total (quote lines carry no stage).
  */
 export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar, now = new Date()) {
   const start = shopDayStart(period.from, cal.timeZone);
@@ -40,13 +45,20 @@ export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar
     .where("c.started_at", "<", end)
     .execute();
   const jobIds = [...new Set(entries.map((e) => e.job_id))];
-  const [jobs, events, lines] = jobIds.length
+  const [jobs, events, lines, quoteLines] = jobIds.length
     ? await Promise.all([
         db.selectFrom("job").innerJoin("customer", "customer.id", "job.customer_id").select(["job.id", "job.work_order", "job.stage", "customer.name"]).where("job.id", "in", jobIds).execute(),
         db.selectFrom("stage_event").select(["job_id", "at", "to_stage"]).where("job_id", "in", jobIds).orderBy("id").execute(),
         db.selectFrom("bought_part").select(["job_id", "quantity", "unit_cost_cents"]).where("job_id", "in", jobIds).execute(),
+        db
+          .selectFrom("quote_line as l")
+          .innerJoin("quote as q", "q.id", "l.quote_id")
+          .select(["q.job_id", "l.kind", "l.quantity_milli", "l.amount_cents"])
+          .where("q.job_id", "in", jobIds)
+          .where("q.status", "=", "approved")
+          .execute(),
       ])
-    : [[], [], []];
+    : [[], [], [], []];
   const group = <T extends { job_id: number }>(rows: T[]) => {
     const m = new Map<number, T[]>();
     for (const r of rows) m.set(r.job_id, [...(m.get(r.job_id) ?? []), r]);
@@ -55,6 +67,7 @@ export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar
   const entriesBy = group(entries);
   const eventsBy = group(events);
   const linesBy = group(lines);
+  const quotedBy = group(quoteLines);
   const totals = new Map<string, number>();
   const rows: JobCostRow[] = jobs.map((j) => {
     const byStage = msByStage(
@@ -64,7 +77,11 @@ export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar
     );
     for (const [stage, ms] of byStage) totals.set(stage, (totals.get(stage) ?? 0) + ms);
     const cost = jobCost({ rateCentsPerHour: rate, msByStage: byStage, boughtLines: (linesBy.get(j.id) ?? []).map((l) => ({ quantity: l.quantity, unitCostCents: l.unit_cost_cents })) });
+    const q = quotedBy.get(j.id);
+    const quotedCents = q ? q.reduce((n, l) => n + l.amount_cents, 0) : null;
+    const quotedHours = q ? q.filter((l) => l.kind === "labour").reduce((n, l) => n + l.quantity_milli, 0) / 1000 : null;
     return {
+      quotedCents, quotedHours, overQuoteCents: quotedCents === null ? null : cost.totalCents - quotedCents,
       jobId: j.id, workOrder: j.work_order, customerName: j.name, stage: j.stage, hours: cost.hours, labourCents: cost.labourCents, partsCents: cost.partsCents,
       unpricedParts: cost.unpricedParts, totalCents: cost.totalCents, byStage: Object.fromEntries(cost.stages.map((s) => [s.stage, s.hours])),
     };
@@ -87,7 +104,10 @@ const money = (cents: number) => (cents / 100).toFixed(2);
 
 export function jobCostsCsv(r: JobCostsReport) {
   return toCsv(
-    ["work_order", "customer", "stage_now", "hours", "labour_dollars", "bought_in_dollars", "unpriced_bought_in_lines", "cost_dollars", "quoted_dollars"],
-    r.jobs.map((j) => [j.workOrder, j.customerName, STAGE_LABELS[j.stage], j.hours.toFixed(2), money(j.labourCents), money(j.partsCents), j.unpricedParts, money(j.totalCents), ""]),
+    ["work_order", "customer", "stage_now", "hours", "quoted_hours", "labour_dollars", "bought_in_dollars", "unpriced_bought_in_lines", "cost_dollars", "quoted_dollars", "over_quote_dollars"],
+    r.jobs.map((j) => [
+      j.workOrder, j.customerName, STAGE_LABELS[j.stage], j.hours.toFixed(2), j.quotedHours === null ? "" : j.quotedHours.toFixed(2), money(j.labourCents), money(j.partsCents), j.unpricedParts,
+      money(j.totalCents), j.quotedCents === null ? "" : money(j.quotedCents), j.overQuoteCents === null ? "" : money(j.overQuoteCents),
+    ]),
   );
 }

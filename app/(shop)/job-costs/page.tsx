@@ -65,16 +65,16 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
           <>
             <HoursByStageChart stages={report.stages} />
             <table className="mt-2 w-full max-w-xl text-left text-sm">
-              <thead className="border-b border-line text-ink-soft"><tr><th className="py-1">Stage</th><th className="text-right">Hours</th><th className="text-right">Quoted</th></tr></thead>
+              <thead className="border-b border-line text-ink-soft"><tr><th className="py-1">Stage</th><th className="text-right">Hours</th></tr></thead>
               <tbody>
                 {report.stages.map((s) => (
-                  <tr key={s.stage} className="border-b border-line/60"><td className="py-1">{s.label}</td><td className="text-right tabular-nums">{hours(s.hours)}</td><td className="text-right text-ink-soft">—</td></tr>
+                  <tr key={s.stage} className="border-b border-line/60"><td className="py-1">{s.label}</td><td className="text-right tabular-nums">{hours(s.hours)}</td></tr>
                 ))}
               </tbody>
             </table>
           </>
         )}
-        <p className="mt-2 text-sm text-ink-soft">Quotes are not built yet: once jobs carry approved quotes, the Quoted column fills in and each job shows whether it ran over or under its quote, by stage.</p>
+        <p className="mt-2 text-sm text-ink-soft">Quote lines carry no stage, so jobs are compared with their approved quotes in total (below), not stage by stage.</p>
       </Section>
 
       <Section title="Jobs" id="jobs">
@@ -84,7 +84,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
           <div className="overflow-x-auto">
             <table className="w-full min-w-[760px] text-left text-sm">
               <thead className="border-b border-line text-ink-soft">
-                <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th></tr>
+                <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th><th className="text-right">Over / under</th></tr>
               </thead>
               <tbody>
                 {report.jobs.map((j) => (
@@ -95,7 +95,10 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
                     <td className="text-right tabular-nums">{formatCents(j.labourCents)}</td>
                     <td className="text-right tabular-nums">{formatCents(j.partsCents)}{j.unpricedParts ? ` (+${j.unpricedParts} not priced)` : ""}</td>
                     <td className="text-right font-semibold tabular-nums">{formatCents(j.totalCents)}</td>
-                    <td className="text-right text-ink-soft">—</td>
+                    <td className="text-right tabular-nums">{j.quotedCents === null ? "no approved quote" : formatCents(j.quotedCents)}</td>
+                    <td className={`text-right font-semibold tabular-nums ${j.overQuoteCents !== null && j.overQuoteCents > 0 ? "text-stop-700" : ""}`}>
+                      {j.overQuoteCents === null ? "—" : j.overQuoteCents > 0 ? `over by ${formatCents(j.overQuoteCents)}` : `under by ${formatCents(-j.overQuoteCents)}`}
+                    </td>
                   </tr>
                 ))}
               </tbody>

@@ -5,7 +5,7 @@ import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
 import type { JobDetail } from "@/server/jobs/queries";
 import { STAGE_LABELS } from "@/server/jobs/stages";
-import { loadJobCost } from "@/server/labour/job-cost";
+import { loadJobCost, quotedFor } from "@/server/labour/job-cost";
 import { jobClockEntries, jobHours } from "@/server/labour/queries";
 import { formatShopTime } from "@/server/records/calendar";
 import { shopSettings } from "@/server/shop/queries";
@@ -54,49 +54,67 @@ export async function LabourSection({ job, user }: { job: JobDetail; user: Staff
   );
 }
 
-/** What the job has cost so far (office and owner). Quotes are not built yet; the comparison goes here. */
+/** What the job has cost so far against its approved quote (office and owner). */
 export async function JobCostSection({ job }: { job: JobDetail }) {
-  const cost = await loadJobCost(getDb(), job.id);
+  const db = getDb();
+  const [cost, quoted] = await Promise.all([loadJobCost(db, job.id), quotedFor(db, job.id)]);
+  const q = (cents: number | undefined) => (quoted && cents !== undefined ? formatCents(cents) : "—");
+  const margin = quoted ? quoted.subtotalCents - cost.totalCents : null;
   return (
     <Section title="Job cost" id="job-cost">
       <table className="w-full text-left text-sm">
         <thead className="border-b border-line text-ink-soft">
-          <tr><th className="py-1">Stage</th><th className="text-right">Actual hours</th><th className="text-right">Labour</th><th className="text-right">Quoted</th></tr>
+          <tr><th className="py-1">What</th><th className="text-right">Hours</th><th className="text-right">Cost</th><th className="text-right">Quoted</th></tr>
         </thead>
         <tbody>
           {cost.stages.map((s) => (
             <tr key={s.stage} className="border-b border-line/60">
-              <td className="py-1">{stageLabel(s.stage)}</td>
+              <td className="py-1">Labour: {stageLabel(s.stage)}</td>
               <td className="text-right tabular-nums">{hours(s.hours)}</td>
               <td className="text-right tabular-nums">{cost.rateCents ? formatCents(s.labourCents) : "—"}</td>
               <td className="text-right text-ink-soft">—</td>
             </tr>
           ))}
           <tr className="border-b border-line/60">
+            <td className="py-1 font-semibold">Labour in all</td>
+            <td className="text-right tabular-nums">{hours(cost.hours)}{quoted ? <span className="text-ink-soft"> of {hours(quoted.labourHours)}</span> : null}</td>
+            <td className="text-right tabular-nums">{cost.rateCents ? formatCents(cost.labourCents) : "—"}</td>
+            <td className="text-right tabular-nums">{q(quoted?.labourCents)}</td>
+          </tr>
+          <tr className="border-b border-line/60">
             <td className="py-1">Bought-in parts{cost.unpricedParts ? ` (${cost.unpricedParts} not priced)` : ""}</td>
             <td />
             <td className="text-right tabular-nums">{formatCents(cost.partsCents)}</td>
-            <td className="text-right text-ink-soft">—</td>
+            <td className="text-right tabular-nums">{q(quoted?.partsCents)}</td>
           </tr>
           <tr className="border-b border-line/60">
             <td className="py-1">Outside coating</td>
             <td />
             <td className="text-right text-ink-soft">not recorded</td>
-            <td className="text-right text-ink-soft">—</td>
+            <td className="text-right tabular-nums">{q(quoted?.coatingCents)}</td>
           </tr>
         </tbody>
         <tfoot>
           <tr>
             <td className="pt-1 font-bold">Cost so far</td>
-            <td className="text-right font-bold tabular-nums">{hours(cost.hours)}</td>
-            <td className="text-right font-bold tabular-nums" data-job-cost-total>{formatCents(cost.totalCents)}</td>
             <td />
+            <td className="text-right font-bold tabular-nums" data-job-cost-total>{formatCents(cost.totalCents)}</td>
+            <td className="text-right font-bold tabular-nums">{q(quoted?.subtotalCents)}</td>
           </tr>
+          {margin !== null && (
+            <tr>
+              <td className="pt-1 font-bold">Margin so far</td>
+              <td colSpan={3} className={`text-right font-bold tabular-nums ${margin < 0 ? "text-stop-700" : "text-ok-700"}`}>{margin < 0 ? "Over the quote by " : ""}{formatCents(Math.abs(margin))}</td>
+            </tr>
+          )}
         </tfoot>
       </table>
       <p className="mt-2 text-sm text-ink-soft">
-        {cost.rateCents ? `Labour at the shop's rate of ${formatCents(cost.rateCents)} an hour.` : "The shop's labour rate is not set: the owner sets it in Settings, and labour is counted from then on."}{" "}
-        Quotes are not built yet: once a job has an approved quote, its quoted hours and prices show in the Quoted column and the margin so far below. Coating runs carry no price yet, so outside coating is not in the cost.
+        {cost.rateCents ? `Labour at the shop's cost of ${formatCents(cost.rateCents)} an hour (Settings).` : "The shop's labour cost per hour is not set: the owner sets it in Settings, and labour is counted from then on."}{" "}
+        {quoted
+          ? "Quoted: the approved quote and change orders before tax; quote lines carry no stage, so labour is compared in total."
+          : "No approved quote yet: once the customer approves one, its prices show in the Quoted column and the margin so far below."}{" "}
+        Coating runs carry no price yet, so outside coating is not in the cost.
       </p>
     </Section>
   );
