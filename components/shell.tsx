@@ -20,6 +20,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
     { href: "/calculator", label: "Calculator" },
+    ...(role === "tech" ? [] : [{ href: "/reports", label: "Reports" }]),
     ...(role === "owner"
       ? [
           { href: "/staff", label: "Staff" },

@@ -71,4 +71,31 @@ describe.skipIf(!enabled)("the office's desk", () => {
     await shot(phone, "overview-phone");
     await phone.context().close();
   });
+
+  it("a report draws its chart over its table, and its CSV downloads", async () => {
+    const page = await signInWhereTheyLand(browser, "owner");
+    await page.goto(`${baseUrl()}/reports?report=throughput`);
+    const table = page.getByTestId("report-table");
+    await table.waitFor();
+    expect(await table.locator("tbody tr").count()).toBeGreaterThan(0);
+    const chart = page.getByTestId("report-chart");
+    await chart.locator("svg.recharts-surface").first().waitFor();
+    expect(await chart.locator(".recharts-cartesian-axis-tick").count()).toBeGreaterThan(2);
+    await shot(page, "report-throughput-desk");
+    await page.getByRole("link", { name: "Time in each stage" }).click();
+    await page.waitForURL(/report=stage-times/);
+    await page.getByTestId("report-chart").locator("svg.recharts-surface").first().waitFor();
+    await shot(page, "report-stage-times-desk");
+    const csv = await page.request.get(`${baseUrl()}${await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")}`);
+    expect(csv.status()).toBe(200);
+    expect((await csv.text()).split("\r\n")[0]).toBe("stage,visits_ended,median_business_days,p90_business_days");
+    await page.context().close();
+
+    const phone = await signInWhereTheyLand(browser, "office", PHONE);
+    await phone.goto(`${baseUrl()}/reports?report=coaters`);
+    await phone.getByTestId("report-table").waitFor();
+    expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await shot(phone, "report-coaters-phone");
+    await phone.context().close();
+  });
 });

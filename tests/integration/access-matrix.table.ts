@@ -58,6 +58,7 @@ export const ACCESS_MATRIX: Row[] = [
 
   // Pages.
   staffPage("PAGE /board"),
+  officePage("PAGE /reports"),
   staffPage("PAGE /calculator"),
   staffPage("PAGE /coating"),
   staffPage("PAGE /customers"),
