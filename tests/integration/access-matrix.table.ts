@@ -88,6 +88,7 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/board"),
   // The office's desk: overview and reports.
   officeUp("GET /api/overview"),
+  anyStaff("GET /api/search"),
   officeUp("GET /api/reports/stage-times"),
   officeUp("GET /api/reports/throughput"),
   officeUp("GET /api/reports/coaters"),
