@@ -20,6 +20,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/customers", label: "Customers" },
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
+    ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }] : []),
     { href: "/calculator", label: "Calculator" },
     ...(role === "tech" ? [] : [{ href: "/reports", label: "Reports" }]),
     ...(role === "owner"

@@ -1,5 +1,6 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { AuditTables } from "./tables/audit";
+import type { BoughtPartsTables } from "./tables/bought-parts";
 import type { KitSpecTables } from "./tables/kit-spec";
 import type { MessagingTables } from "./tables/messaging";
 import type { RecordsTables } from "./tables/records";
@@ -59,6 +60,9 @@ export interface ShopTable {
   leak_box_min_psig: ColumnType<number, number | undefined, number>;
   leak_box_max_psig: ColumnType<number, number | undefined, number>;
   leak_calibration_months: ColumnType<number, number | undefined, number>;
+  /** What an hour of labour costs, cents; 0 until the owner sets it (migration 0012). */
+  labour_rate_cents: ColumnType<number, number | undefined, number>;
+  next_purchase_order: ColumnType<number, number | undefined, number>;
   /** The shop's street address (migration 0011), printed on the shop sheet. */
   address: ColumnType<string, string | undefined, string>;
   /** 1 when the customer's status page shows "likely ready around …" (migration 0011). */
@@ -156,7 +160,7 @@ export interface OutboxTable {
   replaced_at: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
-export interface Database extends RecordsTables, KitSpecTables, MessagingTables, AuditTables {
+export interface Database extends RecordsTables, KitSpecTables, MessagingTables, AuditTables, BoughtPartsTables {
   staff: StaffTable;
   session: SessionTable;
   shop: ShopTable;

@@ -15,6 +15,8 @@ export const AUDIT_KINDS = [
   "photo_deleted",
   "coating_run_deleted",
   "settings_changed",
+  "bought_part_deleted",
+  "clock_corrected",
 ] as const;
 export type AuditKind = (typeof AUDIT_KINDS)[number];
 

@@ -18,4 +18,6 @@ export const AUDIT_KIND_LABELS: Record<AuditKind, string> = {
   photo_deleted: "Photo deleted",
   coating_run_deleted: "Coating run deleted",
   settings_changed: "Shop setting changed",
+  bought_part_deleted: "Bought-in part deleted",
+  clock_corrected: "Clock entry corrected",
 };
