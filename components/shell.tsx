@@ -22,6 +22,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/coating", label: "Coating" },
     ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }] : []),
     { href: "/calculator", label: "Calculator" },
+    ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
     ...(role === "tech" ? [] : [{ href: "/reports", label: "Reports" }]),
     ...(role === "owner"
       ? [

@@ -52,6 +52,7 @@ const PAGES: PageCase[] = [
   { name: "calculator", path: "/calculator" },
   { name: "staff", path: "/staff" },
   { name: "settings", path: "/settings" },
+  { name: "prices", path: "/prices" },
   { name: "audit", path: "/audit" },
   { name: "account", path: "/account" },
   { name: "not-found-address", path: "/no-such-page", notFound: true },
@@ -172,7 +173,7 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
       await menu.click();
       await shot(page, `menu-open-${role}-phone`);
       const labels = await nav.getByRole("link").allTextContents();
-      expect(labels).toEqual([...(role === "owner" ? ["Overview"] : []), "Board", "Jobs", "Customers", "Trucks", "Coating", ...(role === "tech" ? [] : ["Parts"]), "Calculator", ...(role === "owner" ? ["Reports", "Staff", "Settings", "Audit"] : [])]);
+      expect(labels).toEqual([...(role === "owner" ? ["Overview"] : []), "Board", "Jobs", "Customers", "Trucks", "Coating", ...(role === "tech" ? [] : ["Parts"]), "Calculator", ...(role === "tech" ? [] : ["Prices", "Reports"]), ...(role === "owner" ? ["Staff", "Settings", "Audit"] : [])]);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 
       for (const label of labels) {

@@ -73,6 +73,7 @@ export const ACCESS_MATRIX: Row[] = [
   ownerPage("PAGE /audit"),
   staffPage("PAGE /account"),
   ownerPage("PAGE /settings"),
+  officePage("PAGE /prices"),
   staffPage("PAGE /trucks"),
   staffPage("PAGE /trucks/[id]"),
   officePage("PAGE /trucks/new"),
@@ -181,4 +182,17 @@ export const ACCESS_MATRIX: Row[] = [
   ownerOnly("PATCH /api/shop-settings"),
   anyStaff("GET /api/shop-settings/leak-test-procedure"),
   ownerOnly("PATCH /api/shop-settings/leak-test-procedure"),
+
+  // Money: the office prices and sends quotes; the owner keeps the price list, tax rate and deposit.
+  officeUp("GET /api/price-items"),
+  ownerOnly("POST /api/price-items"),
+  ownerOnly("PATCH /api/price-items/[id]"),
+  officeUp("GET /api/shop-settings/money"),
+  ownerOnly("PUT /api/shop-settings/money"),
+  officeUp("GET /api/jobs/[id]/quotes"),
+  officeUp("POST /api/jobs/[id]/quotes"),
+  officeUp("GET /api/jobs/[id]/quotes/kit-lines"),
+  officeUp("GET /api/quotes/[id]"),
+  officeUp("PUT /api/quotes/[id]"),
+  officeUp("POST /api/quotes/[id]/send"),
 ];

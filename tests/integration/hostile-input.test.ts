@@ -7,6 +7,7 @@ import { appEntries } from "../support/app-tree";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { request, sessionCookieFor } from "../support/http";
+import { makePriceItemAndQuote } from "../support/money";
 
 /**
  * Every mutating route handler, fed hostile input by the owner (who may do the most): wrong types,
@@ -29,6 +30,8 @@ beforeAll(async () => {
   const link = await issueStatusLink(db(), { id: owner.id, name: owner.name, email: owner.email, role: "owner" }, job.id);
   const part = await db().selectFrom("part").select("id").where("job_id", "=", job.id).executeTakeFirstOrThrow();
   const row = await db().selectFrom("job").select(["customer_id", "truck_id"]).where("id", "=", job.id).executeTakeFirstOrThrow();
+  const money = await makePriceItemAndQuote(db(), job.id, owner.id);
+  Object.assign(ids, { quotes: String(money.quoteId), "price-items": String(money.priceItemId) });
   Object.assign(ids, { jobs: String(job.id), parts: String(part.id), customers: String(row.customer_id), trucks: String(row.truck_id), staff: target.id, "status-links": String(link.id) });
   const at = new Date().toISOString();
   const po = await db().insertInto("purchase_order").values({ number: "PO-26-0001", supplier: "Test Drive Supply", ordered_on: "2026-03-02", expected_on: null, created_by: owner.id, created_at: at }).returning("id").executeTakeFirstOrThrow();
