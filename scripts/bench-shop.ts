@@ -66,6 +66,30 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
         insEmail.run(id, jobId, `Your truck is at ${to}`, `<p>Your truck moved to ${to}.</p>`, `Your truck moved to ${to}.`, iso);
       }
     };
+    // Bought-in parts and hours: a wet kit's six lines per job (received and fitted once the job is
+    // past Install, to order or on order before it) and two clock entries per job.
+    const insPo = sqlite.prepare("insert into purchase_order (number, supplier, ordered_on, expected_on, notes, created_by, created_at) values (?, ?, ?, ?, '', ?, ?)");
+    const insBought = sqlite.prepare(
+      "insert into bought_part (job_id, kind, description, part_number, quantity, supplier, unit_cost_cents, state, purchase_order_id, expected_on, received_quantity, created_at, updated_at) values (?, ?, ?, '', ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+    );
+    const insClock = sqlite.prepare("insert into clock_entry (staff_id, job_id, stage, started_at, ended_at) values (?, ?, ?, ?, ?)");
+    const KIT: [string, string, number, number][] = [["pto", "10-bolt PTO", 1, 118_500], ["pump", "Gear pump 3.2 cu in/rev", 1, 64_900], ["valve", "Relief valve", 1, 18_950], ["hose", "Pressure hose 3/4 in", 2, 9_475], ["fitting", "Breakaway coupler pair", 2, 7_820], ["control", "Dash air switch", 1, 6_240]];
+    const SUPPLIERS = ["Bench Fluid Power", "Bench Drive Supply", "Bench Hose and Fitting"];
+    let poSeq = 0;
+    const bought = (jobId: number, stage: string, tech: string, jobIndex: number) => {
+      const past = ["install", "wire", "ready", "delivered"].includes(stage);
+      const day = new Date(now.getTime() - (jobIndex % 60) * 86_400_000).toISOString().slice(0, 10);
+      const poId = past || jobIndex % 3 === 0 ? Number(insPo.run(formatWorkOrder("PO", 2026, ++poSeq), SUPPLIERS[jobIndex % 3], day, day, staff[1].id, iso).lastInsertRowid) : null;
+      KIT.forEach(([kind, description, quantity, cost], k) => {
+        const state = past ? (stage === "install" ? "received" : "installed") : poId ? "ordered" : "needed";
+        insBought.run(jobId, kind, description, quantity, SUPPLIERS[(jobIndex + k) % 3], cost, state, poId, poId ? day : null, past ? quantity : 0, iso, iso);
+      });
+      const start = new Date(now.getTime() - (jobIndex % 90) * 86_400_000 - 5 * 3_600_000);
+      for (let h = 0; h < 2; h++) {
+        const from = new Date(start.getTime() + h * 3 * 3_600_000);
+        insClock.run(tech, jobId, stage === "delivered" ? "install" : stage, from.toISOString(), new Date(from.getTime() + 2 * 3_600_000).toISOString());
+      }
+    };
     const positions = new Map<string, number>();
     for (let j = 0; j < opts.jobs; j++) {
       const truck = trucks[j % trucks.length];
@@ -81,7 +105,10 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
       );
       const steps = route.slice(0, route.indexOf(stage) + 1);
       steps.forEach((s, i) => insEvent.run(jobId, i === 0 ? null : steps[i - 1], s, techs[j % techs.length], iso));
-      if (opts.history) history(jobId, scope, steps, techs[j % techs.length]);
+      if (opts.history) {
+        history(jobId, scope, steps, techs[j % techs.length]);
+        bought(jobId, stage, techs[j % techs.length], j);
+      }
     }
     sqlite.prepare("update shop set next_work_order = ?").run(opts.jobs + 1);
   });
