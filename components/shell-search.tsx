@@ -130,8 +130,8 @@ export function ShellSearch() {
           <circle cx="11" cy="11" r="7" />
           <path d="m20 20-3.5-3.5" />
         </svg>
-        <span className="sr-only sm:not-sr-only">Search</span>
-        <kbd className="hidden rounded border border-line px-1.5 text-xs font-normal text-ink-soft xl:inline">/</kbd>
+        <span className="sr-only sm:not-sr-only xl:sr-only 2xl:not-sr-only">Search</span>
+        <kbd className="hidden rounded border border-line px-1.5 text-xs font-normal text-ink-soft 2xl:inline">/</kbd>
       </button>
       {open && (
         <div
