@@ -8,7 +8,7 @@ export const sources = {
   mobileReservoirSizing:
     "Reservoir sizing guidance: about 3 × pump flow per minute in industrial practice (ANSI/NFPA T3.16.2 is the recommended practice), down to about 1 × in mobile equipment",
   tankHeatRule:
-    "Vendor rules of thumb for a bare steel tank in free air (2.0–2.5 Btu/h·ft²·°F); an estimate, not a published standard",
+    "Equipment suppliers' rules of thumb for a bare steel tank in free air (2.0–2.5 Btu/h·ft²·°F); an estimate, not a published standard",
   oilDensity: "From memory: mineral hydraulic oil ISO VG 46 about 0.87 kg/L (data sheets give 0.86–0.88)",
   airSpace: "From memory: leave about 10 % air space above the oil",
   commonPractice: "Common practice, no published source",
