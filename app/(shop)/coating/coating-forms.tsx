@@ -14,7 +14,10 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
 /** Sends parts from one or more jobs out to a coater on a new run. */
 export function SendRunForm({ vendors, candidates, today }: { vendors: VendorView[]; candidates: CoatingCandidate[]; today: string }) {
   const router = useRouter();
-  const [vendorId, setVendorId] = useState<string>(vendors[0] ? String(vendors[0].id) : "");
+  const [picked, setVendorId] = useState<string>(vendors[0] ? String(vendors[0].id) : "");
+  // The list can grow under the form (the shop's first coater, added on this page): the choice is
+  // always one on the list, the first when none was picked, never a blank the select does not show.
+  const vendorId = vendors.some((v) => String(v.id) === picked) ? picked : vendors[0] ? String(vendors[0].id) : "";
   const [sentOn, setSentOn] = useState(today);
   const [promisedOn, setPromisedOn] = useState<string | null>(null);
   const [chosen, setChosen] = useState<number[]>([]);
@@ -43,7 +46,12 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
     },
   );
 
-  if (vendors.length === 0) return <p className="text-ink-soft">Add a coater first (Coaters, on this page).</p>;
+  if (vendors.length === 0)
+    return (
+      <p className="text-ink-soft">
+        Parts go out to a coater on the shop&apos;s list: <a href="#vendors" className="inline-flex min-h-11 items-center font-semibold text-bay-900 underline">add a coater first</a>.
+      </p>
+    );
 
   const partError = (partId: number) => {
     const index = chosen.indexOf(partId);
