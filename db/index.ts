@@ -2,6 +2,7 @@ import { mkdirSync } from "node:fs";
 import { dirname } from "node:path";
 import SQLite from "better-sqlite3";
 import { Kysely, type KyselyPlugin, type RootOperationNode, SqliteDialect, type SqliteDatabase } from "kysely";
+import { type Checkpointer, startCheckpointer } from "./checkpoint";
 import { databasePath } from "./paths";
 import type { Database } from "./schema";
 
@@ -117,16 +118,26 @@ export function createDb(path = databasePath()): DB {
   return new Kysely<Database>({ dialect: new SqliteDialect({ database: withStatementCache(openSqlite(path)) }), plugins: [writeCounter] });
 }
 
-const holder = globalThis as unknown as { __baywrightDb?: { path: string; db: DB; sqlite: SQLite.Database } };
+const holder = globalThis as unknown as { __baywrightDb?: { path: string; db: DB; sqlite: SQLite.Database; checkpointer: Checkpointer | null } };
 
-/** One connection per process (per database path), kept across dev-server reloads. */
+/**
+ * One connection per process (per database path), kept across dev-server reloads. Its WAL
+ * checkpoints run on a worker thread (db/checkpoint.ts), never inside a request's commit.
+ */
 export function getDb(): DB {
   const path = databasePath();
   if (!holder.__baywrightDb || holder.__baywrightDb.path !== path) {
+    void holder.__baywrightDb?.checkpointer?.stop();
     const sqlite = openSqlite(path);
-    holder.__baywrightDb = { path, sqlite, db: new Kysely<Database>({ dialect: new SqliteDialect({ database: withStatementCache(sqlite) }), plugins: [writeCounter] }) };
+    const checkpointer = path === ":memory:" ? null : startCheckpointer(sqlite, path);
+    holder.__baywrightDb = { path, sqlite, checkpointer, db: new Kysely<Database>({ dialect: new SqliteDialect({ database: withStatementCache(sqlite) }), plugins: [writeCounter] }) };
   }
   return holder.__baywrightDb.db;
+}
+
+/** The server connection's checkpoint worker, when it has one (for tests and the bench). */
+export function serverCheckpointer(): Checkpointer | null {
+  return holder.__baywrightDb?.checkpointer ?? null;
 }
 
 /** Changes whenever any data may have changed, in this process or another. */
@@ -139,5 +150,6 @@ export function dataGeneration(): string {
 export async function closeDb() {
   const current = holder.__baywrightDb;
   holder.__baywrightDb = undefined;
+  await current?.checkpointer?.stop();
   if (current) await current.db.destroy();
 }

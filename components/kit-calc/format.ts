@@ -21,7 +21,7 @@ export function fmt(value: number, digits = 1): string {
   return f.format(value);
 }
 
-// Metric equivalents shown beside the US figures; every factor is an exact definition (NIST Handbook 44, App. C).
+// Metric equivalents shown beside the US figures; every factor is an exact definition (volume: NIST Handbook 44, App. C; pressure and power: NIST SP 811, App. B, from memory).
 export const metric = {
   mm: (inches: number) => `${fmt(inches * METRES_PER_INCH * 1000, 0)} mm`,
   m: (feet: number) => `${fmt(feet * METRES_PER_FOOT, 1)} m`,

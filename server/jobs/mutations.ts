@@ -11,7 +11,8 @@ import { checkMove, GATED_STAGES, NO_RECORDS } from "./gates";
 import { findJob } from "./queries";
 import type { JobPatch, MoveInput, NewJobInput } from "./schemas";
 import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
-import { formatWorkOrder } from "./work-order";
+import { formatWorkOrder, workOrderYear } from "./work-order";
+import { DEFAULT_SHOP_TIME_ZONE } from "@/server/records/settings";
 
 type Trx = Transaction<Database>;
 
@@ -66,20 +67,20 @@ async function columnIds(trx: Trx, stage: Stage, exceptId?: number) {
   return (await q.orderBy("position").orderBy("id").execute()).map((r) => r.id);
 }
 
-export async function createJob(db: DB, actor: StaffUser, input: NewJobInput) {
+export async function createJob(db: DB, actor: StaffUser, input: NewJobInput, now = new Date()) {
   const id = await db.transaction().execute(async (trx) => {
     const customer = await trx.selectFrom("customer").select("id").where("id", "=", input.customerId).executeTakeFirst();
     if (!customer) throw fieldError("customerId", "That customer is not on file.");
     await assertTruckOfCustomer(trx, input.truckId, input.customerId);
     await assertTech(trx, input.assignedTechId);
-    const shop = await trx.selectFrom("shop").select(["work_order_prefix", "next_work_order"]).where("id", "=", 1).executeTakeFirst();
+    const shop = await trx.selectFrom("shop").select(["work_order_prefix", "next_work_order", "time_zone"]).where("id", "=", 1).executeTakeFirst();
     const seq = shop?.next_work_order ?? 1;
-    const at = new Date().toISOString();
+    const at = now.toISOString();
     const position = (await columnIds(trx, "queued")).length;
     const job = await trx
       .insertInto("job")
       .values({
-        work_order: formatWorkOrder(shop?.work_order_prefix ?? "WO", new Date().getFullYear(), seq),
+        work_order: formatWorkOrder(shop?.work_order_prefix ?? "WO", workOrderYear(now, shop?.time_zone ?? DEFAULT_SHOP_TIME_ZONE), seq),
         customer_id: input.customerId, truck_id: input.truckId, scope: input.scope, description: input.description,
         stage: "queued", position, due_on: input.dueOn ?? null, assigned_tech_id: input.assignedTechId ?? null,
         priority: input.priority, notes: input.notes, version: 1, created_at: at, updated_at: at,

@@ -1,7 +1,8 @@
 import { sources } from "./sources";
 
-// Recommended oil velocities in hydraulic lines. These are guidance from hose makers' sizing charts and
-// fluid-power textbooks, not a standard: no SAE or ISO number gives them. Kept as configuration so the
+// Recommended oil velocities in hydraulic lines. These are guidance from hose and component makers' sizing
+// guides (and, for suction and pressure lines, fluid-power textbooks), not a standard: no SAE or ISO number gives
+// them. The return-line band is found in makers' guides only. All three are from memory. Kept as configuration so the
 // shop can see (and the UI can print) where each band comes from.
 
 export interface VelocityBand {
@@ -12,11 +13,11 @@ export interface VelocityBand {
 
 export const velocityBandSources = {
   suction:
-    "Hose makers' sizing guidance and fluid-power textbooks: suction lines 2–4 ft/s (guidance, not a standard)",
+    "Hose makers' sizing guides and fluid-power textbooks, from memory: suction lines 2–4 ft/s (guidance, not a standard)",
   return:
-    "Hose makers' sizing guidance and fluid-power textbooks: return lines 10–15 ft/s (guidance, not a standard)",
+    "Hose and component makers' sizing guides, from memory: return lines 10–15 ft/s (makers' guidance only, not a standard)",
   pressure:
-    "Hose makers' sizing guidance and fluid-power textbooks: pressure lines 15–20 ft/s at 500–3000 psi (guidance, not a standard)",
+    "Hose makers' sizing guides and fluid-power textbooks, from memory: pressure lines 15–20 ft/s at 500–3000 psi (guidance, not a standard)",
   lowPressure: `${sources.commonPractice}: below 500 psi a pressure line is held to the return-line band, 10–15 ft/s, because its friction loss is a larger share of the little pressure there is`,
 } as const;
 

@@ -141,7 +141,7 @@ export function computeKitSpec(rawInput: KitCalcInput): KitSpec {
   // Trade reference: 1 hp = 2544 Btu/h.
   const dissipationHp = dissipationBtuPerHr / BTU_PER_HOUR_PER_HORSEPOWER;
 
-  // NIST Handbook 44, Appendix C: gallons to litres, psi to bar.
+  // NIST Handbook 44, Appendix C: gallons to litres; NIST SP 811, Appendix B (from memory): psi to bar.
   const flowLpm = litresFromGallons(flowGpm);
   const pressureBar = barFromPsi(input.workingPressurePsi);
   // Fluid-power textbook metric form: kW = L/min × bar / 600.

@@ -106,7 +106,7 @@ const entries = {
   "heat.dissipationHp": {
     label: "Heat the tank sheds, in horsepower (estimate)",
     formula: "hp = Btu/h / 2544",
-    source: `${practiceSources.heatShed}; 1 hp = 2544 Btu/h (rounded)`,
+    source: `${practiceSources.heatShed}; 1 hp = 2544 Btu/h (rounded; ${sources.nistSp811})`,
   },
   "metric.flowLpm": {
     label: "Pump flow (metric)",
@@ -116,7 +116,7 @@ const entries = {
   "metric.pressureBar": {
     label: "Working pressure (metric)",
     formula: "bar = psi × 6894.757 / 100,000",
-    source: sources.nistUnits,
+    source: sources.nistSp811,
   },
   "metric.hydraulicKw": {
     label: "Hydraulic power (metric)",

@@ -4,18 +4,19 @@
 export const CUBIC_INCHES_PER_GALLON = 231;
 // NIST Handbook 44, Appendix C: 1 US gallon = 3.785411784 L exactly.
 export const LITRES_PER_GALLON = 3.785411784;
-// NIST Handbook 44, Appendix C: 1 in = 2.54 cm, 1 ft = 0.3048 m, 1 lb = 0.45359237 kg exactly; standard gravity 9.80665 m/s².
+// NIST Handbook 44, Appendix C: 1 in = 2.54 cm, 1 ft = 0.3048 m, 1 lb = 0.45359237 kg exactly.
 export const METRES_PER_INCH = 0.0254;
 export const METRES_PER_FOOT = 0.3048;
 export const KILOGRAMS_PER_POUND = 0.45359237;
+// NIST SP 811, Appendix B (from memory): standard gravity 9.80665 m/s², which defines the pound-force.
 export const STANDARD_GRAVITY_M_PER_S2 = 9.80665;
 export const NEWTONS_PER_POUND_FORCE = KILOGRAMS_PER_POUND * STANDARD_GRAVITY_M_PER_S2;
 
-// NIST Handbook 44, Appendix C lists 6894.757 Pa; derived here from the exact pound-force and inch so no rounding creeps in.
+// NIST SP 811, Appendix B lists 6894.757 Pa (from memory); derived here from the exact pound-force and inch so no rounding creeps in.
 export const PASCALS_PER_PSI = NEWTONS_PER_POUND_FORCE / METRES_PER_INCH ** 2;
-// NIST Handbook 44, Appendix C: 1 bar = 100,000 Pa.
+// NIST SP 811, Appendix B (from memory): 1 bar = 100,000 Pa.
 export const PASCALS_PER_BAR = 100_000;
-// NIST Handbook 44, Appendix C: 1 hp = 550 ft·lbf/s (listed as 745.699872 W, rounded).
+// NIST SP 811, Appendix B (from memory): 1 hp = 550 ft·lbf/s (listed as 745.699872 W, rounded).
 export const WATTS_PER_HORSEPOWER = 550 * METRES_PER_FOOT * NEWTONS_PER_POUND_FORCE;
 export const FOOT_POUNDS_PER_MINUTE_PER_HORSEPOWER = 33_000;
 
@@ -36,7 +37,7 @@ export const LPM_BAR_PER_KILOWATT = 600;
 export const gallonsFromCubicInches = (cubicInches: number): number => cubicInches / CUBIC_INCHES_PER_GALLON;
 // NIST Handbook 44, Appendix C: 3.785411784 L per gallon.
 export const litresFromGallons = (gallons: number): number => gallons * LITRES_PER_GALLON;
-// NIST Handbook 44, Appendix C: psi → Pa, then 10⁵ Pa per bar.
+// NIST SP 811, Appendix B (from memory): psi → Pa, then 10⁵ Pa per bar.
 export const barFromPsi = (psi: number): number => (psi * PASCALS_PER_PSI) / PASCALS_PER_BAR;
 // NIST Handbook 44, Appendix C: 144 in² per ft².
 export const squareFeetFromSquareInches = (squareInches: number): number => squareInches / SQUARE_INCHES_PER_SQUARE_FOOT;

@@ -40,7 +40,7 @@ export type LeakTestOutcome = {
 
 // Rankine = °F + 459.67, exact by the definition of the two scales.
 export const RANKINE_OFFSET_F = 459.67;
-// Standard atmosphere at sea level, 101.325 kPa (NIST Handbook 44, Appendix C units).
+// Standard atmosphere at sea level, 101.325 kPa = 14.696 psi (NIST SP 811, Appendix B; digits from memory).
 export const SEA_LEVEL_PSIA = 14.696;
 // The figures below are the published defaults of the shop's procedure (procedure.ts holds the settings).
 // UL 142 §42.2.1: air test pressure, horizontal cylindrical tanks 3–5 psig, rectangular 1.5–3 psig.

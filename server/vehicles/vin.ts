@@ -23,18 +23,24 @@ export function vinCheckDigit(vin: string): string {
   return r === 10 ? "X" : String(r);
 }
 
-export type VinProblem = "length" | "characters" | "check_digit";
+// 49 CFR 565.15 (from memory): the 10th character is the model year, from a table that leaves out
+// I, O and Q (as every position does) and also U, Z and the digit 0.
+export const MODEL_YEAR_PATTERN = /^[A-HJ-NPR-TV-Y1-9]$/;
+
+export type VinProblem = "length" | "characters" | "model_year" | "check_digit";
 
 export function vinProblem(raw: string): VinProblem | null {
   const vin = raw.trim().toUpperCase();
   if (vin.length !== 17) return "length";
   if (!VIN_PATTERN.test(vin)) return "characters";
+  if (!MODEL_YEAR_PATTERN.test(vin[9])) return "model_year";
   return vinCheckDigit(vin) === vin[8] ? null : "check_digit";
 }
 
 export const VIN_MESSAGES: Record<VinProblem, string> = {
   length: "A VIN has 17 characters.",
   characters: "A VIN uses digits and capital letters except I, O and Q.",
+  model_year: "The 10th character (model year) cannot be U, Z or 0; re-read the VIN from the door pillar or title.",
   check_digit: "The 9th character (check digit) does not match the rest; re-read the VIN from the door pillar or title.",
 };
 

@@ -62,6 +62,25 @@ function countMoves(page: Page) {
   return seen;
 }
 
+/** A new install-only job the office creates and moves (through the API) into Wire & verify, with no sign-off yet. */
+async function wireJobWithoutSignOff(browser: Browser): Promise<string> {
+  const office = await browser.newContext(DESK);
+  const page = await signIn(office, "office");
+  const post = (path: string, data: unknown) => page.request.post(`${baseUrl()}${path}`, { headers: { origin: baseUrl() }, data });
+  const listed = (await (await page.request.get(`${baseUrl()}/api/jobs`)).json()) as { jobs: { customerId: number; truckId: number }[] };
+  const truck = listed.jobs[0]!;
+  const created = await post("/api/jobs", { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `Dash indicator rewire ${Date.now().toString(36)}` });
+  expect(created.status(), await created.text()).toBe(201);
+  let job = (await created.json()).job as { id: number; workOrder: string; version: number };
+  for (const toStage of ["install", "wire"]) {
+    const moved = await post(`/api/jobs/${job.id}/moves`, { toStage, version: job.version });
+    expect(moved.status(), await moved.text()).toBe(200);
+    job = { ...job, version: (await moved.json()).job.version };
+  }
+  await office.close();
+  return job.workOrder;
+}
+
 async function focusedCard(page: Page) {
   return page.evaluate(() => document.activeElement?.closest("li[data-card]")?.getAttribute("data-card") ?? null);
 }
@@ -234,8 +253,9 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
   it("a refused move stays put, says what it needs, and takes the focus", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "tech");
-    // A Wire & verify card that still needs something (its sign-off) before Ready for pickup.
-    const wo = (await page.locator('ul[data-stage="wire"] > li[data-card]', { hasText: "Needs before it can move to Ready for pickup" }).first().getAttribute("data-card"))!;
+    // A Wire & verify job of this test's own, whose sign-off is not started, so nothing another test does can meet it.
+    const wo = await wireJobWithoutSignOff(browser);
+    await page.reload();
     await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
     await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
     const alert = page.locator(`li[data-card="${wo}"] [role="alert"]`);
@@ -298,22 +318,40 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
         }
         return null;
       }, [x, y] as const);
+    const middle = { x: PHONE.viewport.width / 2, y: start.y };
+    // The page itself notes, every frame, which column is under the middle of the screen, so a slow test machine misses no step.
+    await page.evaluate(([px, py]) => {
+      const seen: string[] = [];
+      (window as unknown as { __columnsSeen: string[] }).__columnsSeen = seen;
+      const look = () => {
+        for (const el of document.elementsFromPoint(px, py)) {
+          if (el.closest("[data-drag-overlay]")) continue;
+          const stage = el.closest<HTMLElement>("[data-drop-stage]")?.dataset.dropStage;
+          if (stage) {
+            if (seen.at(-1) !== stage) seen.push(stage);
+            break;
+          }
+        }
+        if (seen.length < 8) requestAnimationFrame(look);
+      };
+      look();
+    }, [middle.x, middle.y] as const);
+    const columnsSeen = () => page.evaluate(() => (window as unknown as { __columnsSeen: string[] }).__columnsSeen);
     await touch("touchStart", start);
     await page.waitForTimeout(300);
     for (let i = 1; i <= 10; i++) await touch("touchMove", { x: start.x - ((start.x - 8) * i) / 10, y: start.y });
-    const middle = { x: PHONE.viewport.width / 2, y: start.y };
-    const seen: string[] = [];
     // Held at the left edge, the board steps back one column at a time: Outside coating, then Pressure test.
-    for (let t = 0; t < 60; t++) {
-      const stage = await stageAt(middle.x, middle.y);
-      if (stage && seen.at(-1) !== stage) seen.push(stage);
-      if (stage === "pressure_test") break;
-      await page.waitForTimeout(100);
-    }
-    expect(seen).toEqual(["install", "coating", "pressure_test"]);
-    for (let i = 1; i <= 5; i++) await touch("touchMove", { x: 8 + ((middle.x - 8) * i) / 5, y: middle.y });
+    await expect.poll(columnsSeen, { timeout: 15_000 }).toContain("pressure_test");
+    // Off the edge, the board stops stepping; the card goes to the column under the finger.
+    await touch("touchMove", middle);
+    await page.waitForTimeout(700);
+    const seen = await columnsSeen();
+    expect(seen.slice(0, 3), "one column at a time").toEqual(["install", "coating", "pressure_test"]);
+    const under = (await stageAt(middle.x, middle.y))!;
+    // A slow machine may let one more step happen before the finger leaves the edge; either way the card goes where the finger is.
+    expect(["pressure_test", "fabricate"]).toContain(under);
     await touch("touchEnd");
-    await waitForCard(page, wo, "pressure_test");
+    await waitForCard(page, wo, under);
     await page.waitForTimeout(1000);
     await page.screenshot({ path: "screenshots/board-phone-touch-drop.png" });
     const dropped = (await page.locator(`li[data-card="${wo}"]`).boundingBox())!;
@@ -339,9 +377,9 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
   it("axe finds nothing serious on the board at desk and phone size, with a move's confirmation and a refusal showing", async () => {
     for (const size of [DESK, PHONE]) {
       const context = await browser.newContext(size);
+      const wo = await wireJobWithoutSignOff(browser);
       const page = await signIn(context, "owner");
       expect(await axeFindings(page)).toEqual([]);
-      const wo = (await page.locator('ul[data-stage="wire"] > li[data-card]', { hasText: "Needs before it can move to Ready for pickup" }).first().getAttribute("data-card"))!;
       await page.locator(`li[data-card="${wo}"] select[data-move-to]`).selectOption("ready");
       await page.getByRole("button", { name: `Move ${wo} to Ready for pickup` }).click();
       await page.locator(`li[data-card="${wo}"] [role="alert"]`).waitFor();

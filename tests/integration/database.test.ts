@@ -1,7 +1,7 @@
 import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import * as health from "@/app/api/health/route";
-import { createDb, openSqlite, readPragmas } from "@/db";
+import { createDb, openSqlite, readPragmas, serverCheckpointer } from "@/db";
 import { seedDemo } from "@/db/seed";
 import { migrateToLatest, migrations, migrator } from "@/migrations";
 import { vinProblem } from "@/server/vehicles/vin";
@@ -32,6 +32,29 @@ describe("the database", () => {
     expect(await read("journal_mode")).toEqual({ journal_mode: "wal" });
     expect(await read("synchronous")).toEqual({ synchronous: 1 });
     expect(await read("foreign_keys")).toEqual({ foreign_keys: 1 });
+  });
+
+  it("checkpoints the server connection's WAL on a worker thread, never inside a request's commit", async () => {
+    const read = async (name: string) => (await sql.raw<Record<string, unknown>>(`pragma ${name}`).execute(db())).rows[0];
+    expect(await read("wal_autocheckpoint")).toEqual({ wal_autocheckpoint: 0 });
+    const checkpointer = serverCheckpointer();
+    expect(checkpointer?.running).toBe(true);
+    await sql`create table if not exists checkpoint_probe (n integer)`.execute(db());
+    for (let i = 0; i < 50; i++) await sql`insert into checkpoint_probe (n) values (${i})`.execute(db());
+    const result = await checkpointer!.now();
+    // Every page the WAL holds is now in the database file (busy 0: nothing stopped it).
+    expect(result.busy).toBe(0);
+    expect(result.log).toBeGreaterThan(0);
+    expect(result.checkpointed).toBe(result.log);
+    await sql`drop table checkpoint_probe`.execute(db());
+  });
+
+  it("goes back to checkpointing on its own connection if the worker stops", async () => {
+    const checkpointer = serverCheckpointer()!;
+    await checkpointer.stop();
+    expect(checkpointer.running).toBe(false);
+    const read = async (name: string) => (await sql.raw<Record<string, unknown>>(`pragma ${name}`).execute(db())).rows[0];
+    expect(await read("wal_autocheckpoint")).toEqual({ wal_autocheckpoint: 1000 });
   });
 
   it("reports healthy once migrated", async () => {

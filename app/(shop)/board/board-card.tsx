@@ -100,7 +100,7 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
         )}
         {card.gate && (
           <div>
-            <dt className="sr-only">Needs before it can move to {card.gate.label}</dt>
+            <dt className="sr-only">Before it can move to {card.gate.label}</dt>
             <dd className={gateMet ? "text-ok-700" : "text-warn-700"}>
               {gateMet ? <IconCheck /> : <IconStop />} {gateMet ? `Has what ${card.gate.label} needs` : `Needs before it can move to ${card.gate.label}: ${card.gate.unmet.length} ${card.gate.unmet.length === 1 ? "thing" : "things"}`}
               {!gateMet && (
