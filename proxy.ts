@@ -2,7 +2,7 @@ import { type NextRequest, NextResponse } from "next/server";
 import { CROSS_SITE_MESSAGE, writeOrigin } from "@/server/http/origin";
 import { contentSecurityPolicy, pathDecodes, securityHeaders } from "@/server/http/security-headers";
 
-const SIGNED_IN_AREAS = ["/board", "/jobs", "/customers", "/trucks", "/coating", "/calculator", "/staff", "/account", "/settings", "/audit"];
+const SIGNED_IN_AREAS = ["/board", "/jobs", "/customers", "/trucks", "/coating", "/calculator", "/staff", "/account", "/settings", "/audit", "/reports"];
 
 /**
  * Runs before every page, route handler and server action:
@@ -22,7 +22,8 @@ export function proxy(req: NextRequest) {
     return refuse(403, "cross_site", CROSS_SITE_MESSAGE);
   }
 
-  if (SIGNED_IN_AREAS.some((p) => pathname === p || pathname.startsWith(`${p}/`)) && !req.cookies.has("bw_session")) {
+  // "/" is the office's overview: signed in only, like the areas.
+  if ((pathname === "/" || SIGNED_IN_AREAS.some((p) => pathname === p || pathname.startsWith(`${p}/`))) && !req.cookies.has("bw_session")) {
     const url = req.nextUrl.clone();
     url.pathname = "/sign-in";
     url.search = "";

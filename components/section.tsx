@@ -15,3 +15,13 @@ export function Section({ title, id, actions, children }: { title: string; id?: 
 export function NotBuiltNote({ children }: { children: React.ReactNode }) {
   return <p className="rounded-md border-2 border-dashed border-line p-3 text-ink-soft"><strong className="text-ink">Not built yet.</strong> {children}</p>;
 }
+
+/** Stands in for a section of a page while its records are still being read (the rest of the page is already shown). */
+export function SectionLoading({ title }: { title: string }) {
+  return (
+    <section aria-busy="true" className="rounded-lg border border-line bg-panel p-4">
+      <h2 className="mb-3 text-lg font-bold">{title}</h2>
+      <p className="text-ink-soft">Loading…</p>
+    </section>
+  );
+}

@@ -11,7 +11,9 @@ export const ROLE_WORDS: Record<Role, string> = { owner: "Owner", office: "Offic
  * account page is the signed-in name beside the menu.
  */
 export function navItemsFor(role: Role): NavItem[] {
+  const desk = role === "tech" ? [] : [{ href: "/", label: "Overview" }];
   return [
+    ...desk,
     { href: "/board", label: "Board" },
     { href: "/jobs", label: "Jobs" },
     { href: "/customers", label: "Customers" },
@@ -43,7 +45,7 @@ export function Shell({ user, children }: { user: Pick<StaffUser, "name" | "role
       </a>
       <header className="border-b border-line bg-panel">
         <div className="mx-auto flex max-w-[1600px] flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
-          <Link href="/board" className="flex min-h-11 items-center gap-2 font-bold tracking-tight">
+          <Link href={user.role === "tech" ? "/board" : "/"} className="flex min-h-11 items-center gap-2 font-bold tracking-tight">
             <BaywrightMark />
             <span className="text-lg">Baywright</span>
           </Link>

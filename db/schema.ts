@@ -59,6 +59,18 @@ export interface ShopTable {
   leak_box_min_psig: ColumnType<number, number | undefined, number>;
   leak_box_max_psig: ColumnType<number, number | undefined, number>;
   leak_calibration_months: ColumnType<number, number | undefined, number>;
+  /** The shop's street address (migration 0011), printed on the shop sheet. */
+  address: ColumnType<string, string | undefined, string>;
+  /** 1 when the customer's status page shows "likely ready around …" (migration 0011). */
+  show_predicted_date: ColumnType<number, number | undefined, number>;
+  /** Bumped by every save of the shop's details, so a stale form is refused (migration 0011). */
+  settings_version: ColumnType<number, number | undefined, number>;
+}
+
+/** A day the shop is closed (migration 0011): business days skip it everywhere. */
+export interface ShopHolidayTable {
+  day: string;
+  name: ColumnType<string, string | undefined, string>;
 }
 
 export interface CustomerTable {
@@ -154,6 +166,7 @@ export interface Database extends RecordsTables, KitSpecTables, MessagingTables,
   job: JobTable;
   stage_event: StageEventTable;
   outbox: OutboxTable;
+  shop_holiday: ShopHolidayTable;
 }
 
 export type Staff = Selectable<StaffTable>;

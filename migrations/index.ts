@@ -8,6 +8,7 @@ import * as m0006 from "./0006_email_quiet_period";
 import * as m0007 from "./0007_procedure_accounts_trucks";
 import * as m0009 from "./0009_audit_trail";
 import * as m0010 from "./0010_indexes";
+import * as m0011 from "./0011_desk";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
@@ -20,6 +21,7 @@ export const migrations: Record<string, Migration> = {
   "0007_procedure_accounts_trucks": m0007,
   "0009_audit_trail": m0009,
   "0010_indexes": m0010,
+  "0011_desk": m0011,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

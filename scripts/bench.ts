@@ -54,6 +54,33 @@ async function measureGet(url: string, cookie: string, seconds = SECONDS) {
   return { p50: percentile(times, 50), p95: percentile(times, 95), rps: result.requests.average, errors: result.errors + result.non2xx };
 }
 
+/**
+ * A server page as a person waits for it: 16 connections, each timing the first bytes (the page's
+ * head, sent before the sections that read their own records) and the last.
+ */
+async function measurePage(url: string, cookie: string, seconds = SECONDS) {
+  const first: number[] = [];
+  const last: number[] = [];
+  const until = Date.now() + seconds * 1000;
+  await Promise.all(
+    Array.from({ length: CONNECTIONS }, async () => {
+      while (Date.now() < until) {
+        const t0 = performance.now();
+        const res = await fetch(url, { headers: { cookie } });
+        const reader = res.body!.getReader();
+        let chunk = await reader.read();
+        first.push(performance.now() - t0);
+        while (!chunk.done) chunk = await reader.read();
+        last.push(performance.now() - t0);
+        if (res.status !== 200) throw new Error(`${url} answered ${res.status}`);
+      }
+    }),
+  );
+  first.sort((a, b) => a - b);
+  last.sort((a, b) => a - b);
+  return { firstByteP95Ms: Math.round(percentile(first, 95)), p95Ms: Math.round(percentile(last, 95)), perSecond: Math.round(last.length / seconds) };
+}
+
 /** Moves per second: 16 workers each shuttle their own cards between Queued and Fabricate. */
 async function measureMoves(base: string, cookie: string, cards: { id: number; version: number; stage: string }[]) {
   const until = Date.now() + SECONDS * 1000;
@@ -260,6 +287,7 @@ async function main() {
     await measureGetQuick(`${base}/jobs/${activeJob}`, cookie);
     await measureGetQuick(`${base}/jobs`, cookie);
     const jobPage = await measureGet(`${base}/jobs/${activeJob}`, cookie);
+    const jobPageStreamed = await measurePage(`${base}/jobs/${activeJob}`, cookie);
     const jobsList = await measureGet(`${base}/jobs`, cookie);
     const search = await measureGet(`${base}/jobs?q=Customer%2012`, cookie);
     const readOnly = await mixedLoad(base, cookie, { clients: MIXED_CLIENTS, seconds: MIXED_SECONDS, moves: false, jobIds, movers: [] });
@@ -312,7 +340,7 @@ async function main() {
       boardFirstLoadJs: { scripts: js.scripts, gzipKb: Math.round(js.gzipKb), rawKb: Math.round(js.rawKb) },
       statusPage: statusAndPhotos.statusPage,
       photo5MB: statusAndPhotos.photo5MB,
-      jobPage: { p50Ms: Math.round(jobPage.p50), p95Ms: Math.round(jobPage.p95), rps: Math.round(jobPage.rps) },
+      jobPage: { p50Ms: Math.round(jobPage.p50), p95Ms: Math.round(jobPage.p95), rps: Math.round(jobPage.rps), firstByteP95Ms: jobPageStreamed.firstByteP95Ms, lastByteP95Ms: jobPageStreamed.p95Ms },
       jobsList: { p50Ms: Math.round(jobsList.p50), p95Ms: Math.round(jobsList.p95), rps: Math.round(jobsList.rps) },
       search: { p50Ms: Math.round(search.p50), p95Ms: Math.round(search.p95), rps: Math.round(search.rps) },
       mixedLoad: mixed,
@@ -332,6 +360,7 @@ async function main() {
     console.log(`board page first-load JS: ${results.boardFirstLoadJs.gzipKb} kB gzipped in ${js.scripts} scripts (goal < 200 kB)`);
     if (statusAndPhotos.statusPage) console.log(`status page: p50 ${Math.round(statusAndPhotos.statusPage.p50Ms)} ms, p95 ${Math.round(statusAndPhotos.statusPage.p95Ms)} ms at ${statusAndPhotos.statusPage.concurrency} concurrent`);
     if (statusAndPhotos.photo5MB) console.log(`5 MB photo, upload check to thumbnail: median ${Math.round(statusAndPhotos.photo5MB.medianMs)} ms over ${statusAndPhotos.photo5MB.runsMs.length} runs`);
+    console.log(`job page first bytes p95 ${results.jobPage.firstByteP95Ms} ms, last byte p95 ${results.jobPage.lastByteP95Ms} ms`);
     console.log(`job page p95 ${results.jobPage.p95Ms} ms, Jobs list p95 ${results.jobsList.p95Ms} ms, search p95 ${results.search.p95Ms} ms at ${CONNECTIONS} connections (goal < 100 ms)`);
     console.log(`mixed load, ${mixed.clients} clients for ${mixed.seconds} s: ${mixed.rps} req/s, p50 ${mixed.p50Ms} ms, p95 ${mixed.p95Ms} ms, p99 ${mixed.p99Ms} ms, ${mixed.errors} errors, ${mixed.non2xx} not 2xx; read-only p95 ${readOnly.p95Ms} ms`);
     console.log(`100,000 jobs: board p95 ${board100k.p95Ms} ms (${board100k.ratioTo5k}x the 5,000-job figure), ${Object.entries(big100k).map(([k, v]) => `${k} ${v.p95Ms} ms (${v.ratioTo5k}x)`).join(", ")}`);

@@ -31,7 +31,7 @@ export const FIELD_PATHS = {
 } as const;
 
 export type KitField = keyof typeof FIELD_PATHS;
-export type TankShape = "round" | "box";
+export type TankShape = "round" | "box" | "d";
 export type KitFormState = Record<KitField, string> & { shape: TankShape };
 
 export interface FieldSpec {

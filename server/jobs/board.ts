@@ -66,13 +66,15 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
     query = query.where("job.due_on", "<=", until);
   }
   if (filter.q) {
-    // Search by work order, unit number, or the last six of the VIN, as the shop reads them off a truck.
+    // Search by work order, unit number, the last six of the VIN (as the shop reads them off a
+    // truck) or a word of the work description.
     const q = `%${filter.q.replace(/[%_\\]/g, (c) => `\\${c}`).toUpperCase()}%`;
     query = query.where((eb) =>
       eb.or([
         eb(sql`upper(job.work_order)`, "like", sql`${q} escape '\\'`),
         eb(sql`upper(truck.unit_number)`, "like", sql`${q} escape '\\'`),
         eb(sql`substr(truck.vin, 12, 6)`, "like", sql`${q} escape '\\'`),
+        eb(sql`upper(job.description)`, "like", sql`${q} escape '\\'`),
       ]),
     );
   }

@@ -4,6 +4,7 @@ import { sql } from "kysely";
 import { STAGES, type Stage } from "@/db/schema";
 import { notFound } from "@/server/http/errors";
 import { parseId } from "@/server/http/respond";
+import { BOARD_STAGES } from "./stages";
 
 /** The job as staff see it, with names resolved. */
 export async function findJob(db: DB, id: number) {
@@ -43,6 +44,12 @@ export interface JobListFilter {
   limit?: number;
   /** Rows to skip (page 2 of 50 skips 50). */
   offset?: number;
+  /** Open jobs past their due date (`late`) or due from today to `dueSoonUntil` (`soon`); needs `today`. */
+  due?: "late" | "soon";
+  today?: string;
+  dueSoonUntil?: string;
+  /** Jobs with a customer e-mail that failed to send. */
+  emailFailed?: boolean;
 }
 
 // The orders below repeat, word for word, the expressions of the indexes in
@@ -68,6 +75,13 @@ export async function listJobs(db: DB, filter: JobListFilter = {}) {
   if (filter.stage) query = query.where("job.stage", "=", filter.stage);
   if (filter.customerId) query = query.where("job.customer_id", "=", filter.customerId);
   if (filter.truckId) query = query.where("job.truck_id", "=", filter.truckId);
+  if (filter.due && filter.today) {
+    query = query.where("job.stage", "in", BOARD_STAGES).where("job.due_on", "is not", null);
+    query = filter.due === "late" ? query.where("job.due_on", "<", filter.today) : query.where("job.due_on", ">=", filter.today).where("job.due_on", "<=", filter.dueSoonUntil ?? filter.today);
+  }
+  if (filter.emailFailed) {
+    query = query.where("job.id", "in", (eb) => eb.selectFrom("outbox").select("outbox.job_id").where("outbox.status", "=", "failed").where("outbox.replaced_at", "is", null));
+  }
   if (filter.q && [...filter.q].length >= 3) {
     // Three letters or more: the trigram index (job_search) finds them anywhere in the work order,
     // unit number or customer name, ignoring case, as one quoted phrase (the user's quotes doubled).

@@ -13,9 +13,29 @@ export const OIL_POUNDS_PER_GALLON = 7.26;
 // From memory: leave about 10 % air space above the oil for foam, expansion and the returning trailer oil.
 export const DEFAULT_AIR_SPACE_FRACTION = 0.1;
 
-// Common practice, no published source: a suction line past 6 ft adds enough friction (worse with cold oil)
-// that atmospheric pressure struggles to fill a gear pump.
-export const SUCTION_LINE_LONG_FT = 6;
+// From memory: gear-pump makers commonly allow about 5 inHg of vacuum at the inlet; the pump's data sheet rules.
+export const DEFAULT_PUMP_INLET_LIMIT_IN_HG = 5;
+
+// ISO 3448 (from memory): an ISO VG 46 oil has 46 cSt at 40 °C by definition of the grade. Near freezing the
+// same oil is roughly ten times thicker, about 500 cSt (from memory; the oil's data sheet gives the real curve).
+export const DEFAULT_OIL_VISCOSITY_CST = { cold: 500, working: 46 } as const;
+
+// From memory: mineral hydraulic oil 0.87 kg/L, the same figure as the oil weight below.
+export const DEFAULT_OIL_SPECIFIC_GRAVITY = 0.87;
+
+// From memory: water taken as 1000 kg/m³ when specific gravity turns into density (999–1000 by reference temperature).
+export const WATER_KG_PER_M3 = 1000;
+
+// From memory: mineral oil grows about 0.07 % in volume per °C (data sheets 0.065–0.08 %), i.e. 0.0007 × 5/9 per °F.
+export const OIL_EXPANSION_PER_F = (0.0007 * 5) / 9;
+
+// Trade reference, reservoir layout: the suction pick-up sits at least 1 in above the bottom.
+export const DEFAULT_PICKUP_HEIGHT_IN = 1;
+
+// Common practice, no published source: with no duty cycle given the calculator takes the worst case, the pump
+// working at full pressure all the time, and no time over the relief.
+export const DEFAULT_DUTY_AT_WORKING_PERCENT = 100;
+export const DEFAULT_DUTY_OVER_RELIEF_PERCENT = 0;
 
 // Mobile-equipment reservoir sizing goes down to about 1 minute of pump flow (industrial practice about 3).
 export const RESERVOIR_MIN_MINUTES_OF_FLOW = 1;
@@ -36,7 +56,7 @@ export const practiceSources = {
   heatShed: sources.tankHeatRule,
   oilWeight: sources.oilDensity,
   airSpace: sources.airSpace,
-  suctionLineLong: sources.commonPractice,
   reservoirMinutes: sources.mobileReservoirSizing,
   reservoirCommonRange: sources.commonPractice,
+  dutyDefault: `blank shares: all the time at working pressure, the worst case (${sources.commonPractice})`,
 } as const;

@@ -20,4 +20,8 @@ export const sources = {
   oilDensity: "From memory: mineral hydraulic oil ISO VG 46 about 0.87 kg/L (data sheets give 0.86–0.88)",
   airSpace: "From memory: leave about 10 % air space above the oil",
   commonPractice: "Common practice, no published source",
+  viscosity:
+    "ISO 3448 viscosity grades (from memory: ISO VG 46 is 46 cSt at 40 °C); about 500 cSt near freezing is from memory, take the oil's data sheet",
+  inletLimit: "From memory: gear-pump makers commonly allow about 5 inHg at the inlet; the pump's data sheet rules",
+  oilExpansion: "From memory: mineral oil grows about 0.07 % per °C (data sheets 0.065–0.08 %)",
 } as const;

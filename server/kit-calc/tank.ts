@@ -1,6 +1,7 @@
 export type TankGeometry =
   | { shape: "round"; insideDiameterIn: number; lengthIn: number }
-  | { shape: "box"; lengthIn: number; widthIn: number; heightIn: number };
+  | { shape: "box"; lengthIn: number; widthIn: number; heightIn: number }
+  | { shape: "d"; lengthIn: number; widthIn: number; heightIn: number };
 
 export interface TankFill {
   fillDepthIn: number;
@@ -40,18 +41,42 @@ export function wettedArcLength(radius: number, depth: number): number {
   return 2 * radius * wettedHalfAngle(radius, depth);
 }
 
-// The segment area has no closed-form inverse; bisection on a function that only grows converges every time.
-export function roundFillDepthForFraction(insideDiameterIn: number, volumeFraction: number): number {
-  const radius = insideDiameterIn / 2;
-  const target = volumeFraction * circleArea(radius);
+// Bisection for the depth at which a cross-section that only grows with depth holds a given area.
+function depthForArea(height: number, target: number, areaAt: (depth: number) => number): number {
   let low = 0;
-  let high = insideDiameterIn;
-  for (let step = 0; step < 200 && high - low > insideDiameterIn * 1e-15; step++) {
+  let high = height;
+  for (let step = 0; step < 200 && high - low > height * 1e-15; step++) {
     const mid = (low + high) / 2;
-    if (circularSegmentArea(radius, mid) < target) low = mid;
+    if (areaAt(mid) < target) low = mid;
     else high = mid;
   }
   return (low + high) / 2;
+}
+
+// The segment area has no closed-form inverse; bisection on a function that only grows converges every time.
+export function roundFillDepthForFraction(insideDiameterIn: number, volumeFraction: number): number {
+  const radius = insideDiameterIn / 2;
+  return depthForArea(insideDiameterIn, volumeFraction * circleArea(radius), (depth) => circularSegmentArea(radius, depth));
+}
+
+/**
+ * A D-shaped tank's end: a flat side of height h against the frame rail, a semicircle of diameter h outboard,
+ * and a flat top and bottom between them, so the width W runs from the rail to the crown of the curve
+ * (W ≥ h/2; W = h/2 is a plain half-round). The section is a (W − h/2) × h rectangle plus a half circle of
+ * radius h/2. Filled to depth y the half circle holds half the circle's segment of depth y (it is cut by the
+ * circle's vertical diameter, a line of symmetry for every horizontal slice).
+ */
+export function dSectionArea(widthIn: number, heightIn: number, depthIn: number): number {
+  const radius = heightIn / 2;
+  const y = clamp(depthIn, 0, heightIn);
+  return (widthIn - radius) * y + circularSegmentArea(radius, y) / 2;
+}
+
+/** Wetted perimeter of the D section filled to depth y: the flat bottom, the rail side up to y and half the wetted arc. */
+export function dWettedPerimeter(widthIn: number, heightIn: number, depthIn: number): number {
+  const radius = heightIn / 2;
+  const y = clamp(depthIn, 0, heightIn);
+  return widthIn - radius + y + wettedArcLength(radius, y) / 2;
 }
 
 export function tankHeightIn(tank: TankGeometry): number {
@@ -59,11 +84,20 @@ export function tankHeightIn(tank: TankGeometry): number {
 }
 
 // Default fill: full less the air space, by volume. For a box that is the same fraction of the height;
-// for a round tube it is the depth whose segment holds that share of the circle.
+// for a round tube or a D it is the depth whose cross-section holds that share of the whole.
 export function defaultFillDepthIn(tank: TankGeometry, airSpaceFraction: number): number {
-  return tank.shape === "round"
-    ? roundFillDepthForFraction(tank.insideDiameterIn, 1 - airSpaceFraction)
-    : tank.heightIn * (1 - airSpaceFraction);
+  if (tank.shape === "round") return roundFillDepthForFraction(tank.insideDiameterIn, 1 - airSpaceFraction);
+  if (tank.shape === "d") {
+    const { widthIn, heightIn } = tank;
+    const full = dSectionArea(widthIn, heightIn, heightIn);
+    return depthForArea(heightIn, (1 - airSpaceFraction) * full, (depth) => dSectionArea(widthIn, heightIn, depth));
+  }
+  return tank.heightIn * (1 - airSpaceFraction);
+}
+
+/** The oil below a given depth, in³ (0 at or under the bottom, the whole tank at or over the top). */
+export function oilBelowDepthCuIn(tank: TankGeometry, depthIn: number): number {
+  return tankFill(tank, clamp(depthIn, 0, tankHeightIn(tank))).oilCuIn;
 }
 
 export function tankFill(tank: TankGeometry, fillDepthIn: number): TankFill {
@@ -78,6 +112,17 @@ export function tankFill(tank: TankGeometry, fillDepthIn: number): TankFill {
       oilCuIn: segment * tank.lengthIn,
       // Wetted shell (arc × length) plus the two wetted end segments.
       wettedAreaSqIn: wettedArcLength(radius, fillDepthIn) * tank.lengthIn + 2 * segment,
+    };
+  }
+  if (tank.shape === "d") {
+    const { widthIn, heightIn, lengthIn } = tank;
+    const section = dSectionArea(widthIn, heightIn, fillDepthIn);
+    return {
+      fillDepthIn,
+      totalCuIn: dSectionArea(widthIn, heightIn, heightIn) * lengthIn,
+      oilCuIn: section * lengthIn,
+      // Wetted bottom, rail side and curve along the length, plus the two wetted end sections.
+      wettedAreaSqIn: dWettedPerimeter(widthIn, heightIn, fillDepthIn) * lengthIn + 2 * section,
     };
   }
   const depth = Math.min(fillDepthIn, tank.heightIn);

@@ -41,3 +41,10 @@ export const litresFromGallons = (gallons: number): number => gallons * LITRES_P
 export const barFromPsi = (psi: number): number => (psi * PASCALS_PER_PSI) / PASCALS_PER_BAR;
 // NIST Handbook 44, Appendix C: 144 in² per ft².
 export const squareFeetFromSquareInches = (squareInches: number): number => squareInches / SQUARE_INCHES_PER_SQUARE_FOOT;
+
+// NIST SP 811, Appendix B (from memory): the conventional millimetre of mercury is 133.322387415 Pa (mercury at
+// 13.5951 g/cm³ under standard gravity), so an inch of mercury is 25.4 times that, 3386.389 Pa.
+export const PASCALS_PER_IN_HG = 25.4 * 133.322387415;
+// 1 cSt = 1 mm²/s = 10⁻⁶ m²/s by definition of the stokes (1 St = 1 cm²/s).
+export const SQUARE_METRES_PER_SECOND_PER_CST = 1e-6;
+export const CUBIC_METRES_PER_GALLON = LITRES_PER_GALLON / 1000;

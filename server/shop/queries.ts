@@ -15,3 +15,9 @@ export async function shopSettings(db: DB): Promise<ShopSettings> {
   if (!row) return DEFAULT_SHOP;
   return { name: row.name, phone: row.phone, timeZone: row.time_zone, workOrderPrefix: row.work_order_prefix };
 }
+
+/** The days the shop is closed, as YYYY-MM-DD: business days skip them everywhere. */
+export async function shopHolidays(db: DB): Promise<Set<string>> {
+  const rows = await db.selectFrom("shop_holiday").select("day").execute();
+  return new Set(rows.map((r) => r.day));
+}

@@ -41,7 +41,9 @@ export async function signIn(context: BrowserContext, role: keyof Omit<typeof DE
   await page.getByLabel("E-mail").fill(DEMO[role]);
   await page.getByLabel("Password").fill(DEMO.password);
   await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/board/);
+  // The office and owner land on the overview, a tech on the board; every journey starts from the board.
+  await page.waitForURL((url) => url.pathname === "/" || url.pathname === "/board");
+  if (new URL(page.url()).pathname !== "/board") await page.goto(`${baseUrl()}/board`);
   return page;
 }
 

@@ -50,8 +50,9 @@ export const ACCESS_MATRIX: Row[] = [
   row("PAGE /status/[token]", "404", "ok", "404", "404", "404", "404"),
   row("GET /status/[token]/photos/[photoId]", 404, "ok", 404, 404, 404, 404),
   // Signing in and first run (first run answers only while no one works here).
-  row("PAGE /", "→/board", "→/board", "→/board", "→/board", "→/board", "→/board"),
-  row("PAGE /sign-in", "ok", "ok", "→/board", "→/board", "→/board", "ok"),
+  // The overview is the office's and owner's first page; the bench starts at the board.
+  row("PAGE /", "→/sign-in", "→/sign-in", "→/board", "ok", "ok", "→/sign-in"),
+  row("PAGE /sign-in", "ok", "ok", "→/", "→/", "→/", "ok"),
   row("PAGE /first-run", "→/sign-in", "→/sign-in", "→/sign-in", "→/sign-in", "→/sign-in", "→/sign-in"),
   row("ACTION app/(auth)/first-run/actions.ts#createOwnerAction", "refused", "refused", "refused", "refused", "refused", "refused"),
 
@@ -84,6 +85,12 @@ export const ACCESS_MATRIX: Row[] = [
 
   // Board and jobs: a tech moves cards and edits a job's notes; office and owner create and plan.
   anyStaff("GET /api/board"),
+  // The office's desk: overview and reports.
+  officeUp("GET /api/overview"),
+  officeUp("GET /api/reports/stage-times"),
+  officeUp("GET /api/reports/throughput"),
+  officeUp("GET /api/reports/coaters"),
+  officeUp("GET /api/reports/workload"),
   anyStaff("GET /api/jobs"),
   officeUp("POST /api/jobs"),
   anyStaff("GET /api/jobs/[id]"),

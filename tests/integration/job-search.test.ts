@@ -5,11 +5,11 @@ import { ensureShop, makeCustomer, makeJob, makeTruck } from "../support/factori
 
 const { db } = useFreshDatabase();
 
-/** What the office means by search: the words appear anywhere in the work order, unit number or customer name, any case. */
+/** What the office means by search: the words appear anywhere in the work order, unit number, customer name or work description, any case. */
 async function expected(q: string) {
-  const rows = await db().selectFrom("job").innerJoin("truck", "truck.id", "job.truck_id").innerJoin("customer", "customer.id", "job.customer_id").select(["job.id", "job.work_order", "truck.unit_number", "customer.name"]).execute();
+  const rows = await db().selectFrom("job").innerJoin("truck", "truck.id", "job.truck_id").innerJoin("customer", "customer.id", "job.customer_id").select(["job.id", "job.work_order", "truck.unit_number", "customer.name", "job.description"]).execute();
   const needle = q.toLowerCase();
-  return rows.filter((r) => [r.work_order, r.unit_number, r.name].some((v) => v.toLowerCase().includes(needle))).map((r) => r.id).sort((a, b) => b - a);
+  return rows.filter((r) => [r.work_order, r.unit_number, r.name, r.description].some((v) => v.toLowerCase().includes(needle))).map((r) => r.id).sort((a, b) => b - a);
 }
 
 const found = async (q: string) => (await listJobs(db(), { q, limit: 500 })).map((r) => r.id);
@@ -40,5 +40,17 @@ describe("Jobs search", () => {
     await db().deleteFrom("job").where("id", "=", gone).execute();
     expect(await found("hollow")).toEqual(await expected("hollow"));
     expect(await found("hollow")).toHaveLength(1);
+  });
+
+  it("finds a word of the work description, and follows a changed description", async () => {
+    const job = await makeJob(db());
+    await db().updateTable("job").set({ description: "Wet kit: 35 gal stainless reservoir, PTO pump" }).where("id", "=", job.id).execute();
+    for (const q of ["reservoir", "STAINLESS", "35 gal", "pto pump"]) {
+      expect(await found(q), q).toEqual(await expected(q));
+      expect(await found(q), q).toContain(job.id);
+    }
+    await db().updateTable("job").set({ description: "Dump body hoist" }).where("id", "=", job.id).execute();
+    expect(await found("reservoir")).not.toContain(job.id);
+    expect(await found("hoist")).toEqual([job.id]);
   });
 });

@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import * as kitCalc from "@/app/api/kit-calc/route";
 import type { Role } from "@/db/schema";
@@ -129,6 +130,8 @@ describe("POST /api/kit-calc", () => {
       workingPressurePsi: 10_000,
       reliefPressurePsi: 10_000,
       tank: { shape: "round", insideDiameterIn: 1, lengthIn: 1 },
+      // A 1 in tube has no room for the demo's pick-up 1 in off the bottom.
+      pickupHeightIn: 0,
       sumpGal: 0,
       suctionLine: { insideDiameterIn: 0.1, lengthFt: 200 },
       returnLine: { insideDiameterIn: 0.1, lengthFt: 200 },
@@ -139,5 +142,36 @@ describe("POST /api/kit-calc", () => {
     const text = await res.text();
     expect(text).not.toMatch(/null|Infinity|NaN/);
     expect(JSON.parse(text).warnings.map((w: { code: string }) => w.code)).toContain("suction_velocity_high");
+  });
+});
+
+describe("POST /api/kit-calc under hostile values in every field, old and added (fast-check)", () => {
+  const PATHS = [
+    "engineRpm", "ptoRatioPercent", "pumpDisplacementCuIn", "workingPressurePsi", "reliefPressurePsi", "tank", "tank.shape", "tank.lengthIn",
+    "fillDepthIn", "sumpGal", "suctionLine", "suctionLine.insideDiameterIn", "oilToAirDeltaF", "trailerOilNeedGal",
+    "dutyAtWorkingPercent", "dutyOverReliefPercent", "ptoIntermittentTorqueLbFt", "ptoHpRating", "pumpMaxRpm", "governedEngineRpm",
+    "pumpRatedPsi", "hoseRatedPsi", "trailerRatedPsi", "oilViscosityCst", "oilSpecificGravity", "suctionFittingsEquivalentFt",
+    "pumpInletLimitInHg", "pickupHeightIn", "targetFlowGpm", "cylinder", "cylinder.boreIn", "cylinder.rodIn", "cylinder.count",
+  ];
+  const hostile = fc.oneof(
+    fc.constantFrom(0, -1, -0, 1e308, -1e308, 1e-320, 2 ** 53 + 1, 0.5, 100, 101, "", "12", "NaN", null, true, [], {}, "'; drop table job; --", "d", "round"),
+    fc.double(),
+    fc.integer(),
+    fc.record({ cold: fc.double(), working: fc.double() }),
+    fc.record({ shape: fc.constantFrom("round", "box", "d"), lengthIn: fc.double(), widthIn: fc.double(), heightIn: fc.double(), insideDiameterIn: fc.double() }),
+  );
+
+  it("answers 200 with finite numbers or 400 naming a field; never 500", async () => {
+    const cookie = await cookieFor("tech");
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...PATHS), hostile, async (path, value) => {
+        const res = await post(cookie, withField(path, value));
+        expect([200, 400]).toContain(res.status);
+        const text = await res.text();
+        expect(text).not.toMatch(/:\s*(?:-?Infinity|NaN|null)\b/);
+        if (res.status === 400) expect(Object.keys(JSON.parse(text).error.details.fields).length).toBeGreaterThan(0);
+      }),
+      { numRuns: 150 },
+    );
   });
 });

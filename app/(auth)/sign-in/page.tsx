@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 export default async function SignInPage() {
   if ((await staffCount(getDb())) === 0) redirect("/first-run");
-  if (await currentStaff()) redirect("/board");
+  if (await currentStaff()) redirect("/");
   return (
     <section className="rounded-xl border border-line bg-panel p-6 shadow-sm">
       <h1 className="mb-4 text-2xl font-bold">Sign in</h1>

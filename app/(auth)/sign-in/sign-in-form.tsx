@@ -5,11 +5,12 @@ import { Field, FormAlert, buttonClass, inputClass, str, useApiForm } from "@/co
 
 export function SignInForm() {
   const router = useRouter();
-  const form = useApiForm<{ user: { mustChangePassword?: boolean } }>(
+  const form = useApiForm<{ user: { mustChangePassword?: boolean; role?: string } }>(
     (v) => ({ path: "/api/session", body: { email: str(v.email), password: str(v.password) } }),
     (answer) => {
       // A temporary password from the owner's reset goes straight to choosing a new one.
-      router.replace(answer.user.mustChangePassword ? "/account" : "/board");
+      // The office and owner start at the overview, a tech at the board.
+      router.replace(answer.user.mustChangePassword ? "/account" : answer.user.role === "tech" ? "/board" : "/");
       router.refresh();
     },
   );

@@ -26,7 +26,7 @@ export function BoardFilters({ filter, board, onChange, meId, open }: { filter: 
     <form id="board-filters" role="search" aria-label="Filter the board" className={`${open ? "grid" : "hidden"} grid-cols-2 items-end gap-2 rounded-lg border border-line bg-panel p-2 md:flex md:flex-wrap md:border-0 md:bg-transparent md:p-0`} onSubmit={(e) => e.preventDefault()}>
       <label className="col-span-2 min-w-56 flex-1 text-sm font-semibold">
         Search
-        <input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Work order, unit number or last 6 of VIN" className={`${inputClass} mt-1`} />
+        <input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Work order, unit, last 6 of VIN or description" className={`${inputClass} mt-1`} />
       </label>
       <label className="text-sm font-semibold">
         Tech

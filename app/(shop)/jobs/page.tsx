@@ -7,6 +7,10 @@ import { STAGES, type Stage } from "@/db/schema";
 import { requirePageStaff } from "@/server/auth/session";
 import { listJobs, shopBeginnings } from "@/server/jobs/queries";
 import { STAGE_LABELS } from "@/server/jobs/stages";
+import { shopToday } from "@/server/records/turnaround";
+import { DUE_SOON_DAYS } from "@/server/reports/overview";
+import { addCalendarDays } from "@/server/shop/business-days";
+import { shopSettings } from "@/server/shop/queries";
 
 export const metadata = { title: "Jobs" };
 
@@ -21,17 +25,31 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
   const sort = sp.sort && sp.sort in SORTS ? (sp.sort as JobSortKey) : "newest";
   const q = (sp.q ?? "").slice(0, 60);
   const page = /^[1-9]\d{0,4}$/.test(sp.page ?? "") ? Number(sp.page) : 1;
+  const due = sp.due === "late" || sp.due === "soon" ? sp.due : undefined;
+  const email = sp.email === "failed" ? "failed" : undefined;
   const db = getDb();
+  const shop = due ? await shopSettings(db) : null;
+  const today = shop ? shopToday({ now: new Date(), timeZone: shop.timeZone }) : undefined;
   // One row more than a page tells whether there is a next page, without counting every job.
-  const found = await listJobs(db, { stage, q: q || undefined, sort, limit: PAGE + 1, offset: (page - 1) * PAGE });
+  const found = await listJobs(db, {
+    stage,
+    q: q || undefined,
+    sort,
+    limit: PAGE + 1,
+    offset: (page - 1) * PAGE,
+    due,
+    today,
+    dueSoonUntil: today ? addCalendarDays(today, DUE_SOON_DAYS) : undefined,
+    emailFailed: email === "failed",
+  });
   const rows = found.slice(0, PAGE);
   const hasNext = found.length > PAGE;
   const paged = page > 1 || hasNext;
-  const filtered = Boolean(stage || q);
+  const filtered = Boolean(stage || q || due || email);
   const beginnings = rows.length === 0 && !filtered && page === 1 ? await shopBeginnings(db) : null;
   const emptyShop = beginnings !== null && beginnings.jobs === 0;
   const href = (over: Record<string, string | undefined>) => {
-    const params = new URLSearchParams(Object.entries({ stage, sort, q: q || undefined, ...over }).filter(([, v]) => v) as [string, string][]);
+    const params = new URLSearchParams(Object.entries({ stage, sort, q: q || undefined, due, email, ...over }).filter(([, v]) => v) as [string, string][]);
     return `/jobs?${params}`;
   };
 
@@ -50,9 +68,11 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
       ) : (
         <>
           <form role="search" className="flex flex-wrap items-end gap-2" action="/jobs">
+            {due && <input type="hidden" name="due" value={due} />}
+            {email && <input type="hidden" name="email" value={email} />}
             <label className="min-w-56 flex-1 text-sm font-semibold">
               Search
-              <input name="q" type="search" defaultValue={q} placeholder="Work order, unit number or customer" className={`${inputClass} mt-1`} />
+              <input name="q" type="search" defaultValue={q} placeholder="Work order, unit, customer or description" className={`${inputClass} mt-1`} />
             </label>
             <label className="text-sm font-semibold">
               Stage
@@ -78,6 +98,8 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
               ? `Jobs ${(page - 1) * PAGE + 1}–${(page - 1) * PAGE + rows.length}`
               : `${rows.length} ${rows.length === 1 ? "job" : "jobs"}`}
             {stage ? ` in ${STAGE_LABELS[stage]}` : ""}
+            {due === "late" ? " past their due date" : due === "soon" ? ` due in the next ${DUE_SOON_DAYS} days` : ""}
+            {email ? " with a customer e-mail that failed to send" : ""}
             {q ? ` matching \u201c${q}\u201d` : ""}, {SORTS[sort].toLowerCase()}.
           </p>
           <JobList

@@ -181,7 +181,20 @@ describe("warnings in plain words", () => {
 
   const cases: [string, Partial<KitCalcInput>, KitWarningCode][] = [
     ["a 3/4 in suction line (about 14 ft/s)", { suctionLine: { insideDiameterIn: 0.75, lengthFt: 4 } }, "suction_velocity_high"],
-    ["an 8 ft suction line (over 6 ft, common practice)", { suctionLine: { insideDiameterIn: 1.75, lengthFt: 8 } }, "suction_line_long"],
+    ["a 1 in suction line 10 ft long (about 23 inHg with working oil)", { suctionLine: { insideDiameterIn: 1, lengthFt: 10 } }, "suction_inlet_vacuum_high"],
+    ["a 1.5 in suction line 6 ft long: fine warm, over 5 inHg cold", { suctionLine: { insideDiameterIn: 1.5, lengthFt: 6 } }, "suction_inlet_vacuum_high_cold"],
+    ["a trailer that draws 37.5 gal when 36.7 gal sits above the pick-up", { trailerOilNeedGal: 37.5 }, "pump_draws_air"],
+    ["a brim-full tube warming 40 °F", { fillDepthIn: 20, sumpGal: 0 }, "no_room_for_expansion"],
+    ["a pump at working pressure half the time", { dutyAtWorkingPercent: 50, dutyOverReliefPercent: 0 }, "cooler_advised"],
+    ["a PTO rated 120 lb·ft intermittent against about 142 lb·ft at relief", { ptoIntermittentTorqueLbFt: 120 }, "relief_torque_above_pto_intermittent"],
+    ["a PTO rated 30 hp against about 34 hp in", { ptoHpRating: 30 }, "input_power_above_pto_rating"],
+    ["a pump limited to 1300 rpm turning 1380", { pumpMaxRpm: 1300 }, "pump_overspeed"],
+    ["a pump limited to 2200 rpm, 2415 rpm at governed speed", { pumpMaxRpm: 2200 }, "pump_overspeed_at_governed"],
+    ["a pump rated 2500 psi under a 2750 psi relief", { pumpRatedPsi: 2500 }, "relief_above_pump_rating"],
+    ["hoses rated 2600 psi under a 2750 psi relief", { hoseRatedPsi: 2600 }, "relief_above_hose_rating"],
+    ["a trailer rated 2700 psi under a 2750 psi relief", { trailerRatedPsi: 2700 }, "relief_above_trailer_rating"],
+    ["ratings given but no relief setting", { reliefPressurePsi: undefined }, "relief_not_given"],
+    ["40 gpm wanted from a 3.5 in³ pump governed at 2100 rpm", { targetFlowGpm: 40 }, "target_flow_above_governed"],
     ["a 12 in cube of a tank (7.5 gal against about 19 gpm)", { tank: { shape: "box", lengthIn: 12, widthIn: 12, heightIn: 12 } }, "reservoir_under_one_minute"],
     ["a 24 × 36 in tube (about 70 gal)", { tank: { shape: "round", insideDiameterIn: 24, lengthIn: 36 } }, "reservoir_outside_common_range"],
     ["a trailer that draws 40 gal from 38 gal of oil", { trailerOilNeedGal: 40 }, "oil_below_trailer_need"],
@@ -200,13 +213,14 @@ describe("warnings in plain words", () => {
     expect(new Set(spec.warnings.map((candidate) => candidate.code)).size).toBe(spec.warnings.length);
   });
 
-  it("the tank-size and suction-length notes say they are common practice", () => {
-    const spec = computeKitSpec(
-      withChanges({ tank: { shape: "round", insideDiameterIn: 24, lengthIn: 36 }, suctionLine: { insideDiameterIn: 1.75, lengthFt: 8 } }),
-    );
-    for (const code of ["reservoir_outside_common_range", "suction_line_long"]) {
-      expect(spec.warnings.find((warning) => warning.code === code)?.message).toMatch(/common practice, no published source/);
-    }
+  it("the tank-size note says it is common practice", () => {
+    const spec = computeKitSpec(withChanges({ tank: { shape: "round", insideDiameterIn: 24, lengthIn: 36 } }));
+    expect(spec.warnings.find((warning) => warning.code === "reservoir_outside_common_range")?.message).toMatch(/common practice, no published source/);
+  });
+
+  it("a long suction line is judged by its inlet vacuum, not its length: 8 ft of 1.75 in line is fine warm, a cold-start caution only", () => {
+    expect(codes(withChanges({ suctionLine: { insideDiameterIn: 1.75, lengthFt: 8 } }))).toEqual(["suction_inlet_vacuum_high_cold", "heat_is_estimate"]);
+    expect(codes(withChanges({ suctionLine: { insideDiameterIn: 2, lengthFt: 8 } }))).toEqual(["heat_is_estimate"]);
   });
 
   it("the suction warning names the cavitation risk and the diameter that cures it", () => {
@@ -246,5 +260,53 @@ describe("formula and source beside every result", () => {
     const shown = new Set(numericPaths(results).map((path) => formulaForResult(path)?.id));
     shown.add("lines.status");
     expect(formulaList.map((formula) => formula.id).filter((id) => !shown.has(id))).toEqual([]);
+  });
+});
+
+describe("the whole calculator with the added checks", () => {
+  it("a D-shaped tank 16 in wide, 20 in high, 30 in long holds ((16 − 10) × 20 + 50π) × 30 in³ (rectangle plus half circle), by mathjs in gallons", () => {
+    const spec = computeKitSpec(withChanges({ tank: { shape: "d", lengthIn: 30, widthIn: 16, heightIn: 20 }, sumpGal: 0 }));
+    expectRelative(spec.tank.totalGal, unit((6 * 20 + 50 * Math.PI) * 30, "cuin").toNumber("gallon"), ORACLE_RELATIVE);
+    expectRelative(spec.tank.airSpacePercent, 10, 1e-9);
+  });
+
+  it("the demo's suction line: laminar both ways, and the cold inlet matches Hagen–Poiseuille plus the velocity head in mathjs", () => {
+    const spec = computeKitSpec(demo);
+    expect(spec.lines.suction.regime).toBe("laminar");
+    expect(spec.lines.suction.cold.regime).toBe("laminar");
+    // Defaults: 500 cSt cold, 0.87 specific gravity; 4 ft of line plus 3 ft of fittings.
+    const scope = { nu: unit(500, "mm^2/s"), rho: unit(870, "kg/m^3"), q: unit(3.5 * 1380 * 0.9, "cuin/minute"), L: unit(7, "ft"), d: unit(1.75, "inch") };
+    const friction = (evaluate("128 * nu * rho * L * q / (pi * d^4)", scope) as Unit).toNumber("Pa");
+    const head = (evaluate("rho * (q / (pi / 4 * d^2))^2 / 2", scope) as Unit).toNumber("Pa");
+    expectRelative(spec.lines.suction.cold.inletInHg, (friction + head) / unit(25.4, "mmHg").toNumber("Pa"), 3e-6);
+  });
+
+  it("the relief margins and target-flow speed come back for the demo; without the optional inputs they are left out", () => {
+    const spec = computeKitSpec(demo);
+    expect(spec.relief.pump?.marginPsi).toBe(250);
+    expect(spec.engineRpmForTargetFlow).toBeDefined();
+    const bare = computeKitSpec({
+      engineRpm: 1000,
+      ptoRatioPercent: 100,
+      pumpDisplacementCuIn: 2.5,
+      workingPressurePsi: 2000,
+      tank: { shape: "box", lengthIn: 30, widthIn: 18, heightIn: 18 },
+      suctionLine: { insideDiameterIn: 1.5, lengthFt: 3 },
+      returnLine: { insideDiameterIn: 1, lengthFt: 12 },
+    });
+    expect(bare.relief).toEqual({});
+    expect(bare.limits).toEqual({});
+    expect(bare.engineRpmForTargetFlow).toBeUndefined();
+    expect(bare.cylinder).toBeUndefined();
+    expect(bare.tank.leftAfterTrailerGal).toBeUndefined();
+  });
+
+  it("every answer field of before is still there, with the same meaning (the answer only grows)", () => {
+    const spec = computeKitSpec(demo);
+    for (const key of ["pumpShaftRpm", "theoreticalFlowGpm", "flowGpm", "hydraulicHp", "inputHp", "pumpTorqueLbFt", "reservoirMinutesOfFlow"]) expect(spec).toHaveProperty(key);
+    for (const key of ["totalGal", "oilGal", "airSpacePercent", "wettedAreaSqFt", "oilWeightLb"]) expect(spec.tank).toHaveProperty(key);
+    for (const key of ["velocityFps", "bandFps", "status", "minInsideDiameterIn"]) expect(spec.lines.suction).toHaveProperty(key);
+    expect(spec.heat.shedBtuPerHr).toBe(spec.heat.dissipationBtuPerHr);
+    for (const key of ["flowLpm", "pressureBar", "hydraulicKw", "tankL"]) expect(spec.metric).toHaveProperty(key);
   });
 });

@@ -22,6 +22,19 @@ const tankArbitrary: fc.Arbitrary<TankGeometry> = fc.oneof(
     widthIn: within(kitCalcLimits.tankDimensionIn),
     heightIn: within(kitCalcLimits.tankDimensionIn),
   }),
+  // A D is at least half as wide as it is high (the width runs from the rail to the crown of the curve).
+  fc
+    .record({
+      lengthIn: within(kitCalcLimits.tankDimensionIn),
+      heightIn: within(kitCalcLimits.tankDimensionIn),
+      extra: fc.double({ min: 0, max: 1, noNaN: true }),
+    })
+    .map(({ lengthIn, heightIn, extra }) => ({
+      shape: "d" as const,
+      lengthIn,
+      heightIn,
+      widthIn: Math.max(kitCalcLimits.tankDimensionIn.min, Math.min(kitCalcLimits.tankDimensionIn.max, heightIn / 2 + extra * (kitCalcLimits.tankDimensionIn.max - heightIn / 2))),
+    })),
 );
 const heightOf = (tank: TankGeometry) => (tank.shape === "round" ? tank.insideDiameterIn : tank.heightIn);
 const lineArbitrary = fc.record({
@@ -49,14 +62,36 @@ const validInputArbitrary: fc.Arbitrary<KitCalcInput> = fc
       oilToAirDeltaF: within(kitCalcLimits.oilToAirDeltaF),
       trailerOilNeedGal: within(kitCalcLimits.trailerOilNeedGal),
       ptoTorqueRatingLbFt: within(kitCalcLimits.ptoTorqueRatingLbFt),
+      dutyAtWorkingPercent: fc.double({ min: 0, max: 50, noNaN: true }),
+      dutyOverReliefPercent: fc.double({ min: 0, max: 50, noNaN: true }),
+      ptoIntermittentTorqueLbFt: within(kitCalcLimits.ptoTorqueRatingLbFt),
+      ptoHpRating: within(kitCalcLimits.ptoHpRating),
+      pumpMaxRpm: within(kitCalcLimits.pumpMaxRpm),
+      governedEngineRpm: within(kitCalcLimits.engineRpm),
+      pumpRatedPsi: within(kitCalcLimits.pressurePsi),
+      hoseRatedPsi: within(kitCalcLimits.pressurePsi),
+      trailerRatedPsi: within(kitCalcLimits.pressurePsi),
+      oilViscosityCst: fc
+        .tuple(within(kitCalcLimits.viscosityCst), within(kitCalcLimits.viscosityCst))
+        .map(([a, b]) => ({ cold: Math.max(a, b), working: Math.min(a, b) })),
+      oilSpecificGravity: within(kitCalcLimits.specificGravity),
+      suctionFittingsEquivalentFt: within(kitCalcLimits.equivalentLengthFt),
+      pumpInletLimitInHg: within(kitCalcLimits.inletLimitInHg),
+      pickupShare: fc.double({ min: 0, max: 0.99, noNaN: true }),
+      targetFlowGpm: within(kitCalcLimits.targetFlowGpm),
+      cylinder: fc
+        .record({ boreIn: fc.double({ min: 0.2, max: 600, noNaN: true }), rodShare: fc.double({ min: 0.01, max: 0.99, noNaN: true }), strokeIn: within(kitCalcLimits.cylinderIn), count: fc.integer({ min: 1, max: 20 }) })
+        .map(({ boreIn, rodShare, strokeIn, count }) => ({ boreIn, rodIn: Math.max(0.1, boreIn * rodShare), strokeIn, count })),
     },
     {
       requiredKeys: ["engineRpm", "ptoRatioPercent", "pumpDisplacementCuIn", "workingPressurePsi", "tank", "suctionLine", "returnLine"],
     },
   )
-  .map(({ fillFraction, ...input }) =>
-    fillFraction === undefined ? input : { ...input, fillDepthIn: Math.max(kitCalcLimits.fillDepthIn.min, fillFraction * heightOf(input.tank)) },
-  );
+  .map(({ fillFraction, pickupShare, ...input }) => ({
+    ...input,
+    ...(fillFraction === undefined ? {} : { fillDepthIn: Math.max(kitCalcLimits.fillDepthIn.min, fillFraction * heightOf(input.tank)) }),
+    ...(pickupShare === undefined ? {} : { pickupHeightIn: pickupShare * heightOf(input.tank) }),
+  }));
 
 const numbersIn = (value: unknown): number[] => {
   if (typeof value === "number") return [value];
@@ -83,6 +118,38 @@ describe("properties of the tank geometry (geometry handbook)", () => {
       { numRuns: 500 },
     );
   });
+});
+
+describe("properties of the D-shaped tank and of usable oil", () => {
+  const dTank = tankArbitrary.filter((tank) => tank.shape === "d");
+
+  it("a D's volume lies between the inscribed box (W − h/2) × h × L and the enclosing box W × h × L, at any fill", () => {
+    fc.assert(
+      fc.property(dTank, fc.double({ min: 0, max: 1, noNaN: true }), (tank, share) => {
+        if (tank.shape !== "d") return;
+        const depth = share * tank.heightIn;
+        const fill = tankFill(tank, depth);
+        const slack = 1 + 1e-12;
+        expect(fill.totalCuIn).toBeGreaterThanOrEqual(((tank.widthIn - tank.heightIn / 2) * tank.heightIn * tank.lengthIn) / slack);
+        expect(fill.totalCuIn).toBeLessThanOrEqual(tank.widthIn * tank.heightIn * tank.lengthIn * slack);
+        expect(fill.oilCuIn).toBeGreaterThanOrEqual(((tank.widthIn - tank.heightIn / 2) * depth * tank.lengthIn) / slack);
+        expect(fill.oilCuIn).toBeLessThanOrEqual(tank.widthIn * depth * tank.lengthIn * slack);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it("usable oil never exceeds the oil in the tank, and what is left after the trailer is usable less its need", () => {
+    fc.assert(
+      fc.property(validInputArbitrary, (input) => {
+        const spec = computeKitSpec(input);
+        expect(spec.tank.usableGal).toBeGreaterThanOrEqual(0);
+        expect(spec.tank.usableGal).toBeLessThanOrEqual(spec.tank.oilGal * (1 + 1e-12));
+        if (input.trailerOilNeedGal !== undefined) expect(spec.tank.leftAfterTrailerGal).toBeCloseTo(spec.tank.usableGal - input.trailerOilNeedGal, 9);
+      }),
+      { numRuns: 300 },
+    );
+  }, 30_000);
 });
 
 describe("properties of pump flow (Q = D × N / 231, fluid-power textbook)", () => {
@@ -122,7 +189,7 @@ describe("properties of pump flow (Q = D × N / 231, fluid-power textbook)", () 
       }),
       { numRuns: 200 },
     );
-  });
+  }, 30_000);
 });
 
 describe("properties of line sizing (d = √(0.4085 × gpm / v), fluid-power textbook)", () => {
@@ -150,7 +217,7 @@ describe("properties of line sizing (d = √(0.4085 × gpm / v), fluid-power tex
       }),
       { numRuns: 300 },
     );
-  });
+  }, 30_000);
 });
 
 describe("every valid input gives finite numbers", () => {
@@ -158,10 +225,10 @@ describe("every valid input gives finite numbers", () => {
     fc.assert(
       fc.property(validInputArbitrary, (input) => {
         const spec = computeKitSpec(input);
-        for (const value of numbersIn(spec)) expect(Number.isFinite(value)).toBe(true);
+        expect(numbersIn(spec).filter((value) => !Number.isFinite(value))).toEqual([]);
         expect(JSON.stringify(spec)).not.toContain("null");
       }),
-      { numRuns: 1000 },
+      { numRuns: 600 },
     );
-  });
+  }, 60_000);
 });

@@ -192,3 +192,59 @@ describe("computeKitSpec on extreme but valid inputs", () => {
     walk(spec);
   });
 });
+
+describe("the added kit fields: ratings, duty, oil, pick-up, target flow, cylinder, D-shaped tank", () => {
+  const positive = [
+    "ptoIntermittentTorqueLbFt",
+    "ptoHpRating",
+    "pumpMaxRpm",
+    "governedEngineRpm",
+    "pumpRatedPsi",
+    "hoseRatedPsi",
+    "trailerRatedPsi",
+    "oilSpecificGravity",
+    "pumpInletLimitInHg",
+    "targetFlowGpm",
+    "cylinder.boreIn",
+    "cylinder.strokeIn",
+    "oilViscosityCst.working",
+  ];
+  const withAll = { ...demo, oilViscosityCst: { cold: 500, working: 46 }, oilSpecificGravity: 0.87 };
+  const set = (path: string, value: unknown) => {
+    const copy = structuredClone(withAll) as Record<string, unknown>;
+    const keys = path.split(".");
+    let node = copy;
+    for (const key of keys.slice(0, -1)) node = node[key] as Record<string, unknown>;
+    node[keys[keys.length - 1]] = value;
+    return copy;
+  };
+
+  it.each(positive)("zero, negative, text and NaN %s are refused at that path, with a message that names the range", (path) => {
+    for (const bad of [0, -5, "12", Number.NaN]) {
+      const issues = issuesFor(set(path, bad));
+      const issue = issues.find((candidate) => candidate.path.join(".") === path);
+      expect(issue, `${path} = ${String(bad)}`).toBeDefined();
+      expect(issue?.message).toMatch(/must be a number from|must be a whole number/);
+    }
+  });
+
+  it("duty shares, fittings and pick-up height may be 0; duty past 100 % in all is refused", () => {
+    for (const path of ["dutyAtWorkingPercent", "dutyOverReliefPercent", "suctionFittingsEquivalentFt", "pickupHeightIn"]) {
+      expect(kitCalcInputSchema.safeParse(set(path, 0)).success, path).toBe(true);
+    }
+    expect(issuePaths({ ...withAll, dutyAtWorkingPercent: 90, dutyOverReliefPercent: 20 })).toContain("dutyOverReliefPercent");
+  });
+
+  it("a D-shaped tank narrower than half its height, a rod as thick as the bore, cold oil thinner than warm, a pick-up above the tank are refused", () => {
+    expect(issuePaths({ ...withAll, tank: { shape: "d", lengthIn: 30, widthIn: 9, heightIn: 20 } })).toContain("tank.widthIn");
+    expect(kitCalcInputSchema.safeParse({ ...withAll, tank: { shape: "d", lengthIn: 30, widthIn: 10, heightIn: 20 } }).success).toBe(true);
+    expect(issuePaths(set("cylinder.rodIn", 4))).toContain("cylinder.rodIn");
+    expect(issuePaths({ ...withAll, oilViscosityCst: { cold: 40, working: 46 } })).toContain("oilViscosityCst.cold");
+    expect(issuePaths({ ...withAll, pickupHeightIn: 20 })).toContain("pickupHeightIn");
+    expect(issuePaths(set("cylinder.count", 1.5))).toContain("cylinder.count");
+  });
+
+  it("the fill depth of a D is checked against its height", () => {
+    expect(issuePaths({ ...withAll, tank: { shape: "d", lengthIn: 30, widthIn: 16, heightIn: 20 }, fillDepthIn: 21 })).toContain("fillDepthIn");
+  });
+});

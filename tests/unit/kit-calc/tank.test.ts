@@ -146,3 +146,72 @@ describe("default fill: full less 10 % air space (from memory: about 10 %)", () 
     expectRelative(circularSegmentArea(12, shallow), 0.01 * Math.PI * 144, 1e-9);
   });
 });
+
+describe("D-shaped tank (flat rail side of height h, half-round of diameter h outboard, flat between)", () => {
+  // Chord width of the D section at height y above the bottom: the flat part plus the half chord of the circle.
+  const widthAt = (W: number, h: number, y: number) => {
+    const r = h / 2;
+    return W - r + Math.sqrt(Math.max(0, r * r - (r - y) ** 2));
+  };
+  // Midpoint rule over 200,000 strips: an independent check of the cross-section to about 1e-7.
+  const integrated = (W: number, h: number, depth: number) => {
+    const strips = 200_000;
+    const dy = depth / strips;
+    let area = 0;
+    for (let strip = 0; strip < strips; strip++) area += widthAt(W, h, (strip + 0.5) * dy) * dy;
+    return area;
+  };
+
+  it("full: ((W − h/2) h + π h²/8) L (rectangle plus half circle, elementary geometry) at three widths including the plain half-round", () => {
+    for (const [W, h, L] of [
+      [10, 20, 30],
+      [16, 20, 30],
+      [40, 12, 60],
+    ]) {
+      const fill = tankFill({ shape: "d", lengthIn: L, widthIn: W, heightIn: h }, h);
+      expectRelative(fill.totalCuIn, ((W - h / 2) * h + (Math.PI * h * h) / 8) * L, GEOMETRY_RELATIVE);
+      expectRelative(fill.oilCuIn, fill.totalCuIn, GEOMETRY_RELATIVE);
+    }
+  });
+
+  it("half full: (W − r) r + π r²/4, by the symmetry of the half circle about its middle", () => {
+    const W = 16;
+    const h = 20;
+    const r = 10;
+    expectRelative(tankFill({ shape: "d", lengthIn: 1, widthIn: W, heightIn: h }, r).oilCuIn, (W - r) * r + (Math.PI * r * r) / 4, GEOMETRY_RELATIVE);
+  });
+
+  it("partial fills agree with a strip-by-strip integral of the chord width (to 1e-6)", () => {
+    for (const [W, h, depth] of [
+      [16, 20, 0.5],
+      [16, 20, 7.3],
+      [10, 20, 18],
+      [40, 12, 11.9],
+    ]) {
+      expectRelative(tankFill({ shape: "d", lengthIn: 1, widthIn: W, heightIn: h }, depth).oilCuIn, integrated(W, h, depth), 1e-6);
+    }
+  });
+
+  it("wetted area, full: bottom and rail side and half the round shell along the length, plus both whole ends (no top)", () => {
+    const W = 16;
+    const h = 20;
+    const L = 30;
+    const r = h / 2;
+    const section = (W - r) * h + (Math.PI * r * r) / 2;
+    const expected = ((W - r) + h + Math.PI * r) * L + 2 * section;
+    expectRelative(tankFill({ shape: "d", lengthIn: L, widthIn: W, heightIn: h }, h).wettedAreaSqIn, expected, GEOMETRY_RELATIVE);
+  });
+
+  it("wetted area at a film of oil: the flat bottom (W − r) L, as a box counts its bottom", () => {
+    const tank = { shape: "d", lengthIn: 30, widthIn: 16, heightIn: 20 } as const;
+    expect(tankFill(tank, 0).wettedAreaSqIn).toBe(6 * 30);
+    expectRelative(tankFill(tank, 1e-9).wettedAreaSqIn, 6 * 30, 1e-3);
+  });
+
+  it("default fill holds 90 % of the section by the strip integral", () => {
+    const tank = { shape: "d", lengthIn: 30, widthIn: 16, heightIn: 20 } as const;
+    const depth = defaultFillDepthIn(tank, 0.1);
+    const full = (16 - 10) * 20 + (Math.PI * 100) / 2;
+    expectRelative(integrated(16, 20, depth), 0.9 * full, 1e-6);
+  });
+});

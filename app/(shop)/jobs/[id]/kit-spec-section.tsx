@@ -1,3 +1,4 @@
+import { afterShell } from "@/server/http/after-shell";
 import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { KitSpecSummary } from "@/components/kit-calc/kit-spec-summary";
@@ -10,6 +11,7 @@ import { kitSpecStartingInputs, latestKitSpec } from "@/server/kit-spec/queries"
 import { KitSpecEditor } from "./kit-spec-editor";
 
 export async function KitSpecSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  await afterShell();
   const db = getDb();
   const canEdit = user.role === "office" || user.role === "owner";
   const [spec, start] = await Promise.all([latestKitSpec(db, job.id), canEdit ? kitSpecStartingInputs(db, job.id) : null]);

@@ -1,3 +1,4 @@
+import { afterShell } from "@/server/http/after-shell";
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
@@ -19,6 +20,7 @@ function quietOverride(): number | null {
 }
 
 export async function MessagesSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  await afterShell();
   const db = getDb();
   const [messages, settings, links, notify, shop] = await Promise.all([
     listMessages(db, job.id),

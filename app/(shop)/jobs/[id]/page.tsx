@@ -1,9 +1,10 @@
 import type { Metadata } from "next";
 import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
+import { Suspense } from "react";
 import { notFound } from "next/navigation";
 import { PrintButton } from "@/components/print-button";
-import { Section } from "@/components/section";
+import { Section, SectionLoading } from "@/components/section";
 import { StageBadge } from "@/components/stage-badge";
 import { getDb } from "@/db";
 import { currentStaff, requirePageStaff } from "@/server/auth/session";
@@ -83,11 +84,20 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               </dd>
             </dl>
           </Section>
-          <RecordsSection job={job} user={user} />
-          <KitSpecSection job={job} user={user} />
+          {/* Each section reads its own records; the page's head, move and timeline are sent first. */}
+          <Suspense fallback={<SectionLoading title="Parts, leak tests and coating" />}>
+            <RecordsSection job={job} user={user} />
+          </Suspense>
+          <Suspense fallback={<SectionLoading title="Kit spec" />}>
+            <KitSpecSection job={job} user={user} />
+          </Suspense>
           <div className="no-print space-y-4">
-            <PhotosSection job={job} user={user} />
-            <MessagesSection job={job} user={user} />
+            <Suspense fallback={<SectionLoading title="Photos" />}>
+              <PhotosSection job={job} user={user} />
+            </Suspense>
+            <Suspense fallback={<SectionLoading title="Customer e-mail and status link" />}>
+              <MessagesSection job={job} user={user} />
+            </Suspense>
           </div>
         </div>
         <div className="space-y-4 lg:col-start-2 lg:row-start-2">

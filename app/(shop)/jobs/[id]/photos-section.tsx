@@ -1,3 +1,4 @@
+import { afterShell } from "@/server/http/after-shell";
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
@@ -8,6 +9,7 @@ import { shopSettings } from "@/server/shop/queries";
 import { PhotosPanel } from "./photos-panel";
 
 export async function PhotosSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  await afterShell();
   const db = getDb();
   const [photos, parts, shop] = await Promise.all([listJobPhotos(db, job.id), jobParts(db, job.id), shopSettings(db)]);
   return (

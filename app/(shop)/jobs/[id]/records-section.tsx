@@ -1,3 +1,4 @@
+import { afterShell } from "@/server/http/after-shell";
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
@@ -10,6 +11,7 @@ import { SignOffForm } from "./records-sign-off";
 
 /** The evidence behind the job's gates: parts with their leak tests and coating, and the wiring sign-off. */
 export async function RecordsSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  await afterShell();
   const db = getDb();
   const [parts, leakTests, signOff, settings] = await Promise.all([
     listParts(db, { jobId: job.id }),
