@@ -69,9 +69,14 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     await desk.getByRole("heading", { name: /Nothing on the board yet/ }).waitFor();
     await shot(desk, "empty-shop-board-desk");
 
-    // The set-up page is closed once the shop has someone.
+    // The set-up page is closed once the shop has someone: it leads to where a signed-in owner lands.
     await desk.goto(`${url()}/first-run`);
-    await desk.waitForURL(/\/board/);
+    await desk.waitForURL((u) => !u.pathname.startsWith("/first-run") && !u.pathname.startsWith("/sign-in"));
+    expect(await desk.getByRole("heading", { name: "Set up your shop" }).count()).toBe(0);
+    // Where the owner lands after signing in leads to the first job, not to a page of zeros.
+    await desk.goto(`${url()}/`);
+    await desk.getByRole("heading", { name: "No jobs yet: first steps" }).waitFor();
+    await shot(desk, "empty-shop-overview-desk");
 
     // Staff: the owner adds the tech who builds the tank.
     await desk.getByRole("navigation").getByRole("link", { name: "Staff" }).first().click();
