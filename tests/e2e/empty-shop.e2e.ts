@@ -211,6 +211,8 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     await send.getByLabel("Color", { exact: true }).fill("Safety yellow");
     await send.getByRole("button", { name: "Send 1 part out" }).click();
     await send.getByRole("status").filter({ hasText: /out to Tillbrook Powder Works with 1 part/ }).waitFor();
+    // The next run starts blank: this customer's color is not the next one's.
+    expect(await send.getByLabel("Color", { exact: true }).inputValue()).toBe("");
     const receive = desk.getByRole("form", { name: /^Mark run \d+ received$/ });
     await receive.getByRole("button", { name: "Mark received" }).click();
     const inspection = desk.getByRole("form", { name: /^Receiving inspection of run \d+$/ });

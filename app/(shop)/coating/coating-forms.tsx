@@ -22,6 +22,8 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
   const [promisedOn, setPromisedOn] = useState<string | null>(null);
   const [chosen, setChosen] = useState<number[]>([]);
   const [done, setDone] = useState<string | null>(null);
+  // Each run sent starts the next one blank: the last customer's color is not the next one's.
+  const [runsSent, setRunsSent] = useState(0);
   const vendor = vendors.find((v) => String(v.id) === vendorId);
   // The promise follows the coater's usual turnaround until someone types the date they were actually given.
   const suggested = vendor && ISO_DATE.test(sentOn) ? addBusinessDaysTo(sentOn, vendor.usualTurnaroundDays) : "";
@@ -41,6 +43,7 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
     ({ run }) => {
       setDone(`Run ${run.id} is out to ${run.vendorName} with ${run.parts.length} ${run.parts.length === 1 ? "part" : "parts"}.`);
       setChosen([]);
+      setRunsSent((n) => n + 1);
       setPromisedOn(null);
       router.refresh();
     },
@@ -101,7 +104,7 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
   };
 
   return (
-    <form onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Send parts out for coating">
+    <form key={runsSent} onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Send parts out for coating">
       <FormAlert failure={form.failure} />
       {done && (
         <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">
