@@ -2,7 +2,7 @@ import { type NextRequest, NextResponse } from "next/server";
 import { CROSS_SITE_MESSAGE, writeOrigin } from "@/server/http/origin";
 import { contentSecurityPolicy, pathDecodes, securityHeaders } from "@/server/http/security-headers";
 
-const SIGNED_IN_AREAS = ["/board", "/jobs", "/customers", "/trucks", "/coating", "/calculator", "/staff", "/account", "/settings", "/audit", "/reports"];
+const SIGNED_IN_AREAS = ["/board", "/jobs", "/customers", "/trucks", "/coating", "/calculator", "/staff", "/account", "/settings", "/audit", "/reports", "/parts", "/purchase-orders", "/hours", "/job-costs", "/prices"];
 
 /**
  * Runs before every page, route handler and server action:

@@ -19,7 +19,9 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/customers", label: "Customers" },
     { href: "/trucks", label: "Trucks" },
     { href: "/coating", label: "Coating" },
+    ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }] : []),
     { href: "/calculator", label: "Calculator" },
+    ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
     ...(role === "owner"
       ? [
           { href: "/staff", label: "Staff" },

@@ -1,7 +1,9 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { AuditTables } from "./tables/audit";
+import type { BoughtPartsTables } from "./tables/bought-parts";
 import type { KitSpecTables } from "./tables/kit-spec";
 import type { MessagingTables } from "./tables/messaging";
+import type { MoneyTables } from "./tables/money";
 import type { RecordsTables } from "./tables/records";
 
 export const ROLES = ["owner", "office", "tech"] as const;
@@ -59,6 +61,17 @@ export interface ShopTable {
   leak_box_min_psig: ColumnType<number, number | undefined, number>;
   leak_box_max_psig: ColumnType<number, number | undefined, number>;
   leak_calibration_months: ColumnType<number, number | undefined, number>;
+  /** Sales tax on the taxable subtotal, thousandths of a percent: 8.25 % is 8250 (migration 0013). */
+  sales_tax_millipercent: ColumnType<number, number | undefined, number>;
+  /** The deposit asked on approval: a percent of the quote's total or a fixed amount (migration 0013). */
+  deposit_kind: ColumnType<"percent" | "fixed", "percent" | "fixed" | undefined, "percent" | "fixed">;
+  deposit_percent: ColumnType<number, number | undefined, number>;
+  deposit_fixed_cents: ColumnType<number, number | undefined, number>;
+  /** Printed under every quote; the customer ticks that they accept them. */
+  quote_terms: ColumnType<string, string | undefined, string>;
+  /** What an hour of labour costs, cents; 0 until the owner sets it (migration 0012). */
+  labour_rate_cents: ColumnType<number, number | undefined, number>;
+  next_purchase_order: ColumnType<number, number | undefined, number>;
   /** The shop's street address (migration 0011), printed on the shop sheet. */
   address: ColumnType<string, string | undefined, string>;
   /** 1 when the customer's status page shows "likely ready around …" (migration 0011). */
@@ -156,7 +169,7 @@ export interface OutboxTable {
   replaced_at: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
-export interface Database extends RecordsTables, KitSpecTables, MessagingTables, AuditTables {
+export interface Database extends RecordsTables, KitSpecTables, MessagingTables, AuditTables, BoughtPartsTables, MoneyTables {
   staff: StaffTable;
   session: SessionTable;
   shop: ShopTable;

@@ -5,6 +5,8 @@ import { stagesFor } from "@/server/jobs/stages";
 import { formatWorkOrder } from "@/server/jobs/work-order";
 import { withCheckDigit } from "@/server/vehicles/vin";
 import type { DB } from "./index";
+import { seedMoney } from "./seed-money";
+import { seedBoughtParts } from "./seed-bought-parts";
 import { seedRecords } from "./seed-records";
 import type { JobScope, Priority, Role, Stage } from "./schema";
 
@@ -123,5 +125,7 @@ export async function seedDemo(db: DB, password = process.env.DEMO_PASSWORD || D
     }
     await trx.updateTable("shop").set({ next_work_order: seq }).where("id", "=", 1).execute();
     await seedRecords(trx, today);
+    await seedMoney(trx, today);
+    await seedBoughtParts(trx, today);
   });
 }

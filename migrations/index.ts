@@ -9,6 +9,8 @@ import * as m0007 from "./0007_procedure_accounts_trucks";
 import * as m0009 from "./0009_audit_trail";
 import * as m0010 from "./0010_indexes";
 import * as m0011 from "./0011_desk";
+import * as m0012 from "./0012_bought_parts_and_labour";
+import * as m0013 from "./0013_money";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
@@ -22,6 +24,8 @@ export const migrations: Record<string, Migration> = {
   "0009_audit_trail": m0009,
   "0010_indexes": m0010,
   "0011_desk": m0011,
+  "0012_bought_parts_and_labour": m0012,
+  "0013_money": m0013,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

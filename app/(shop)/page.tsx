@@ -76,13 +76,15 @@ export default async function OverviewPage() {
 
       {beginnings && beginnings.jobs === 0 && <FirstSteps counts={beginnings} role={user.role} />}
 
-      <div className="grid grid-cols-2 gap-3 md:grid-cols-3 xl:grid-cols-6">
+      <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
         <Figure label="Past due" value={o.pastDue.count} href={o.pastDue.href} tone="stop" note="open jobs past their due date" />
         <Figure label={`Due in ${DUE_SOON_DAYS} days`} value={o.dueSoon.count} href={o.dueSoon.href} note={`by ${day(o.dueSoonUntil)}`} />
         <Figure label="Coating runs out" value={o.coating.out} href={o.coating.href} note="at the coater now" />
         <Figure label="Coating due back" value={o.coating.dueBack} href={o.coating.href} note={`by ${day(o.nextWorkingDay)}`} />
         <Figure label="Coating overdue" value={o.coating.overdue} href={o.coating.href} tone="stop" note="past the coater's promise" />
         <Figure label="E-mails failed" value={o.emailsFailed.messages} href={o.emailsFailed.href} tone="warn" note={plural(o.emailsFailed.jobs, "job")} />
+        <Figure label="Parts to order" value={o.boughtParts.toOrder} href={o.boughtParts.href} tone="warn" note={`bought-in lines; ${plural(o.boughtParts.onOrder, "line")} on order`} />
+        <Figure label="Parts deliveries overdue" value={o.boughtParts.overdue} href={o.boughtParts.overdueHref} tone="stop" note="past the supplier's date" />
       </div>
 
       <section aria-labelledby="stages-title" className="rounded-lg border border-line bg-panel p-4">
@@ -136,7 +138,7 @@ export default async function OverviewPage() {
             </li>
           </ul>
         </section>
-        {/* Bought-in parts and quotes waiting on someone go here once the shop records them. */}
+        {/* Quotes waiting on someone go here once the shop records them. */}
       </div>
     </section>
   );

@@ -15,6 +15,12 @@ export const AUDIT_KINDS = [
   "photo_deleted",
   "coating_run_deleted",
   "settings_changed",
+  "price_changed",
+  "quote_sent",
+  "quote_approved",
+  "quote_declined",
+  "bought_part_deleted",
+  "clock_corrected",
 ] as const;
 export type AuditKind = (typeof AUDIT_KINDS)[number];
 

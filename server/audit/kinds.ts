@@ -18,4 +18,10 @@ export const AUDIT_KIND_LABELS: Record<AuditKind, string> = {
   photo_deleted: "Photo deleted",
   coating_run_deleted: "Coating run deleted",
   settings_changed: "Shop setting changed",
+  price_changed: "Price list changed",
+  quote_sent: "Quote sent",
+  quote_approved: "Quote approved by the customer",
+  quote_declined: "Quote declined by the customer",
+  bought_part_deleted: "Bought-in part deleted",
+  clock_corrected: "Clock entry corrected",
 };

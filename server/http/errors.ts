@@ -65,6 +65,8 @@ const UNIQUE_FIELDS: Record<string, { field: string; message: string }> = {
   "job.work_order": { field: "workOrder", message: "That work order number is already used; save again to get the next one." },
   "vendor.name": { field: "name", message: "A coater with that name is already on the list." },
   "coating_run_part.part_id": { field: "partIds", message: "One of those parts is already out on another coating run." },
+  "purchase_order.number": { field: "partIds", message: "Another purchase order took that number at the same moment; save again to get the next one." },
+  "clock_entry.staff_id": { field: "jobId", message: "Your clock was started at the same moment on another device; reload to see which job it is on." },
   "sign_off.job_id": { field: "expectedVersion", message: "Someone saved this sign-off at the same moment; reload it and save again." },
 };
 

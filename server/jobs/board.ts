@@ -29,6 +29,8 @@ export interface BoardCard {
   gate: { stage: Stage; label: string; unmet: string[] } | null;
   /** Parts out at the coater: where, when promised, and whether the promise has passed. */
   coating: { overdue: boolean; vendorName: string; promisedOn: string } | null;
+  /** Bought-in parts not yet received, by description ("waiting on 2 parts"). */
+  waitingParts: string[];
 }
 
 export interface Board {
@@ -87,7 +89,8 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
     db.selectFrom("customer").select(["id", "name"]).where("id", "in", db.selectFrom("job").select("customer_id").where("stage", "in", BOARD_STAGES)).orderBy("name").execute(),
   ]);
   const cards: BoardCard[] = rows.map((r) => {
-    const gate = nextGateState(r.stage, r.scope, records.get(r.id)!);
+    const jobRecords = records.get(r.id)!;
+    const gate = nextGateState(r.stage, r.scope, jobRecords);
     return {
       id: r.id,
       workOrder: r.work_order,
@@ -103,6 +106,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       techName: r.tech_name ? r.tech_name.split(" ")[0] : null,
       gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
       coating: coating.get(r.id) ?? null,
+      waitingParts: (jobRecords.waitingBoughtParts ?? []).map((p) => p.description),
     };
   });
   const unfiltered = !filter.q && !filter.tech && !filter.customer && !filter.due;

@@ -1,5 +1,6 @@
 import "server-only";
 import type { DB } from "@/db";
+import { waitingBoughtParts } from "@/server/parts/queries";
 import { partStatuses, signOffStates } from "@/server/records/queries";
 import type { GateRecords } from "./gates";
 
@@ -18,6 +19,10 @@ export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promis
   }
   const parts = await partStatuses(db, { jobIds, onlyGated: true });
   const signOffs = await signOffStates(db, jobIds);
+  for (const waiting of await waitingBoughtParts(db, jobIds)) {
+    const job = records.get(waiting.jobId);
+    if (job) (job.waitingBoughtParts ??= []).push(waiting);
+  }
   for (const part of parts) {
     const job = records.get(part.job_id);
     if (!job) continue;

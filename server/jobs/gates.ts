@@ -1,4 +1,5 @@
 import type { JobScope, Stage } from "@/db/schema";
+import { type BoughtWaiting, waitingWords } from "@/server/parts/rules";
 import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
 
 /** What the gates read of a job's records; the records loader fills it, tests build it by hand. */
@@ -11,6 +12,8 @@ export interface GateRecords {
   coatedParts: { name: string; sent?: boolean; received: boolean; inspected: boolean; adhesionFailed?: boolean }[];
   /** The wiring & run-test sign-off: null when none has been started. */
   signOff: { complete: boolean; missing: string[] } | null;
+  /** Bought-in parts not yet received in full (absent: none listed). */
+  waitingBoughtParts?: BoughtWaiting[];
 }
 
 export const NO_RECORDS: GateRecords = { partCount: 0, leakTestParts: [], coatedParts: [], signOff: null };
@@ -34,21 +37,25 @@ export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
               : `${p.name}: record a passing leak test${p.reworked ? " (none since its last rework)" : ""}.`,
         );
     case "install":
-      return records.coatedParts
-        .filter((p) => !p.received || !p.inspected || p.adhesionFailed)
-        .map((p) =>
-          p.sent === false
-            ? `${p.name}: not sent for coating yet; send it out on a coating run.`
-            : !p.received
-              ? `${p.name}: still out for coating; mark the coating run received.`
-              : p.adhesionFailed
-                ? `${p.name}: coating failed adhesion; send it back for a recoat or record a passing inspection.`
-                : `${p.name}: back from coating; record the receiving inspection.`,
-        );
+      return [...coatingUnmet(records), ...(records.waitingBoughtParts ?? []).map((p) => waitingWords(p))];
     case "ready":
       if (!records.signOff) return ["Wiring & run-test sign-off: not started."];
       return records.signOff.complete ? [] : records.signOff.missing.map((m) => `Sign-off: ${m}`);
   }
+}
+
+function coatingUnmet(records: GateRecords): string[] {
+  return records.coatedParts
+    .filter((p) => !p.received || !p.inspected || p.adhesionFailed)
+    .map((p) =>
+      p.sent === false
+        ? `${p.name}: not sent for coating yet; send it out on a coating run.`
+        : !p.received
+          ? `${p.name}: still out for coating; mark the coating run received.`
+          : p.adhesionFailed
+            ? `${p.name}: coating failed adhesion; send it back for a recoat or record a passing inspection.`
+            : `${p.name}: back from coating; record the receiving inspection.`,
+    );
 }
 
 export type MoveKind = "forward" | "backward" | "reorder";

@@ -3,6 +3,7 @@ import { sql } from "kysely";
 import type { DB } from "@/db";
 import type { Stage } from "@/db/schema";
 import { BOARD_STAGES, STAGE_LABELS } from "@/server/jobs/stages";
+import { partsWaitingCounts } from "@/server/parts/desk";
 import { addCalendarDays, addWorkingDays, shopDateOf, workingDaysBetween } from "@/server/shop/business-days";
 import { reportCalendar, techOpenJobs } from "./queries";
 
@@ -50,7 +51,7 @@ export async function loadOverview(db: DB, now = new Date()) {
       .orderBy("job.id")
       .execute();
 
-  const [stageRows, late, soon, runs, failed, techs, unassigned] = await Promise.all([
+  const [stageRows, late, soon, runs, failed, techs, unassigned, parts] = await Promise.all([
     db.selectFrom("job").select(["stage", (eb) => eb.fn.countAll<number>().as("n")]).where("stage", "in", BOARD_STAGES).groupBy("stage").execute(),
     jobRows("late"),
     jobRows("soon"),
@@ -71,6 +72,7 @@ export async function loadOverview(db: DB, now = new Date()) {
       .executeTakeFirstOrThrow(),
     techOpenJobs(db),
     db.selectFrom("job").select((eb) => eb.fn.countAll<number>().as("n")).where("stage", "in", BOARD_STAGES).where("assigned_tech_id", "is", null).executeTakeFirstOrThrow(),
+    partsWaitingCounts(db, today),
   ]);
 
   const counts = new Map(stageRows.map((r) => [r.stage, Number(r.n)]));
@@ -103,7 +105,8 @@ export async function loadOverview(db: DB, now = new Date()) {
     emailsFailed: { messages: Number(failed.messages), jobs: Number(failed.jobs), href: "/jobs?email=failed" },
     techs: techs.map((t) => ({ ...t, href: `/board?tech=${encodeURIComponent(t.id)}` })),
     unassigned: { count: Number(unassigned.n), href: "/board?tech=none" },
-    // Bought-in parts and quotes waiting on someone join here once the shop records them.
+    boughtParts: { ...parts, href: "/parts#to-order", overdueHref: "/parts#overdue" },
+    // Quotes waiting on someone join here once the shop records them.
   };
 }
 export type Overview = Awaited<ReturnType<typeof loadOverview>>;

@@ -43,9 +43,12 @@ const PAGES: PageCase[] = [
   { name: "truck-new", path: "/trucks/new" },
   { name: "truck", path: async (p) => `/trucks/${(await firstJob(p)).truckId}` },
   { name: "coating", path: "/coating" },
+  { name: "parts", path: "/parts" },
+  { name: "purchase-order", path: async (p) => `/purchase-orders/${(await (await p.request.get(`${baseUrl()}/api/parts-desk`)).json()).orders.at(-1).id}` },
   { name: "calculator", path: "/calculator" },
   { name: "staff", path: "/staff" },
   { name: "settings", path: "/settings" },
+  { name: "prices", path: "/prices" },
   { name: "audit", path: "/audit" },
   { name: "account", path: "/account" },
   { name: "not-found-address", path: "/no-such-page", notFound: true },
@@ -166,7 +169,7 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
       await menu.click();
       await shot(page, `menu-open-${role}-phone`);
       const labels = await nav.getByRole("link").allTextContents();
-      expect(labels).toEqual([...(role === "owner" ? ["Overview"] : []), "Board", "Jobs", "Customers", "Trucks", "Coating", "Calculator", ...(role === "owner" ? ["Staff", "Settings", "Audit"] : [])]);
+      expect(labels).toEqual([...(role === "owner" ? ["Overview"] : []), "Board", "Jobs", "Customers", "Trucks", "Coating", ...(role === "tech" ? [] : ["Parts"]), "Calculator", ...(role === "owner" ? ["Staff", "Settings", "Audit"] : [])]);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 
       for (const label of labels) {

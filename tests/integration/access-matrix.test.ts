@@ -8,6 +8,7 @@ import { appEntries, type AppEntry, inlineServerActions } from "../support/app-t
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { request, sessionCookieFor } from "../support/http";
+import { makePriceItemAndQuote } from "../support/money";
 import { ACCESS_MATRIX, type Outcome, type Row, WHO, type Who } from "./access-matrix.table";
 
 // Pages and server actions read the cookie through next/headers; here it comes from the cell being tried.
@@ -75,6 +76,13 @@ beforeAll(async () => {
   const part = await db().selectFrom("part").select("id").where("job_id", "=", jobA.id).executeTakeFirstOrThrow();
   const job = await db().selectFrom("job").select(["customer_id", "truck_id"]).where("id", "=", jobA.id).executeTakeFirstOrThrow();
   const goneSession = await sessionCookieFor(gone.id);
+  const money = await makePriceItemAndQuote(db(), jobA.id, office.id);
+  const po = await db().insertInto("purchase_order").values({ number: "PO-26-0001", supplier: "Matrix Supply", ordered_on: "2026-03-02", expected_on: null, created_by: office.id, created_at: new Date().toISOString() }).returning("id").executeTakeFirstOrThrow();
+  const bought = await db()
+    .insertInto("bought_part")
+    .values({ job_id: jobA.id, kind: "pump", description: "Gear pump", quantity: 1, unit_cost_cents: null, state: "ordered", purchase_order_id: po.id, expected_on: null, installed_at: null, installed_by: null, ratio_percent: null, displacement_cu_in: null, created_by: office.id, created_at: new Date().toISOString(), updated_at: new Date().toISOString() })
+    .returning("id")
+    .executeTakeFirstOrThrow();
   fx = {
     cookies: { none: "", statusLink: `bw_session=${token}`, tech: "", office: "", owner: "", deactivated: goneSession },
     ids: {
@@ -85,6 +93,10 @@ beforeAll(async () => {
       photos: await photoRow(jobA.id, tech.id, false),
       staff: target.id,
       "status-links": String(linkA.id),
+      quotes: String(money.quoteId),
+      "price-items": String(money.priceItemId),
+      "purchase-orders": String(po.id),
+      "bought-parts": String(bought.id),
     },
     token,
     visiblePhotoId: await photoRow(jobB.id, tech.id, true),

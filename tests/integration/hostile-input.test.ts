@@ -7,6 +7,7 @@ import { appEntries } from "../support/app-tree";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { request, sessionCookieFor } from "../support/http";
+import { makePriceItemAndQuote } from "../support/money";
 
 /**
  * Every mutating route handler, fed hostile input by the owner (who may do the most): wrong types,
@@ -29,7 +30,17 @@ beforeAll(async () => {
   const link = await issueStatusLink(db(), { id: owner.id, name: owner.name, email: owner.email, role: "owner" }, job.id);
   const part = await db().selectFrom("part").select("id").where("job_id", "=", job.id).executeTakeFirstOrThrow();
   const row = await db().selectFrom("job").select(["customer_id", "truck_id"]).where("id", "=", job.id).executeTakeFirstOrThrow();
+  const money = await makePriceItemAndQuote(db(), job.id, owner.id);
+  Object.assign(ids, { quotes: String(money.quoteId), "price-items": String(money.priceItemId) });
   Object.assign(ids, { jobs: String(job.id), parts: String(part.id), customers: String(row.customer_id), trucks: String(row.truck_id), staff: target.id, "status-links": String(link.id) });
+  const at = new Date().toISOString();
+  const po = await db().insertInto("purchase_order").values({ number: "PO-26-0001", supplier: "Test Drive Supply", ordered_on: "2026-03-02", expected_on: null, created_by: owner.id, created_at: at }).returning("id").executeTakeFirstOrThrow();
+  const bought = await db()
+    .insertInto("bought_part")
+    .values({ job_id: job.id, kind: "pto", description: "10-bolt PTO", quantity: 2, unit_cost_cents: 100, state: "ordered", purchase_order_id: po.id, expected_on: null, installed_at: null, installed_by: null, ratio_percent: null, displacement_cu_in: null, created_by: owner.id, created_at: at, updated_at: at })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  Object.assign(ids, { "bought-parts": String(bought.id), "purchase-orders": String(po.id) });
 });
 
 /** Every table's rows, in order, as text; sessions (sign-in bookkeeping) and audit trails are left out. */
@@ -54,7 +65,7 @@ const hostileString = fc.oneof(
 );
 const hostileNumber = fc.oneof(fc.constantFrom(...NUMBERS), fc.integer(), fc.double());
 const leaf = fc.oneof(hostileString, hostileNumber, fc.boolean(), fc.constant(null));
-const FIELD_NAMES = ["name", "email", "role", "password", "version", "toStage", "stage", "dueOn", "customerId", "truckId", "scope", "description", "notes", "kind", "vin", "unitNumber", "jobId", "partIds", "sentOn", "promisedOn", "receivedOn", "caption", "customerVisible", "active", "enabled", "inputs", "checks", "reason", "override", "id"];
+const FIELD_NAMES = ["name", "email", "role", "password", "version", "toStage", "stage", "dueOn", "customerId", "truckId", "scope", "description", "notes", "kind", "vin", "unitNumber", "jobId", "partIds", "sentOn", "promisedOn", "receivedOn", "caption", "customerVisible", "active", "enabled", "inputs", "checks", "reason", "override", "id", "quantity", "costCents", "supplier", "orderedOn", "expectedOn", "installed", "labourRateCents", "startedAt", "endedAt"];
 const hostileObject = fc.dictionary(fc.oneof(fc.constantFrom(...FIELD_NAMES), fc.string({ maxLength: 8 })), fc.oneof(leaf, fc.array(leaf, { maxLength: 4 }), fc.dictionary(fc.constantFrom(...FIELD_NAMES), leaf, { maxKeys: 4 })), { maxKeys: 8 });
 
 /** Raw bodies: text a JSON encoder would never write. */

@@ -92,6 +92,15 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
             </dd>
           </div>
         )}
+        {card.waitingParts.length > 0 && (
+          <div>
+            <dt className="sr-only">Bought-in parts</dt>
+            <dd className="text-warn-700" data-waiting-parts>
+              <IconWarn /> Waiting on {card.waitingParts.length} {card.waitingParts.length === 1 ? "part" : "parts"}:{" "}
+              <span className="text-ink">{card.waitingParts.slice(0, 3).join(", ")}{card.waitingParts.length > 3 ? ` and ${card.waitingParts.length - 3} more` : ""}</span>
+            </dd>
+          </div>
+        )}
         {card.scope === "install_only" && (
           <div>
             <dt className="sr-only">Work</dt>

@@ -13,6 +13,7 @@ import { shopSettings } from "@/server/shop/queries";
 import { findJob, stageEvents } from "@/server/jobs/queries";
 import { SCOPE_LABELS, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
 import { listTechs } from "@/server/staff/queries";
+import { BoughtPartsSection } from "./bought-parts-section";
 import { JobEditor, MoveControl } from "./job-controls";
 import { KitSpecSection } from "./kit-spec-section";
 import { MessagesSection } from "./messages-section";
@@ -87,6 +88,9 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           {/* Each section reads its own records; the page's head, move and timeline are sent first. */}
           <Suspense fallback={<SectionLoading title="Parts, leak tests and coating" />}>
             <RecordsSection job={job} user={user} />
+          </Suspense>
+          <Suspense fallback={<SectionLoading title="Bought-in parts" />}>
+            <BoughtPartsSection job={job} user={user} />
           </Suspense>
           <Suspense fallback={<SectionLoading title="Kit spec" />}>
             <KitSpecSection job={job} user={user} />

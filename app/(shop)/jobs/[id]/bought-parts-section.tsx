@@ -1,0 +1,19 @@
+import { Section } from "@/components/section";
+import { getDb } from "@/db";
+import type { StaffUser } from "@/server/auth/session";
+import type { JobDetail } from "@/server/jobs/queries";
+import { canSeeCosts } from "@/server/parts/mutations";
+import { fitSpecFor, listBoughtParts } from "@/server/parts/queries";
+import { shopSettings } from "@/server/shop/queries";
+import { BoughtParts } from "./bought-parts";
+
+export async function BoughtPartsSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+  const db = getDb();
+  const canCost = canSeeCosts(user);
+  const [parts, spec, shop] = await Promise.all([listBoughtParts(db, job.id, { withCost: canCost }), fitSpecFor(db, job.id), shopSettings(db)]);
+  return (
+    <Section title="Bought-in parts" id="bought-parts">
+      <BoughtParts jobId={job.id} parts={parts} canCost={canCost} hasKitSpec={spec !== null} timeZone={shop.timeZone} />
+    </Section>
+  );
+}

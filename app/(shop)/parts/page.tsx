@@ -1,0 +1,154 @@
+import Link from "next/link";
+import { IconCheck, IconClock, IconWarn } from "@/components/icons";
+import { Section } from "@/components/section";
+import { getDb } from "@/db";
+import { requirePageStaff } from "@/server/auth/session";
+import { showStoredDate } from "@/server/http/calendar-date";
+import { COST_ROLES } from "@/server/parts/mutations";
+import { type DeskLine, loadPartsDesk } from "@/server/parts/desk";
+import { BOUGHT_PART_KIND_LABELS, countOf } from "@/server/parts/rules";
+import { formatShopTime } from "@/server/records/calendar";
+import { shopSettings } from "@/server/shop/queries";
+import { OrderGroup, ReceiveButton } from "./parts-forms";
+
+export const metadata = { title: "Parts desk" };
+
+const day = (iso: string) => showStoredDate(iso, "EEE d MMM");
+
+function JobCell({ line }: { line: Pick<DeskLine, "jobId" | "workOrder" | "unitNumber"> }) {
+  return (
+    <span className="whitespace-nowrap">
+      <Link href={`/jobs/${line.jobId}#bought-parts`} className="font-semibold underline">{line.workOrder}</Link>
+      <span className="text-ink-soft"> · {line.unitNumber}</span>
+    </span>
+  );
+}
+
+/** The shop's parts desk: what to order, what is on order and late, what came this week. */
+export default async function PartsDeskPage() {
+  await requirePageStaff(COST_ROLES);
+  const db = getDb();
+  const [desk, shop] = await Promise.all([loadPartsDesk(db), shopSettings(db)]);
+  const toOrderCount = desk.toOrder.reduce((n, g) => n + g.lines.length, 0);
+  const onOrderCount = desk.onOrder.reduce((n, g) => n + g.lines.length, 0);
+  return (
+    <div className="space-y-4">
+      <div>
+        <h1 className="text-2xl font-bold">Parts desk</h1>
+        <p className="text-ink-soft">Bought-in parts across the shop&apos;s jobs. A job moves to Install only when all of its parts are here.</p>
+      </div>
+      <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4">
+        {[
+          ["To order", countOf(toOrderCount, "line"), "#to-order", toOrderCount > 0 ? "warn" : "plain"],
+          ["On order", countOf(onOrderCount, "line"), "#on-order", "plain"],
+          ["Overdue deliveries", countOf(desk.overdue.length, "line"), "#overdue", desk.overdue.length > 0 ? "stop" : "plain"],
+          ["Received this week", countOf(desk.receivedThisWeek.length, "receipt"), "#received", "plain"],
+        ].map(([label, value, href, tone]) => (
+          <div key={label} className={`rounded-lg border bg-panel p-3 ${tone === "stop" ? "border-2 border-stop-700" : "border-line"}`}>
+            <dt className="text-sm font-semibold text-ink-soft">{label}</dt>
+            <dd className={`text-xl font-bold ${tone === "stop" ? "text-stop-700" : tone === "warn" ? "text-warn-700" : ""}`}>
+              <a href={href} className="underline-offset-2 hover:underline">{value}</a>
+            </dd>
+          </div>
+        ))}
+      </dl>
+
+      {desk.overdue.length > 0 && (
+        <Section title="Overdue deliveries" id="overdue">
+          <ul className="space-y-2">
+            {desk.overdue.map((l) => (
+              <li key={l.id} className="flex flex-wrap items-center justify-between gap-2 rounded-md border-2 border-stop-700 p-2" data-overdue-line={l.description}>
+                <p>
+                  <span className="font-bold text-stop-700"><IconWarn /> Overdue since {day(l.expectedOn!)}</span> · {l.quantity - l.receivedQuantity} × {l.description} from {l.supplier} on{" "}
+                  <Link className="underline" href={`/purchase-orders/${l.purchaseOrder!.id}`}>{l.purchaseOrder!.number}</Link> for <JobCell line={l} />
+                </p>
+                <ReceiveButton line={l} />
+              </li>
+            ))}
+          </ul>
+        </Section>
+      )}
+
+      <Section title="To order" id="to-order">
+        {desk.toOrder.length === 0 ? (
+          <p className="text-ink-soft"><IconCheck /> Nothing to order: every bought-in part listed on a job is ordered.</p>
+        ) : (
+          <div className="space-y-4">
+            <p className="text-sm text-ink-soft">Tick lines for one supplier and order them on one purchase order; lines of several jobs can share it.</p>
+            {desk.toOrder.map((g) => (
+              <OrderGroup key={g.supplier || "none"} supplier={g.supplier} lines={g.lines} today={desk.today} suppliers={desk.suppliers} />
+            ))}
+          </div>
+        )}
+      </Section>
+
+      <Section title="On order" id="on-order">
+        {desk.onOrder.length === 0 ? (
+          <p className="text-ink-soft">Nothing on order.</p>
+        ) : (
+          <div className="space-y-4">
+            {desk.onOrder.map((g) => (
+              <div key={g.supplier}>
+                <h3 className="font-bold">{g.supplier}</h3>
+                <div className="overflow-x-auto">
+                  <table className="w-full min-w-[720px] text-left text-sm">
+                    <thead className="border-b border-line text-ink-soft">
+                      <tr><th className="py-1 pr-2">Expected</th><th className="pr-2">Order</th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Received</th><th className="pr-2"><span className="sr-only">Receive</span></th></tr>
+                    </thead>
+                    <tbody>
+                      {g.lines.map((l) => (
+                        <tr key={l.id} className="border-b border-line/60 align-top" data-on-order={l.description}>
+                          <td className={`py-1.5 pr-2 whitespace-nowrap ${l.overdue ? "font-bold text-stop-700" : ""}`}>
+                            {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
+                          </td>
+                          <td className="pr-2 whitespace-nowrap">{l.purchaseOrder ? <Link className="underline" href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
+                          <td className="pr-2"><JobCell line={l} /></td>
+                          <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
+                          <td className="pr-2 whitespace-nowrap">{l.receivedQuantity} of {l.quantity}</td>
+                          <td className="py-1"><ReceiveButton line={l} /></td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                </div>
+              </div>
+            ))}
+          </div>
+        )}
+      </Section>
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <Section title={`Received this week (since ${day(desk.weekStart)})`} id="received">
+          {desk.receivedThisWeek.length === 0 ? (
+            <p className="text-ink-soft">Nothing received yet this week.</p>
+          ) : (
+            <ul className="space-y-1 text-sm">
+              {desk.receivedThisWeek.map((r) => (
+                <li key={r.id}>
+                  <span className="text-ink-soft">{formatShopTime(r.at, shop.timeZone, "EEE d MMM HH:mm")}</span> · {r.quantity} × {r.description} for{" "}
+                  <Link className="underline" href={`/jobs/${r.jobId}#bought-parts`}>{r.workOrder}</Link> · {r.byName}
+                </li>
+              ))}
+            </ul>
+          )}
+        </Section>
+        <Section title="Purchase orders" id="orders">
+          {desk.orders.length === 0 ? (
+            <p className="text-ink-soft">No purchase orders yet.</p>
+          ) : (
+            <ul className="space-y-1 text-sm">
+              {desk.orders.map((o) => (
+                <li key={o.id} className="flex flex-wrap justify-between gap-2">
+                  <span>
+                    <Link className="font-semibold underline" href={`/purchase-orders/${o.id}`}>{o.number}</Link> · {o.supplier} · ordered {day(o.orderedOn)}
+                  </span>
+                  <span className={o.open ? "text-warn-700" : "text-ok-700"}>{o.open ? `${o.open} of ${countOf(o.lines, "line")} still to come` : `all ${countOf(o.lines, "line")} received`}</span>
+                </li>
+              ))}
+            </ul>
+          )}
+        </Section>
+      </div>
+    </div>
+  );
+}

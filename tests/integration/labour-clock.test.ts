@@ -1,0 +1,117 @@
+import { describe, expect, it } from "vitest";
+import * as clockEntry from "@/app/api/clock-entries/[id]/route";
+import * as clock from "@/app/api/clock/route";
+import type { Role } from "@/db/schema";
+import { jobHours } from "@/server/labour/queries";
+import { useFreshDatabase } from "../support/db";
+import { ensureShop, makeJob, makeStaff } from "../support/factories";
+import { params, readBody, request, sessionCookieFor } from "../support/http";
+
+const { db } = useFreshDatabase();
+
+async function as(role: Role) {
+  await ensureShop(db());
+  const staff = await makeStaff(db(), role);
+  return { staff, cookie: await sessionCookieFor(staff.id) };
+}
+
+const on = (cookie: string, body: unknown) => clock.POST(request("/api/clock", { cookie, body }));
+const off = (cookie: string) => clock.DELETE(request("/api/clock", { method: "DELETE", cookie }));
+const correct = (cookie: string, id: number, body: unknown) => clockEntry.PATCH(request(`/api/clock-entries/${id}`, { method: "PATCH", cookie, body }), params({ id: String(id) }));
+const entriesOf = (staffId: string) => db().selectFrom("clock_entry").selectAll().where("staff_id", "=", staffId).orderBy("id").execute();
+
+describe("the labour clock", () => {
+  it("a tech clocks on, switches job in one tap (one open clock), and clocks off; the stage at the time is kept", async () => {
+    const tech = await as("tech");
+    const a = await makeJob(db(), { stage: "fabricate" });
+    const b = await makeJob(db(), { stage: "install", scope: "install_only" });
+    const first = await on(tech.cookie, { jobId: a.id });
+    expect(first.status).toBe(201);
+    expect((await readBody(first)).clock).toEqual(expect.objectContaining({ jobId: a.id, stage: "fabricate" }));
+    // The same job again changes nothing.
+    expect((await on(tech.cookie, { jobId: a.id })).status).toBe(200);
+    const switched = await readBody(await on(tech.cookie, { jobId: b.id }));
+    expect(switched.closed.jobId).toBe(a.id);
+    let rows = await entriesOf(tech.staff.id);
+    expect(rows.map((r) => [r.job_id, r.stage, r.ended_at === null])).toEqual([[a.id, "fabricate", false], [b.id, "install", true]]);
+    expect(rows[0].ended_at).toBe(rows[1].started_at);
+    expect((await off(tech.cookie)).status).toBe(200);
+    rows = await entriesOf(tech.staff.id);
+    expect(rows.every((r) => r.ended_at !== null)).toBe(true);
+    const again = await off(tech.cookie);
+    expect(again.status).toBe(409);
+    expect((await readBody(again)).error.message).toBe("You are not clocked on any job.");
+  });
+
+  it("bad input answers 400 naming the field; a delivered job cannot be clocked on", async () => {
+    const tech = await as("tech");
+    for (const body of [{}, { jobId: "7" }, { jobId: -1 }, { jobId: 1.5 }]) {
+      const res = await on(tech.cookie, body);
+      expect(res.status).toBe(400);
+      expect(Object.keys((await readBody(res)).error.details.fields)).toContain("jobId");
+    }
+    const gone = await makeJob(db(), { stage: "delivered" });
+    const res = await on(tech.cookie, { jobId: gone.id });
+    expect(res.status).toBe(400);
+    expect((await readBody(res)).error.details.fields.jobId[0]).toMatch(/delivered/);
+    expect(await entriesOf(tech.staff.id)).toEqual([]);
+  });
+
+  it("a tech cannot correct another tech's entry, nor their own; the office corrects with a reason that is kept and audited", async () => {
+    const tech = await as("tech");
+    const other = await as("tech");
+    const office = await as("office");
+    const job = await makeJob(db(), { stage: "fabricate" });
+    await on(other.cookie, { jobId: job.id });
+    await off(other.cookie);
+    const [entry] = await entriesOf(other.staff.id);
+    const body = { startedAt: "2026-03-02T14:00:00.000Z", endedAt: "2026-03-02T16:00:00.000Z", reason: "Forgot to clock on at the start of the shift" };
+    expect((await correct(tech.cookie, entry.id, body)).status).toBe(403);
+    expect((await correct(other.cookie, entry.id, body)).status).toBe(403);
+    expect((await entriesOf(other.staff.id))[0].started_at).toBe(entry.started_at);
+
+    const ok = await correct(office.cookie, entry.id, body);
+    expect(ok.status).toBe(200);
+    const [fixed] = await entriesOf(other.staff.id);
+    expect(fixed).toEqual(expect.objectContaining({ started_at: body.startedAt, ended_at: body.endedAt, original_started_at: entry.started_at, original_ended_at: entry.ended_at, correction_reason: body.reason, corrected_by: office.staff.id }));
+    const audit = await db().selectFrom("audit_event").select(["kind", "summary"]).where("kind", "=", "clock_corrected").execute();
+    expect(audit).toHaveLength(1);
+    expect(audit[0].summary).toContain("Forgot to clock on");
+  });
+
+  it("a correction that overlaps another of the person's entries is refused, naming the field; bad times too", async () => {
+    const tech = await as("tech");
+    const office = await as("office");
+    const job = await makeJob(db(), { stage: "fabricate" });
+    const at = (h: number) => `2026-03-02T${String(h).padStart(2, "0")}:00:00.000Z`;
+    const ids = [];
+    for (const [s, e] of [[14, 16], [16, 18]]) {
+      ids.push((await db().insertInto("clock_entry").values({ staff_id: tech.staff.id, job_id: job.id, stage: "fabricate", started_at: at(s), ended_at: at(e) }).returning("id").executeTakeFirstOrThrow()).id);
+    }
+    const clash = await correct(office.cookie, ids[1], { startedAt: at(15), endedAt: at(18), reason: "Started earlier" });
+    expect(clash.status).toBe(400);
+    expect((await readBody(clash)).error.details.fields.startedAt[0]).toMatch(/overlap/);
+    for (const [body, field] of [
+      [{ startedAt: at(17), endedAt: at(16), reason: "Typed it backwards" }, "endedAt"],
+      [{ startedAt: "2026-02-31T10:00:00Z", endedAt: at(16), reason: "No such day" }, "startedAt"],
+      [{ startedAt: at(16), endedAt: at(17), reason: "" }, "reason"],
+      [{ startedAt: at(16), endedAt: "2999-01-01T00:00:00.000Z", reason: "In the future" }, "endedAt"],
+    ] as const) {
+      const res = await correct(office.cookie, ids[1], body);
+      expect(res.status, JSON.stringify(body)).toBe(400);
+      expect(Object.keys((await readBody(res)).error.details.fields)).toContain(field);
+    }
+    expect((await entriesOf(tech.staff.id)).map((r) => [r.started_at, r.ended_at])).toEqual([[at(14), at(16)], [at(16), at(18)]]);
+  });
+
+  it("hours per stage follow the job's moves while the clock runs", async () => {
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "install", scope: "install_only" });
+    const entry = await db().insertInto("clock_entry").values({ staff_id: tech.staff.id, job_id: job.id, stage: "install", started_at: "2026-03-02T14:00:00.000Z", ended_at: "2026-03-02T17:00:00.000Z" }).returning("id").executeTakeFirstOrThrow();
+    expect(entry.id).toBeGreaterThan(0);
+    await db().insertInto("stage_event").values({ job_id: job.id, from_stage: "install", to_stage: "wire", actor_id: tech.staff.id, at: "2026-03-02T16:00:00.000Z", note: "", override_reason: null }).execute();
+    const hours = await jobHours(db(), job.id, new Date("2026-03-03T00:00:00.000Z"));
+    expect(hours.totalHours).toBe(3);
+    expect(Object.fromEntries(hours.byStage.map((s) => [s.stage, s.hours]))).toEqual({ install: 2, wire: 1 });
+  });
+});

@@ -1,0 +1,83 @@
+import { describe, expect, it } from "vitest";
+import { fitFlags } from "@/server/parts/fit";
+import { applyReceipt, boughtPartState, orderTotal, waitingWords } from "@/server/parts/rules";
+
+const line = (quantity: number, receivedQuantity = 0, ordered = true) => ({ quantity, receivedQuantity, ordered, installed: false });
+
+describe("receiving bought-in parts", () => {
+  it("refuses more than is still outstanding, naming how many are", () => {
+    const check = applyReceipt(line(4, 1), 4);
+    expect(check.ok).toBe(false);
+    if (!check.ok) expect(check.message).toContain("Only 3 are still outstanding (1 of 4 received)");
+  });
+
+  it("refuses any receipt on a line already received in full", () => {
+    expect(applyReceipt(line(2, 2), 1).ok).toBe(false);
+  });
+
+  it("keeps a short receipt on order until the rest arrives", () => {
+    const first = applyReceipt(line(2, 0), 1);
+    expect(first).toEqual({ ok: true, receivedQuantity: 1, state: "ordered" });
+    const second = applyReceipt(line(2, 1), 1);
+    expect(second).toEqual({ ok: true, receivedQuantity: 2, state: "received" });
+  });
+
+  it("a line bought over the counter, never on an order, is received when it all came", () => {
+    expect(applyReceipt(line(1, 0, false), 1)).toEqual({ ok: true, receivedQuantity: 1, state: "received" });
+    expect(boughtPartState({ quantity: 3, receivedQuantity: 1, ordered: false, installed: false })).toBe("ordered");
+    expect(boughtPartState({ quantity: 3, receivedQuantity: 0, ordered: false, installed: false })).toBe("needed");
+  });
+});
+
+describe("purchase order totals", () => {
+  it("adds quantity × cost of one in whole cents, leaving unpriced lines out and counting them", () => {
+    // 2 × $94.75 + 1 × $1,185.00 + 3 × $0.10 = $189.50 + $1,185.00 + $0.30 = $1,374.80
+    const total = orderTotal([
+      { quantity: 2, unitCostCents: 9_475 },
+      { quantity: 1, unitCostCents: 118_500 },
+      { quantity: 3, unitCostCents: 10 },
+      { quantity: 5, unitCostCents: null },
+    ]);
+    expect(total).toEqual({ totalCents: 137_480, unpriced: 1 });
+    expect(Number.isInteger(total.totalCents)).toBe(true);
+  });
+
+  it("an order of ten-cent lines stays exact where floating dollars would drift", () => {
+    // 0.1 + 0.2 in binary floating point is 0.30000000000000004; in cents it is 30.
+    expect(orderTotal([{ quantity: 1, unitCostCents: 10 }, { quantity: 1, unitCostCents: 20 }]).totalCents).toBe(30);
+  });
+});
+
+describe("what Install waits for, in words", () => {
+  it("names the part and what to do", () => {
+    expect(waitingWords({ description: "10-bolt PTO", quantity: 1, receivedQuantity: 0, state: "needed" })).toBe("waiting on 10-bolt PTO: not ordered yet; order it from the parts desk.");
+    expect(waitingWords({ description: "Hose", quantity: 2, receivedQuantity: 1, state: "ordered", purchaseOrder: "PO-26-0004", expectedOn: "Thu 10 Dec" })).toBe(
+      "waiting on Hose: 1 of 2 received, the rest on order on PO-26-0004, expected Thu 10 Dec; receive it when it arrives.",
+    );
+  });
+});
+
+describe("fit checks", () => {
+  const truck = { transmission: "18-speed manual" };
+  const spec = { ptoRatioPercent: 122, pumpDisplacementCuIn: 3.2 };
+  const pto = (fits: string, ratio: number | null) => ({ kind: "pto", fitsTransmission: fits, ratioPercent: ratio, displacementCuIn: null });
+
+  it("a PTO for the truck's transmission, written differently, at the spec's ratio passes", () => {
+    expect(fitFlags(pto("18 Speed Manual", 122), truck, spec)).toEqual([]);
+  });
+
+  it("flags a PTO for another transmission and one whose ratio differs from the kit spec", () => {
+    expect(fitFlags(pto("10-speed manual", 135), truck, spec).map((f) => f.code)).toEqual(["transmission_mismatch", "ratio_differs"]);
+  });
+
+  it("flags a pump whose displacement differs from the kit spec, not one that matches", () => {
+    const pump = (d: number) => ({ kind: "pump", fitsTransmission: "", ratioPercent: null, displacementCuIn: d });
+    expect(fitFlags(pump(3.2), truck, spec)).toEqual([]);
+    expect(fitFlags(pump(2.5), truck, spec).map((f) => f.code)).toEqual(["displacement_differs"]);
+  });
+
+  it("asks for what it cannot check: the truck's transmission, the PTO's ratio", () => {
+    expect(fitFlags(pto("18-speed manual", null), { transmission: "" }, spec).map((f) => f.code)).toEqual(["transmission_unknown", "ratio_missing"]);
+    expect(fitFlags(pto("18-speed manual", 122), truck, null)).toEqual([]);
+  });
+});
