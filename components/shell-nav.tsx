@@ -44,7 +44,7 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
         aria-expanded={open}
         aria-controls={listId}
         onClick={() => setOpen((o) => !o)}
-        className="ml-auto inline-flex min-h-11 min-w-11 items-center gap-2 rounded-md border border-line px-3 font-semibold text-bay-900 hover:bg-bay-50 xl:hidden"
+        className="inline-flex min-h-11 min-w-11 items-center gap-2 rounded-md border border-line px-3 font-semibold text-bay-900 hover:bg-bay-50 xl:hidden"
       >
         <svg viewBox="0 0 24 24" className="h-5 w-5" fill="none" stroke="currentColor" strokeWidth={2.2} strokeLinecap="round" aria-hidden="true">
           {open ? <path d="M6 6l12 12M18 6 6 18" /> : <path d="M4 7h16M4 12h16M4 17h16" />}

@@ -3,6 +3,7 @@ import type { Role } from "@/db/schema";
 import type { StaffUser } from "@/server/auth/session";
 import { BaywrightMark } from "./mark";
 import { type NavItem, ShellNav } from "./shell-nav";
+import { ShellSearch } from "./shell-search";
 
 export const ROLE_WORDS: Record<Role, string> = { owner: "Owner", office: "Office", tech: "Tech" };
 
@@ -22,6 +23,7 @@ export function navItemsFor(role: Role): NavItem[] {
     ...(role === "owner" || role === "office" ? [{ href: "/parts", label: "Parts" }] : []),
     { href: "/calculator", label: "Calculator" },
     ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
+    ...(role === "tech" ? [] : [{ href: "/reports", label: "Reports" }]),
     ...(role === "owner"
       ? [
           { href: "/staff", label: "Staff" },
@@ -49,8 +51,10 @@ export function Shell({ user, children }: { user: Pick<StaffUser, "name" | "role
         <div className="mx-auto flex max-w-[1600px] flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
           <Link href={user.role === "tech" ? "/board" : "/"} className="flex min-h-11 items-center gap-2 font-bold tracking-tight">
             <BaywrightMark />
-            <span className="text-lg">Baywright</span>
+            {/* On a phone the mark alone, so the Search and Menu buttons fit one row. */}
+            <span className="sr-only text-lg sm:not-sr-only">Baywright</span>
           </Link>
+          <ShellSearch />
           <ShellNav items={navItemsFor(user.role)} who={`${user.name} · ${ROLE_WORDS[user.role]}`} />
         </div>
       </header>

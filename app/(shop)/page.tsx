@@ -70,7 +70,8 @@ export default async function OverviewPage() {
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h1 id="overview-title" className="text-2xl font-bold">Overview</h1>
         <p className="text-ink-soft">
-          {day(o.today)} · {plural(o.onBoard, "job")} on the board
+          {day(o.today)} · {plural(o.onBoard, "job")} on the board ·{" "}
+          <Link href="/reports" className={linkClass}>Reports</Link>
         </p>
       </div>
 

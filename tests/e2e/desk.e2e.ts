@@ -71,4 +71,67 @@ describe.skipIf(!enabled)("the office's desk", () => {
     await shot(phone, "overview-phone");
     await phone.context().close();
   });
+
+  it("a report draws its chart over its table, and its CSV downloads", async () => {
+    const page = await signInWhereTheyLand(browser, "owner");
+    await page.goto(`${baseUrl()}/reports?report=throughput`);
+    const table = page.getByTestId("report-table");
+    await table.waitFor();
+    expect(await table.locator("tbody tr").count()).toBeGreaterThan(0);
+    const chart = page.getByTestId("report-chart");
+    await chart.locator("svg.recharts-surface").first().waitFor();
+    expect(await chart.locator(".recharts-cartesian-axis-tick").count()).toBeGreaterThan(2);
+    await shot(page, "report-throughput-desk");
+    await page.getByRole("link", { name: "Time in each stage" }).click();
+    await page.waitForURL(/report=stage-times/);
+    await page.getByTestId("report-chart").locator("svg.recharts-surface").first().waitFor();
+    await shot(page, "report-stage-times-desk");
+    const csv = await page.request.get(`${baseUrl()}${await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")}`);
+    expect(csv.status()).toBe(200);
+    expect((await csv.text()).split("\r\n")[0]).toBe("stage,visits_ended,median_business_days,p90_business_days");
+    await page.context().close();
+
+    const phone = await signInWhereTheyLand(browser, "office", PHONE);
+    await phone.goto(`${baseUrl()}/reports?report=coaters`);
+    await phone.getByTestId("report-table").waitFor();
+    expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await shot(phone, "report-coaters-phone");
+    await phone.context().close();
+  });
+
+  it("one search finds a job by a word of its work description and a truck by the last six of its VIN, from the keyboard", async () => {
+    const page = await signInWhereTheyLand(browser, "office");
+    const word = `tank${Date.now().toString(36)}`;
+    const { job, vin } = await ownJob(page.request, { description: `Wet kit, 35 gal ${word} reservoir` });
+    await page.goto(`${baseUrl()}/board`);
+    await page.getByRole("heading", { level: 1 }).first().waitFor();
+    await page.locator("body").press("/");
+    const box = page.getByRole("dialog", { name: "Search the shop" }).getByRole("combobox");
+    await expect.poll(() => box.evaluate((el) => el === document.activeElement)).toBe(true);
+    await box.fill(word);
+    const option = page.getByRole("option", { name: new RegExp(job.workOrder) });
+    await option.waitFor();
+    await shot(page, "search-desk");
+    await box.press("Enter");
+    await page.waitForURL(new RegExp(`/jobs/${job.id}$`));
+
+    await page.locator("body").press("/");
+    await box.fill(vin.slice(-6));
+    const truck = page.getByRole("group", { name: "Trucks" }).getByRole("option");
+    await truck.first().waitFor();
+    expect(await truck.first().textContent()).toContain(`VIN …${vin.slice(-6)}`);
+    await box.press("ArrowDown");
+    await box.press("ArrowUp");
+    await box.press("Enter");
+    await page.waitForURL(/\/trucks\/\d+$/);
+    await page.context().close();
+
+    const phone = await signInWhereTheyLand(browser, "office", PHONE);
+    await phone.getByRole("button", { name: "Search" }).click();
+    await phone.getByRole("dialog", { name: "Search the shop" }).getByRole("combobox").fill(word);
+    await phone.getByRole("option").first().waitFor();
+    expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+    await shot(phone, "search-phone");
+    await phone.context().close();
+  });
 });

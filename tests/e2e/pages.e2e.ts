@@ -30,6 +30,10 @@ async function firstJob(page: Page) {
 /** Every page a signed-in owner can open, the record pages on demo records. */
 const PAGES: PageCase[] = [
   { name: "overview", path: "/" },
+  { name: "reports", path: "/reports" },
+  { name: "reports-throughput", path: "/reports?report=throughput" },
+  { name: "reports-coaters", path: "/reports?report=coaters" },
+  { name: "reports-workload", path: "/reports?report=workload" },
   { name: "board", path: "/board" },
   { name: "jobs", path: "/jobs" },
   { name: "jobs-search-empty", path: "/jobs?q=NO-SUCH-UNIT-ZZ" },
@@ -169,7 +173,7 @@ describe.skipIf(!enabled)("the menu on a 390 px phone", () => {
       await menu.click();
       await shot(page, `menu-open-${role}-phone`);
       const labels = await nav.getByRole("link").allTextContents();
-      expect(labels).toEqual([...(role === "owner" ? ["Overview"] : []), "Board", "Jobs", "Customers", "Trucks", "Coating", ...(role === "tech" ? [] : ["Parts"]), "Calculator", ...(role === "owner" ? ["Staff", "Settings", "Audit"] : [])]);
+      expect(labels).toEqual([...(role === "owner" ? ["Overview"] : []), "Board", "Jobs", "Customers", "Trucks", "Coating", ...(role === "tech" ? [] : ["Parts"]), "Calculator", ...(role === "tech" ? [] : ["Prices", "Reports"]), ...(role === "owner" ? ["Staff", "Settings", "Audit"] : [])]);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 
       for (const label of labels) {

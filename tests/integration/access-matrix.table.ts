@@ -58,6 +58,7 @@ export const ACCESS_MATRIX: Row[] = [
 
   // Pages.
   staffPage("PAGE /board"),
+  officePage("PAGE /reports"),
   staffPage("PAGE /calculator"),
   staffPage("PAGE /coating"),
   officePage("PAGE /parts"),
@@ -90,6 +91,7 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/board"),
   // The office's desk: overview and reports.
   officeUp("GET /api/overview"),
+  anyStaff("GET /api/search"),
   officeUp("GET /api/reports/stage-times"),
   officeUp("GET /api/reports/throughput"),
   officeUp("GET /api/reports/coaters"),

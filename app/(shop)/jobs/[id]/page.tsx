@@ -18,6 +18,7 @@ import { JobEditor, MoveControl } from "./job-controls";
 import { KitSpecSection } from "./kit-spec-section";
 import { MessagesSection } from "./messages-section";
 import { PhotosSection } from "./photos-section";
+import { QuoteSection } from "./quote-section";
 import { RecordsSection } from "./records-section";
 
 export async function generateMetadata({ params }: { params: Promise<{ id: string }> }): Promise<Metadata> {
@@ -95,6 +96,13 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           <Suspense fallback={<SectionLoading title="Kit spec" />}>
             <KitSpecSection job={job} user={user} />
           </Suspense>
+          {user.role !== "tech" && (
+            <div className="no-print">
+              <Suspense fallback={<SectionLoading title="Quote" />}>
+                <QuoteSection job={job} user={user} />
+              </Suspense>
+            </div>
+          )}
           <div className="no-print space-y-4">
             <Suspense fallback={<SectionLoading title="Photos" />}>
               <PhotosSection job={job} user={user} />

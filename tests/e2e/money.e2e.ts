@@ -1,0 +1,68 @@
+import type { APIRequestContext, Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DESK, baseUrl, launch, shot, signIn } from "./browser";
+
+const enabled = Boolean(baseUrl());
+
+async function json<T = any>(res: Awaited<ReturnType<APIRequestContext["get"]>>, status = 200): Promise<T> {
+  expect(res.status(), await res.text()).toBe(status);
+  return (await res.json()) as T;
+}
+
+const KIT = {
+  engineRpm: 1200,
+  ptoRatioPercent: 115,
+  pumpDisplacementCuIn: 3.5,
+  workingPressurePsi: 2500,
+  tank: { shape: "round", insideDiameterIn: 20, lengthIn: 30 },
+  suctionLine: { insideDiameterIn: 1.75, lengthFt: 4 },
+  returnLine: { insideDiameterIn: 1, lengthFt: 14 },
+};
+
+describe.skipIf(!enabled)("quotes in Chromium", () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launch();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("the office starts a quote from the kit spec, adds labour from the price list, saves and sends it; the sent version cannot be edited", async () => {
+    const suffix = Date.now().toString(36).slice(-4).toUpperCase();
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "office");
+    const api = page.request;
+    const headers = { origin: baseUrl() };
+    const anyJob = (await json<{ jobs: { customerId: number; truckId: number }[] }>(await api.get(`${baseUrl()}/api/jobs`))).jobs[0];
+    const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "fabrication", description: `Wet kit quote ${suffix}` } }), 201)).job as { id: number };
+    await json(await api.put(`${baseUrl()}/api/jobs/${job.id}/kit-spec`, { headers, data: { inputs: KIT } }));
+
+    await page.goto(`${baseUrl()}/jobs/${job.id}`);
+    const section = page.locator("#quote");
+    await section.getByRole("button", { name: "Start from the kit spec" }).click();
+    await expect.poll(() => section.getByRole("list", { name: "Lines of the draft" }).getByRole("listitem").count()).toBe(5);
+    await section.getByLabel("Add from the price list").selectOption({ label: "Shop labour — $125.00 / hour" });
+    const lines = section.getByRole("list", { name: "Lines of the draft" }).getByRole("listitem");
+    await lines.nth(5).getByLabel("Qty").fill("6.5");
+    await expect.poll(() => section.getByLabel("Amount of line 6").textContent()).toBe("$812.50");
+    await section.getByRole("button", { name: "Save the draft" }).click();
+    await expect.poll(() => section.getByRole("status").textContent()).toContain("Draft version 1 saved");
+
+    const draft = (await json<{ quotes: { id: number; status: string; totalCents: number }[] }>(await api.get(`${baseUrl()}/api/jobs/${job.id}/quotes`))).quotes[0];
+    expect(draft.status).toBe("draft");
+    await shot(page, "quote-draft-desk");
+
+    await section.getByRole("button", { name: "Send to the customer" }).click();
+    await expect.poll(() => section.getByRole("status").textContent()).toContain("Version 1 sent");
+    const sent = section.getByRole("article", { name: "Quote version 1" });
+    await expect.poll(() => sent.textContent()).toContain("Sent: waiting for the customer");
+    expect(await sent.textContent()).toContain(`$${(draft.totalCents / 100).toLocaleString("en-US", { minimumFractionDigits: 2 })}`);
+    // The sent version is never edited: the API refuses, and the screen offers a new version instead.
+    const refused = await api.put(`${baseUrl()}/api/quotes/${draft.id}`, { headers, data: { lines: [{ kind: "fee", description: "x", quantity: 1, unitPriceCents: 1, taxable: false }] } });
+    expect(refused.status()).toBe(409);
+    expect(await section.getByRole("button", { name: "New version from version 1" }).isVisible()).toBe(true);
+    await shot(page, "quote-sent-desk");
+    await context.close();
+  });
+});
