@@ -1,6 +1,6 @@
 import type { APIRequestContext, Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DESK, baseUrl, launch, shot, signIn } from "./browser";
+import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
 
 const enabled = Boolean(baseUrl());
 
@@ -64,5 +64,41 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     expect(await section.getByRole("button", { name: "New version from version 1" }).isVisible()).toBe(true);
     await shot(page, "quote-sent-desk");
     await context.close();
+  });
+
+  it("the truck owner, on a phone with no sign-in, approves the sent quote on the status link with a typed name and the terms ticked", async () => {
+    const suffix = Date.now().toString(36).slice(-4).toUpperCase();
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "office");
+    const api = page.request;
+    const headers = { origin: baseUrl() };
+    const anyJob = (await json<{ jobs: { customerId: number; truckId: number }[] }>(await api.get(`${baseUrl()}/api/jobs`))).jobs[0];
+    const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "install_only", description: `PTO switch ${suffix}` } }), 201)).job as { id: number };
+    const link = (await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/status-links`, { headers }), 201)).link as { url: string };
+    const lines = [
+      { kind: "part", description: "In-cab PTO switch with engaged light", quantity: 1, unitPriceCents: 21_650, taxable: true },
+      { kind: "labour", description: "Install and wire", quantity: 2.5, unitPriceCents: 12_500, taxable: false },
+    ];
+    const quote = (await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/quotes`, { headers, data: { lines } }), 201)).quote as { id: number };
+    const sent = (await json(await api.post(`${baseUrl()}/api/quotes/${quote.id}/send`, { headers, data: {} }))).quote as { totalCents: number };
+    await context.close();
+
+    const customer = await browser.newContext(PHONE);
+    const phone = await customer.newPage();
+    await phone.goto(`${baseUrl()}/status/${link.url.split("/status/")[1]}`);
+    const card = phone.getByRole("article", { name: "Quote version 1" });
+    const total = `$${(sent.totalCents / 100).toLocaleString("en-US", { minimumFractionDigits: 2 })}`;
+    expect(await card.textContent()).toContain(total);
+    await shot(phone, "quote-customer-phone");
+    // Without the tick the shop's server refuses and says what to do.
+    await card.getByLabel("Your full name").fill("Dana Reyes");
+    await card.getByRole("button", { name: `Approve ${total}` }).click();
+    await expect.poll(() => card.getByRole("alert").textContent()).toContain("Tick that you accept the terms");
+    await card.getByRole("checkbox").check();
+    await card.getByRole("button", { name: `Approve ${total}` }).click();
+    await expect.poll(() => phone.getByRole("status").textContent()).toContain("your approval is with the shop");
+    expect(await phone.getByText(`Quote version 1: approved by Dana Reyes`).count()).toBe(1);
+    await shot(phone, "quote-customer-approved-phone");
+    await customer.close();
   });
 });

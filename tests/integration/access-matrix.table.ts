@@ -49,6 +49,7 @@ export const ACCESS_MATRIX: Row[] = [
   // The customer's status link: the link in the URL is the key, and a wrong one looks like no link.
   row("PAGE /status/[token]", "404", "ok", "404", "404", "404", "404"),
   row("GET /status/[token]/photos/[photoId]", 404, "ok", 404, 404, 404, 404),
+  row("POST /status/[token]/quote", 404, "ok", 404, 404, 404, 404),
   // Signing in and first run (first run answers only while no one works here).
   // The overview is the office's and owner's first page; the bench starts at the board.
   row("PAGE /", "→/sign-in", "→/sign-in", "→/board", "ok", "ok", "→/sign-in"),

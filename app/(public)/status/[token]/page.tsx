@@ -4,6 +4,8 @@ import { cache } from "react";
 import { getDb } from "@/db";
 import { repliesRead } from "@/server/email/env";
 import { noteLinkOpened, readStatusPage } from "@/server/status/queries";
+import { customerQuotes } from "@/server/money/customer-quote";
+import { QuoteAnswer } from "./quote-answer";
 import { StatusView } from "./status-view";
 
 export const dynamic = "force-dynamic";
@@ -30,5 +32,6 @@ export default async function StatusPage({ params }: { params: Promise<{ token: 
   // Unknown, turned off and expired links all end here: the not-found page says so and gives the shop's phone.
   if (link.state !== "active" || !view) notFound();
   noteLinkOpened(getDb(), link);
-  return <StatusView view={view} token={token} repliesRead={repliesRead()} />;
+  const quotes = await customerQuotes(getDb(), link.jobId);
+  return <StatusView view={view} token={token} repliesRead={repliesRead()} price={quotes.length ? <QuoteAnswer token={token} initialQuotes={quotes} /> : null} />;
 }

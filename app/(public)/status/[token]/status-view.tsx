@@ -44,7 +44,7 @@ const MARK: Record<Step["state"], { icon: string; word: string; dot: string }> =
 };
 
 /** The truck owner's page: one sentence first, then the timeline, then the photos and the shop's phone. */
-export function StatusView({ view, token, repliesRead }: { view: View; token: string; repliesRead: boolean }) {
+export function StatusView({ view, token, repliesRead, price }: { view: View; token: string; repliesRead: boolean; /** The job's quotes, when the shop has sent one. */ price?: React.ReactNode }) {
   const tz = view.shop.timeZone;
   const readyBy = readyDay(view.readyBy);
   return (
@@ -72,6 +72,8 @@ export function StatusView({ view, token, repliesRead }: { view: View; token: st
         <dt className="font-semibold">{view.stage === "ready" || view.stage === "delivered" ? "Status" : "Expected ready"}</dt>
         <dd>{view.stage === "delivered" ? "Picked up" : view.stage === "ready" ? "Ready now" : (readyBy ?? "The shop will confirm the date")}</dd>
       </dl>
+
+      {price}
 
       <section aria-labelledby="timeline-title" className="mt-6">
         <h2 id="timeline-title" className="mb-2 text-lg font-bold">Progress</h2>
