@@ -11,6 +11,14 @@ export function KitCautions() {
           wound needs a doctor at once, even if it looks small.
         </li>
         <li>The relief valve is set by a qualified person, with a gauge, within the pump and PTO makers&rsquo; limits.</li>
+        <li>
+          Rated pressures come from the pump, hose, fitting and trailer makers, not from this page. Set the relief at or below the lowest of
+          them, and never run a hose or fitting whose rating you do not know.
+        </li>
+        <li>
+          Stand clear of a raised deck or a trailer lifted on its cylinders: block it mechanically before working under it. A hose can burst
+          at any rating.
+        </li>
         <li>These figures size a kit; they do not approve it. Follow the PTO, pump and transmission makers&rsquo; instructions and local codes.</li>
       </ul>
     </aside>

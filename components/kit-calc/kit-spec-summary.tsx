@@ -21,7 +21,9 @@ function tankWords(input: KitCalcInput) {
   const size =
     t.shape === "round"
       ? `Round tube ${fmt(t.insideDiameterIn, 1)} in ID × ${fmt(t.lengthIn, 1)} in long`
-      : `Box ${fmt(t.lengthIn, 1)} × ${fmt(t.widthIn, 1)} × ${fmt(t.heightIn, 1)} in high`;
+      : t.shape === "d"
+        ? `D-shape ${fmt(t.lengthIn, 1)} in long × ${fmt(t.widthIn, 1)} in wide × ${fmt(t.heightIn, 1)} in high (flat side on the rail)`
+        : `Box ${fmt(t.lengthIn, 1)} × ${fmt(t.widthIn, 1)} × ${fmt(t.heightIn, 1)} in high`;
   const sump = input.sumpGal ? `, ${fmt(input.sumpGal, 1)} gal sump` : "";
   const fill = input.fillDepthIn !== undefined ? `, oil ${fmt(input.fillDepthIn, 1)} in deep` : ", filled 90 % by volume";
   return size + sump + fill;
@@ -53,6 +55,16 @@ export function KitSpecSummary({ inputs, results }: { inputs: KitCalcInput; resu
         <Tile label="PTO torque" value={fmt(results.pumpTorqueLbFt, 0)} unit="lb·ft" sub={metric.newtonMetres(results.pumpTorqueLbFt)} />
         <Tile label="Reservoir, total / oil" value={`${fmt(results.tank.totalGal, 1)} / ${fmt(results.tank.oilGal, 1)}`} unit="gal" sub={`${metric.litres(results.tank.totalGal)} / ${metric.litres(results.tank.oilGal)}`} />
         <Tile label="Oil held" value={fmt(results.reservoirMinutesOfFlow, 2)} unit="min of flow" />
+        {/* Specs saved before the heat and usable-oil checks carry neither figure. */}
+        {results.tank.usableGal !== undefined && <Tile label="Oil above the pick-up" value={fmt(results.tank.usableGal, 1)} unit="gal" sub={metric.litres(results.tank.usableGal)} />}
+        {results.heat.generatedBtuPerHr !== undefined && (
+          <Tile
+            label="Heat made / shed (estimate)"
+            value={`${fmt(Math.round(results.heat.generatedBtuPerHr / 10) * 10, 0)} / ${fmt(Math.round(results.heat.shedBtuPerHr / 10) * 10, 0)}`}
+            unit="Btu/h"
+            sub={results.heat.coolerAdvised ? `cooler of at least ${fmt(Math.round(results.heat.coolerBtuPerHr / 10) * 10, 0)} Btu/h` : "no cooler needed"}
+          />
+        )}
       </div>
 
       <div className="overflow-x-auto">

@@ -19,7 +19,8 @@ const LABEL = 13;
 export function TankDrawing({ input, className = "" }: { input: KitCalcInput; className?: string }) {
   const tank = input.tank;
   const heightIn = tank.shape === "round" ? tank.insideDiameterIn : tank.heightIn;
-  const widthIn = tank.shape === "round" ? tank.insideDiameterIn : tank.lengthIn;
+  // Round and D tanks are drawn from the end (their cross-section), a box from the side.
+  const widthIn = tank.shape === "round" ? tank.insideDiameterIn : tank.shape === "d" ? tank.widthIn : tank.lengthIn;
   const fillIn = Math.min(input.fillDepthIn ?? defaultFillDepthIn(tank, DEFAULT_AIR_SPACE_FRACTION), heightIn);
   const hasSump = (input.sumpGal ?? 0) > 0;
   const sumpDepth = 22;
@@ -31,23 +32,29 @@ export function TankDrawing({ input, className = "" }: { input: KitCalcInput; cl
   const bottom = top + h;
   const oilY = bottom - fillIn * scale;
   // The pick-up drops down the middle of a tube; in a box it sits toward the suction end.
-  const pickupX = tank.shape === "round" ? left + w / 2 : left + w * 0.8;
+  const pickupX = tank.shape === "round" ? left + w / 2 : tank.shape === "d" ? left + Math.max(w - h / 2, w * 0.3) * 0.6 : left + w * 0.8;
   const sumpW = Math.max(w * 0.2, 20);
   const sump = hasSump ? { x: pickupX - sumpW / 2, y: bottom - 1, w: sumpW, h: sumpDepth } : null;
   const floorY = sump ? sump.y + sump.h : bottom;
   const pickupEndY = floorY - Math.max(PICKUP_ABOVE_BOTTOM_IN * scale, 5);
   // Named after its geometry: two drawings of one tank may share a clip path, two different tanks never do.
   const clipId = `tank-clip-${tank.shape}-${Math.round(left * 100)}-${Math.round(w * 100)}-${Math.round(h * 100)}`;
+  const flatW = w - h / 2;
   const outline =
     tank.shape === "round" ? (
       <circle cx={left + w / 2} cy={top + h / 2} r={w / 2} />
+    ) : tank.shape === "d" ? (
+      // Flat rail side on the left, flat top and bottom, a half-round of the tank's height outboard.
+      <path d={`M ${left} ${top} H ${left + flatW} A ${h / 2} ${h / 2} 0 0 1 ${left + flatW} ${bottom} H ${left} Z`} />
     ) : (
       <rect x={left} y={top} width={w} height={h} />
     );
   const sizeText =
     tank.shape === "round"
       ? `Round tube, end view: ${fmt(tank.insideDiameterIn, 1)} in inside diameter × ${fmt(tank.lengthIn, 1)} in long`
-      : `Box, side view: ${fmt(tank.lengthIn, 1)} in long × ${fmt(tank.heightIn, 1)} in high × ${fmt(tank.widthIn, 1)} in wide`;
+      : tank.shape === "d"
+        ? `D-shaped tank, end view: ${fmt(tank.heightIn, 1)} in high × ${fmt(tank.widthIn, 1)} in wide, flat side on the frame rail, ${fmt(tank.lengthIn, 1)} in long`
+        : `Box, side view: ${fmt(tank.lengthIn, 1)} in long × ${fmt(tank.heightIn, 1)} in high × ${fmt(tank.widthIn, 1)} in wide`;
   const summary = `${sizeText}. Oil ${fmt(fillIn, 1)} in deep. Suction pick-up ${PICKUP_ABOVE_BOTTOM_IN} in above the ${sump ? "sump" : "tank"} bottom.`;
 
   return (
@@ -77,11 +84,15 @@ export function TankDrawing({ input, className = "" }: { input: KitCalcInput; cl
           </text>
         )}
         <text x={AREA.x + AREA.w / 2} y={VIEW_H - 6} fontSize={LABEL} textAnchor="middle" fill="currentColor" fontWeight={600}>
-          {tank.shape === "round" ? `Ø ${fmt(tank.insideDiameterIn, 1)} in × ${fmt(tank.lengthIn, 1)} in long` : `${fmt(tank.lengthIn, 1)} in long × ${fmt(tank.heightIn, 1)} in high, ${fmt(tank.widthIn, 1)} in wide`}
+          {tank.shape === "round"
+            ? `Ø ${fmt(tank.insideDiameterIn, 1)} in × ${fmt(tank.lengthIn, 1)} in long`
+            : tank.shape === "d"
+              ? `D ${fmt(tank.heightIn, 1)} in high × ${fmt(tank.widthIn, 1)} in wide × ${fmt(tank.lengthIn, 1)} in long`
+              : `${fmt(tank.lengthIn, 1)} in long × ${fmt(tank.heightIn, 1)} in high, ${fmt(tank.widthIn, 1)} in wide`}
         </text>
       </svg>
       <figcaption className="text-sm text-ink-soft">
-        {tank.shape === "round" ? "End view of the tube" : "Side view of the box"}, to scale{sump ? " (the sump is not)" : ""}. Dashed line: the oil level.
+        {tank.shape === "round" ? "End view of the tube" : tank.shape === "d" ? "End view of the D (frame rail on the left)" : "Side view of the box"}, to scale{sump ? " (the sump is not)" : ""}. Dashed line: the oil level.
       </figcaption>
     </figure>
   );

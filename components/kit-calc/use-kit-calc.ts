@@ -58,7 +58,7 @@ export function useKitCalc(start: KitCalcInput, startAnswer?: KitSpec) {
   function setShape(shape: TankShape) {
     setForm((current) => {
       if (current.shape === shape) return current;
-      if (shape === "box") {
+      if (shape === "box" || shape === "d") {
         return { ...current, shape, tankWidthIn: current.tankWidthIn || current.tankDiameterIn, tankHeightIn: current.tankHeightIn || current.tankDiameterIn };
       }
       return { ...current, shape, tankDiameterIn: current.tankDiameterIn || current.tankHeightIn };

@@ -54,7 +54,10 @@ export function kitSpecLines(inputs: KitCalcInput, results: KitSpec, items: read
   add("pto", "part", `PTO, ${trim(inputs.ptoRatioPercent, 0)} % of engine speed`, 1);
   add("pump", "part", `Hydraulic pump, ${trim(inputs.pumpDisplacementCuIn, 2)} in³/rev`, 1);
   const t = inputs.tank;
-  const shape = t.shape === "round" ? `round ${trim(t.insideDiameterIn, 2)} in × ${trim(t.lengthIn, 2)} in` : `box ${trim(t.lengthIn, 2)} × ${trim(t.widthIn, 2)} × ${trim(t.heightIn, 2)} in`;
+  const shape =
+    t.shape === "round"
+      ? `round ${trim(t.insideDiameterIn, 2)} in × ${trim(t.lengthIn, 2)} in`
+      : `${t.shape === "d" ? "D-shape" : "box"} ${trim(t.lengthIn, 2)} × ${trim(t.widthIn, 2)} × ${trim(t.heightIn, 2)} in`;
   add("reservoir", "fabrication", `Reservoir, ${shape}, ${trim(results.tank.totalGal, 1)} gal`, 1);
   const hoses: [string, { insideDiameterIn: number; lengthFt: number } | undefined][] = [
     ["Suction hose", inputs.suctionLine],

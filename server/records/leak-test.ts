@@ -36,6 +36,10 @@ export type LeakTestOutcome = {
   warnings: LeakTestWarning[];
   /** Why the test is invalid: the procedure breaches, empty unless the result is "invalid". */
   invalidReasons: LeakTestWarning[];
+  /** How far 1 °F of thermometer error moves the corrected drop at this test's pressure, psi. */
+  thermometerPsiPerF: number;
+  /** Said when that is near the allowed drop; null otherwise. */
+  thermometerCaution: string | null;
 };
 
 // Rankine = °F + 459.67, exact by the definition of the two scales.
@@ -109,6 +113,29 @@ export function pressureDrop(readings: PressureReadings): { rawDropPsi: number; 
 }
 
 /**
+ * How much 1 °F of error in a temperature reading moves the corrected drop, psi. The corrected drop is
+ * P_start − P_end × T_start / T_end (absolute units), so an error in the end reading moves it by
+ * P_end × T_start / T_end² per degree and one in the start reading by P_end / T_end; the larger is given.
+ * At 5 psig and 70 °F that is 19.696 / 529.67 ≈ 0.037 psi per °F.
+ */
+export function thermometerSensitivityPsiPerF(readings: Omit<PressureReadings, "startPressurePsig">): number {
+  const endAbs = readings.endPressurePsig + readings.barometricPsia;
+  const startRankine = readings.startTempF + RANKINE_OFFSET_F;
+  const endRankine = readings.endTempF + RANKINE_OFFSET_F;
+  return Math.max((endAbs * startRankine) / (endRankine * endRankine), endAbs / endRankine);
+}
+
+// Common practice, no published source: a 1 °F misread worth half the allowed drop or more can make or break
+// the result on its own, so the tech is told to read both temperatures the same way.
+export const THERMOMETER_NEAR_SHARE_OF_ALLOWED = 0.5;
+
+export function thermometerCaution(psiPerF: number, allowedDropPsi: number): string | null {
+  if (psiPerF < THERMOMETER_NEAR_SHARE_OF_ALLOWED * allowedDropPsi) return null;
+  const share = allowedDropPsi > 0 ? ` (${Math.round((psiPerF / allowedDropPsi) * 100)} % of the allowed ${show(allowedDropPsi)} psi)` : "";
+  return `A thermometer reading off by 1 °F moves the corrected drop by ${psiPerF.toFixed(3)} psi at this pressure${share}: read both temperatures with the same thermometer at the same spot, out of the sun, and call a drop this close a retest rather than a pass or fail.`;
+}
+
+/**
  * The pressure the gauge would read at the end of the hold if the tank were tight and only the
  * temperature changed (ideal gas law, absolute units).
  */
@@ -170,7 +197,16 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
   // the shop's procedure proves nothing either way: it is invalid and is done again.
   const result: LeakTestResult = seamLeaked ? "fail" : breaches.length > 0 ? "invalid" : usesDecay && dropTooLarge ? "fail" : "pass";
   const invalidReasons = result === "invalid" ? breaches.map(({ code, message }) => ({ code, message })) : [];
-  return { correctedDropPsi, rawDropPsi, result, warnings, invalidReasons };
+  const thermometerPsiPerF = thermometerSensitivityPsiPerF(test);
+  return {
+    correctedDropPsi,
+    rawDropPsi,
+    result,
+    warnings,
+    invalidReasons,
+    thermometerPsiPerF,
+    thermometerCaution: usesDecay ? thermometerCaution(thermometerPsiPerF, context.allowedDropPsi) : null,
+  };
 }
 
 /** Shown on the leak-test form before the tank is pressurized. */

@@ -203,7 +203,7 @@ export async function deletePart(db: DB, actor: StaffUser, partId: number): Prom
   });
 }
 
-export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi" | "result" | "warnings" | "invalidReasons"> {
+export interface LeakTestAnswer extends Pick<LeakTestOutcome, "correctedDropPsi" | "result" | "warnings" | "invalidReasons" | "thermometerPsiPerF" | "thermometerCaution"> {
   test: LeakTestView;
   /**
    * The job as it stood when the test was saved: a page opened earlier may hold an older stage or
@@ -249,7 +249,16 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
     return { testId: row.id, outcome, job };
   });
   const [test] = await listLeakTests(db, { testId });
-  return { correctedDropPsi: outcome.correctedDropPsi, result: outcome.result, warnings: outcome.warnings, invalidReasons: outcome.invalidReasons, test, job };
+  return {
+    correctedDropPsi: outcome.correctedDropPsi,
+    result: outcome.result,
+    warnings: outcome.warnings,
+    invalidReasons: outcome.invalidReasons,
+    thermometerPsiPerF: outcome.thermometerPsiPerF,
+    thermometerCaution: outcome.thermometerCaution,
+    test,
+    job,
+  };
 }
 
 export async function createVendor(db: DB, input: VendorInput): Promise<VendorView> {

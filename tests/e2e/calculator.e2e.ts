@@ -134,4 +134,72 @@ describe.skipIf(!enabled)("the wet-kit calculator in Chromium", () => {
     expect(refused.status()).toBe(403);
     await tech.close();
   });
+
+  it("more about this kit: ratings, duty and a D-shaped tank change the checks, each with its formula and source", async () => {
+    const context = await browser.newContext(DESK);
+    const page = await signIn(context, "office");
+    await page.goto(`${baseUrl()}/calculator`);
+    await page.getByTestId("result-flowGpm").waitFor();
+    // The shop's demo kit fills in every added box, so the added checks show from the start, and calmly.
+    await page.getByRole("region", { name: "Heat" }).getByText(/no cooler needed/).waitFor();
+    await page.getByTestId("suction-inlet").getByText("Cold start").waitFor();
+    await page.locator('[data-rating="trailer"]').waitFor();
+
+    await page.getByTestId("more-about-kit").locator("summary").click();
+    await page.getByLabel("PTO intermittent torque, lb·ft").waitFor();
+    await shot(page, "calculator-desk-more-open");
+
+    // 2750 psi × 3.5 in³ / 2π / 0.9 / 12 = 141.8 lb·ft at relief, over a 120 lb·ft intermittent rating.
+    await page.getByLabel("PTO intermittent torque, lb·ft").fill("120");
+    const torque = page.locator('[data-warning="relief_torque_above_pto_intermittent"]');
+    await torque.waitFor({ timeout: 10_000 });
+    expect(await torque.textContent()).toMatch(/141\.8 lb·ft/);
+
+    // Hoses rated under the relief: the table shows the negative room and the warning says what to do.
+    await page.getByLabel("Hose rated pressure, psi").fill("2500");
+    await page.locator('[data-warning="relief_above_hose_rating"]').waitFor({ timeout: 10_000 });
+    expect(await page.locator('[data-rating="hose"]').textContent()).toMatch(/-250 psi/);
+
+    // Half the time at working pressure: more heat than the tank sheds, and the cooler size to close the gap.
+    await page.getByLabel("Time at working pressure, %").fill("50");
+    await page.locator('[data-warning="cooler_advised"]').waitFor({ timeout: 10_000 });
+    await page.getByTestId("result-heat.generatedBtuPerHr").click();
+    await page.getByText(/share at working pressure × \(input hp − hydraulic hp\)/).waitFor();
+
+    // A D-shaped tank draws from its end and its volume is worked out by its own geometry.
+    await page.getByText("◗ D-shape").click();
+    await page.getByRole("img", { name: /D-shaped tank, end view/ }).waitFor({ timeout: 10_000 });
+    await page.getByTestId("result-tank.totalGal").click();
+    await page.getByText(/D: \(\(W − h\/2\) h \+ π h²\/8\) L/).waitFor();
+    await shot(page, "calculator-desk-d-tank");
+
+    // A bad added box is named beside it, and the fold stays open so it can be seen.
+    await page.getByLabel("Oil viscosity cold, cSt").fill("10");
+    await page.getByText(/Cold oil is thicker than warm oil/).waitFor({ timeout: 10_000 });
+    await context.close();
+  });
+
+  it("more about this kit on a phone: the fold opens, fits the width, and every box is big enough for a thumb", async () => {
+    const context = await browser.newContext(PHONE);
+    const page = await signIn(context, "tech");
+    await page.goto(`${baseUrl()}/calculator`);
+    await page.getByTestId("result-flowGpm").waitFor();
+    await page.getByTestId("more-about-kit").locator("summary").click();
+    await page.getByLabel("Cylinder bore, in").scrollIntoViewIfNeeded();
+    await shot(page, "calculator-phone-more-open");
+    await page.getByText("◗ D-shape").click();
+    await page.getByRole("img", { name: /D-shaped tank, end view/ }).waitFor({ timeout: 10_000 });
+    await page.getByRole("region", { name: "Heat" }).scrollIntoViewIfNeeded();
+    await shot(page, "calculator-phone-heat");
+    const small = await page.evaluate(() =>
+      [...document.querySelectorAll<HTMLElement>("main input:not(.sr-only), main button, main summary, main label:has(> input[type=radio])")]
+        .filter((el) => el.offsetParent !== null)
+        .map((el) => ({ text: el.textContent?.trim().slice(0, 30) || el.getAttribute("name"), h: el.getBoundingClientRect().height }))
+        .filter((el) => el.h < 44),
+    );
+    expect(small).toEqual([]);
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+    expect(overflow).toBeLessThanOrEqual(0);
+    await context.close();
+  });
 });

@@ -28,6 +28,12 @@ describe("lines from the kit spec", () => {
     expect(unpriced).toEqual(["Suction hose, 1.75 in inside diameter, 4 ft"]);
   });
 
+  it("a D-shaped reservoir is named as one, not as a box", () => {
+    const input = { ...demoKitCalcInput, tank: { shape: "d" as const, lengthIn: 30, widthIn: 16, heightIn: 20 } };
+    const { lines } = kitSpecLines(input, computeKitSpec(input), ITEMS);
+    expect(lines[2].description).toMatch(/Reservoir, D-shape 30 × 16 × 20 in, /);
+  });
+
   it("an empty price list still lists every line, each named as unpriced", () => {
     const { lines, unpriced } = kitSpecLines(demoKitCalcInput, spec, []);
     expect(lines).toHaveLength(6);

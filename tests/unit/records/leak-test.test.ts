@@ -8,6 +8,8 @@ import {
   formatDropPsi,
   pneumaticTestCautions,
   pressureDrop,
+  thermometerCaution,
+  thermometerSensitivityPsiPerF,
   type LeakTestContext,
 } from "@/server/records/leak-test";
 import type { LeakTestInput } from "@/server/records/schemas";
@@ -311,5 +313,40 @@ describe("pneumatic test cautions", () => {
     expect(text).toMatch(/relief valve/);
     expect(text).toMatch(/local codes/);
     expect(new Set(pneumaticTestCautions.map((c) => c.key)).size).toBe(pneumaticTestCautions.length);
+  });
+});
+
+describe("thermometer error against the allowed drop", () => {
+  it("at 5 psig and 70 °F, 1 °F of error moves the corrected drop by 19.696 / 529.67 psi (our own arithmetic, checked with mathjs kelvins)", () => {
+    const psiPerF = thermometerSensitivityPsiPerF({ endPressurePsig: 5, startTempF: 70, endTempF: 70, barometricPsia: 14.696 });
+    expect(psiPerF).toBeCloseTo(19.696 / 529.67, 12);
+    // Independent: the oracle's corrected drop with the end reading 1 °F low, less the true one.
+    const shifted = oracleCorrectedDrop(5, 5, 70, 69) - oracleCorrectedDrop(5, 5, 70, 70);
+    expect(Math.abs(Math.abs(shifted) - psiPerF)).toBeLessThan(1e-4);
+  });
+
+  it("grows with pressure and is the larger of the start and end sensitivities at three points", () => {
+    for (const [psig, start, end] of [
+      [1.5, 40, 40],
+      [3, 70, 60],
+      [5, 100, 110],
+    ]) {
+      const endAbs = psig + 14.696;
+      const startR = unit(start, "degF").toNumber("degR");
+      const endR = unit(end, "degF").toNumber("degR");
+      const expected = Math.max((endAbs * startR) / (endR * endR), endAbs / endR);
+      expect(thermometerSensitivityPsiPerF({ endPressurePsig: psig, startTempF: start, endTempF: end, barometricPsia: 14.696 })).toBeCloseTo(expected, 9);
+    }
+  });
+
+  it("a decay test cautions when 1 °F is half the allowed drop or more; a soap-only test does not", () => {
+    const decay = evaluateLeakTest(leakTest(), context);
+    // 18.696 / 529.67 = 0.0353 psi per °F against 0.05 allowed: 71 %.
+    expect(decay.thermometerPsiPerF).toBeCloseTo(18.696 / 529.67, 9);
+    expect(decay.thermometerCaution).toMatch(/0\.035 psi at this pressure \(71 % of the allowed 0\.05 psi\)/);
+    expect(evaluateLeakTest(leakTest(), { ...context, allowedDropPsi: 0.1 }).thermometerCaution).toBeNull();
+    expect(evaluateLeakTest(leakTest({ method: "soap" }), context).thermometerCaution).toBeNull();
+    expect(thermometerCaution(0.025, 0.05)).not.toBeNull();
+    expect(thermometerCaution(0.0249, 0.05)).toBeNull();
   });
 });

@@ -46,6 +46,8 @@ interface LeakTestAnswer {
   result: LeakTestResult;
   warnings: LeakTestWarning[];
   invalidReasons: LeakTestWarning[];
+  thermometerPsiPerF?: number;
+  thermometerCaution?: string | null;
   test: {
     partName: string;
     rawDropPsi: number;
@@ -565,6 +567,15 @@ function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTes
         {formatDropPsi(Math.abs(raw)) === "0.00" ? "The gauge itself did not move." : `Before the correction the gauge ${raw < 0 ? "rose" : "fell"} ${formatDropPsi(Math.abs(raw))} psi.`}
       </p>
       <p className="text-sm text-ink-soft">{DROP_PRECISION_NOTE}</p>
+      {answer.thermometerCaution ? (
+        <p data-testid="thermometer-caution" className="flex gap-2 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">
+          <IconWarn className="mt-0.5 h-4 w-4 shrink-0" /> <span>{answer.thermometerCaution}</span>
+        </p>
+      ) : (
+        answer.thermometerPsiPerF !== undefined && (
+          <p className="text-sm text-ink-soft">1 °F of thermometer error moves the corrected drop by {answer.thermometerPsiPerF.toFixed(3)} psi at this pressure.</p>
+        )
+      )}
       {leaks.length > 0 && <p className="font-semibold text-stop-700">Leak seen at: {leaks.join(", ")}.</p>}
       {cautions.length > 0 && (
         <ul className="space-y-1">
