@@ -13,11 +13,14 @@ export interface JobListRow {
   customerName: string;
   unitNumber: string;
   techName: string | null;
+  /** The day (YYYY-MM-DD, the shop's calendar) a delivered job went out; given on a customer's or truck's history. */
+  deliveredAt?: string | null;
 }
 
 export type JobSortKey = "newest" | "customer" | "stage" | "due";
 
 const due = (iso: string | null) => (iso ? showStoredDate(iso, "d MMM yyyy") : null);
+const delivered = (iso: string | null | undefined) => (iso ? showStoredDate(iso, "d MMM yyyy") : null);
 
 /**
  * Jobs as a table on a desk and as a list of rows on a phone, where the work order stays on one
@@ -41,7 +44,7 @@ export function JobList({
   narrow?: boolean;
 }) {
   if (rows.length === 0) return <>{empty}</>;
-  const show = { customer: !hide.includes("customer"), truck: !hide.includes("truck") };
+  const show = { customer: !hide.includes("customer"), truck: !hide.includes("truck"), delivered: rows.some((r) => r.deliveredAt !== undefined) };
   const heading = (key: JobSortKey, label: string) =>
     sort ? (
       <th key={key} scope="col" className="p-2" aria-sort={sort.current === key ? "ascending" : undefined}>
@@ -70,6 +73,7 @@ export function JobList({
               )}
               {j.priority === "rush" && <span className="font-bold text-spark-700">▲ Rush</span>}
               {j.dueOn && <span>Due {due(j.dueOn)}</span>}
+              {j.deliveredAt && <span>Delivered {delivered(j.deliveredAt)}</span>}
               <span>{j.techName ? `Assigned: ${j.techName}` : "Nobody assigned"}</span>
             </span>
           </Link>
@@ -91,6 +95,7 @@ export function JobList({
               {show.customer && heading("customer", sort?.labels.customer ?? "Customer")}
               {heading("stage", sort?.labels.stage ?? "Stage")}
               {heading("due", sort?.labels.due ?? "Due")}
+              {show.delivered && <th scope="col" className="p-2">Delivered</th>}
               {show.truck && <th scope="col" className="p-2">Truck</th>}
               <th scope="col" className="p-2">Work description</th>
               <th scope="col" className="p-2">Assigned</th>
@@ -106,6 +111,7 @@ export function JobList({
                 {show.customer && <td className="p-2">{j.customerName}</td>}
                 <td className="whitespace-nowrap p-2"><StageBadge stage={j.stage} /></td>
                 <td className="whitespace-nowrap p-2">{due(j.dueOn) ?? "—"}</td>
+                {show.delivered && <td className="whitespace-nowrap p-2">{delivered(j.deliveredAt) ?? "—"}</td>}
                 {show.truck && <td className="whitespace-nowrap p-2">Unit {j.unitNumber}</td>}
                 <td className="max-w-80 truncate p-2" title={j.description}>{j.description}</td>
                 <td className="p-2">{j.techName ?? "—"}</td>

@@ -34,7 +34,7 @@ export default function ReportChart({ rows, xKey, xLabel, yLabel, series, summar
       <ResponsiveContainer width="100%" height="100%">
         <BarChart data={rows} margin={{ top: 8, right: 16, bottom: 28, left: 8 }}>
           <CartesianGrid strokeDasharray="3 3" stroke="#d5d9d6" />
-          <XAxis dataKey={xKey} tick={{ fill: "#16252b", fontSize: 12 }} angle={rows.length > 4 ? -30 : 0} textAnchor={rows.length > 4 ? "end" : "middle"} height={rows.length > 4 ? 64 : 30} interval={rows.length <= 8 ? 0 : "preserveStartEnd"} tickFormatter={(v: string) => (rows.length > 4 && v.length > 12 ? `${v.slice(0, 11)}…` : v)} label={{ value: xLabel, position: "insideBottom", offset: -18, fill: "#44545b", fontSize: 13 }} />
+          <XAxis dataKey={xKey} tick={{ fill: "#16252b", fontSize: 12 }} angle={rows.length > 4 ? -30 : 0} textAnchor={rows.length > 4 ? "end" : "middle"} height={rows.length > 4 ? 64 : 30} interval={rows.length <= 8 ? 0 : "preserveStartEnd"} tickFormatter={(v: string) => (rows.length > 4 && v.length > 16 ? `${v.slice(0, 15)}…` : v)} label={{ value: xLabel, position: "insideBottom", offset: -18, fill: "#44545b", fontSize: 13 }} />
           <YAxis
             allowDecimals={!integers}
             tick={{ fill: "#16252b", fontSize: 13 }}

@@ -63,7 +63,7 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
                     href={item.href}
                     aria-current={active ? "page" : undefined}
                     onClick={() => setOpen(false)}
-                    className={`flex min-h-11 items-center whitespace-nowrap rounded-md px-3 font-semibold ${active ? "bg-bay-700 text-white" : "text-bay-900 hover:bg-bay-100"}`}
+                    className={`flex min-h-11 items-center whitespace-nowrap rounded-md px-3 font-semibold xl:px-2 2xl:px-3 ${active ? "bg-bay-700 text-white" : "text-bay-900 hover:bg-bay-100"}`}
                   >
                     {item.label}
                   </Link>

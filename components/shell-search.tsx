@@ -1,9 +1,8 @@
 "use client";
 
-import { useQuery } from "@tanstack/react-query";
 import { usePathname, useRouter } from "next/navigation";
 import { useEffect, useId, useRef, useState } from "react";
-import { api } from "./api";
+import { api, ApiRequestError } from "./api";
 
 interface Hit {
   id: number;
@@ -40,13 +39,28 @@ export function ShellSearch() {
     const t = setTimeout(() => setAsked(q.trim()), 150);
     return () => clearTimeout(t);
   }, [q]);
-  const { data, isFetching, error } = useQuery({
-    queryKey: ["search", asked],
-    queryFn: ({ signal }) => api<Answer>(`/api/search?q=${encodeURIComponent(asked)}`, { signal }),
-    enabled: open && [...asked].length >= 3,
-    staleTime: 10_000,
-  });
-  const answer = [...asked].length >= 3 ? data : undefined;
+  // Plain fetches (no query cache): the shell also frames the not-found page, outside the providers.
+  const [data, setData] = useState<Answer | undefined>(undefined);
+  const [isFetching, setFetching] = useState(false);
+  const [error, setError] = useState<Error | null>(null);
+  useEffect(() => {
+    if (!open || [...asked].length < 3) return;
+    const abort = new AbortController();
+    setFetching(true);
+    api<Answer>(`/api/search?q=${encodeURIComponent(asked)}`, { signal: abort.signal })
+      .then((answer) => {
+        setData(answer);
+        setError(null);
+      })
+      .catch((err: unknown) => {
+        if (err instanceof ApiRequestError) setError(err);
+      })
+      .finally(() => {
+        if (!abort.signal.aborted) setFetching(false);
+      });
+    return () => abort.abort();
+  }, [asked, open]);
+  const answer = [...asked].length >= 3 && data?.q === asked ? data : undefined;
   const hits = answer?.groups.flatMap((g) => g.hits.map((h) => ({ ...h, key: `${g.kind}-${h.id}` }))) ?? [];
 
   useEffect(() => setActive(0), [asked, data]);
@@ -130,8 +144,8 @@ export function ShellSearch() {
           <circle cx="11" cy="11" r="7" />
           <path d="m20 20-3.5-3.5" />
         </svg>
-        <span className="sr-only sm:not-sr-only">Search</span>
-        <kbd className="hidden rounded border border-line px-1.5 text-xs font-normal text-ink-soft xl:inline">/</kbd>
+        <span className="sr-only sm:not-sr-only xl:sr-only 2xl:not-sr-only">Search</span>
+        <kbd className="hidden rounded border border-line px-1.5 text-xs font-normal text-ink-soft 2xl:inline">/</kbd>
       </button>
       {open && (
         <div

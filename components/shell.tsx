@@ -24,6 +24,7 @@ export function navItemsFor(role: Role): NavItem[] {
     { href: "/calculator", label: "Calculator" },
     ...(role === "owner" || role === "office" ? [{ href: "/prices", label: "Prices" }] : []),
     ...(role === "tech" ? [] : [{ href: "/reports", label: "Reports" }]),
+    ...(role === "office" ? [{ href: "/settings", label: "Settings" }] : []),
     ...(role === "owner"
       ? [
           { href: "/staff", label: "Staff" },

@@ -73,7 +73,8 @@ export const ACCESS_MATRIX: Row[] = [
   ownerPage("PAGE /staff"),
   ownerPage("PAGE /audit"),
   staffPage("PAGE /account"),
-  ownerPage("PAGE /settings"),
+  // The office reads the shop's settings (and saves customer e-mail, as on a job); the owner changes the rest.
+  officePage("PAGE /settings"),
   officePage("PAGE /prices"),
   staffPage("PAGE /trucks"),
   staffPage("PAGE /trucks/[id]"),
@@ -182,6 +183,8 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/shop-settings"),
   ownerOnly("PATCH /api/shop-settings"),
   anyStaff("GET /api/shop-settings/leak-test-procedure"),
+  officeUp("GET /api/shop-settings/shop"),
+  ownerOnly("PUT /api/shop-settings/shop"),
   ownerOnly("PATCH /api/shop-settings/leak-test-procedure"),
 
   // Money: the office prices and sends quotes; the owner keeps the price list, tax rate and deposit.

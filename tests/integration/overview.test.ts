@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import * as boardRoute from "@/app/api/board/route";
 import * as overviewRoute from "@/app/api/overview/route";
+import { truckRecords, withDeliveredDays } from "@/server/jobs/history";
 import { listJobs } from "@/server/jobs/queries";
 import { loadOverview } from "@/server/reports/overview";
 import { useFreshDatabase } from "../support/db";
@@ -87,5 +88,25 @@ describe("the office's overview", () => {
     await db().updateTable("job").set({ description: "Wet kit: 35 gal reservoir" }).where("id", "=", j.id).execute();
     const res = await boardRoute.GET(request("/api/board?q=reservoir", { cookie: await sessionCookieFor(office.id) }));
     expect((await readBody(res)).cards.map((c: { id: number }) => c.id)).toEqual([j.id]);
+  });
+
+  it("a truck's history gives each delivered job the day it went out on the shop's clock, and its newest kit spec", async () => {
+    await db().updateTable("shop").set({ time_zone: "US/Central" }).where("id", "=", 1).execute();
+    const staff = await makeStaff(db(), "office");
+    const out = await makeJob(db(), { stage: "delivered", scope: "install_only" });
+    const open = await makeJob(db(), { stage: "install", scope: "install_only", customerId: (await db().selectFrom("job").select("customer_id").where("id", "=", out.id).executeTakeFirstOrThrow()).customer_id });
+    const ev = (at: string, to: "delivered" | "ready") => db().insertInto("stage_event").values({ job_id: out.id, from_stage: "ready", to_stage: to, at, actor_id: null, note: "", override_reason: null }).execute();
+    await ev("2026-03-02T15:00:00.000Z", "delivered");
+    await ev("2026-03-04T04:00:00.000Z", "delivered"); // 22:00 on Tuesday 3 March, shop time
+    const rows = await withDeliveredDays(db(), [{ id: out.id }, { id: open.id }]);
+    expect(rows).toEqual([{ id: out.id, deliveredAt: "2026-03-03" }, { id: open.id, deliveredAt: null }]);
+
+    const truckId = (await db().selectFrom("job").select("truck_id").where("id", "=", out.id).executeTakeFirstOrThrow()).truck_id;
+    for (const version of [1, 2]) {
+      await db().insertInto("kit_spec").values({ job_id: out.id, version, inputs: "{}", results: "{}", saved_by: staff.id, saved_at: `2026-03-0${version}T15:00:00.000Z` }).execute();
+    }
+    const { specs, photos } = await truckRecords(db(), truckId);
+    expect(specs.map((k) => [k.jobId, k.version])).toEqual([[out.id, 2]]);
+    expect(photos).toEqual([]);
   });
 });

@@ -5,6 +5,7 @@ import { JobList } from "@/components/job-list";
 import { getDb } from "@/db";
 import { currentStaff, requirePageStaff } from "@/server/auth/session";
 import { customerDetail, findCustomer } from "@/server/customers/queries";
+import { withDeliveredDays } from "@/server/jobs/history";
 import { listJobs } from "@/server/jobs/queries";
 import { CUSTOMER_KIND_LABELS } from "@/server/customers/schemas";
 import { CustomerForm } from "../customer-form";
@@ -25,7 +26,8 @@ export default async function CustomerPage({ params }: { params: Promise<{ id: s
   if (!detail) notFound();
   const { customer, contacts, trucks } = detail;
   const canEdit = user.role !== "tech";
-  const jobs = await listJobs(getDb(), { customerId: customer.id, sort: "newest" });
+  // Every job, open and delivered, with the day each delivered one went out.
+  const jobs = await withDeliveredDays(getDb(), await listJobs(getDb(), { customerId: customer.id, sort: "newest", limit: 2000 }));
 
   return (
     <section className="space-y-3">

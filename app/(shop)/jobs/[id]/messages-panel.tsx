@@ -355,7 +355,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
   );
 }
 
-function ShopNotifyBox({ initial, quietOverrideSeconds }: { initial: NotifySettings; quietOverrideSeconds: number | null }) {
+export function ShopNotifyBox({ initial, quietOverrideSeconds }: { initial: NotifySettings; quietOverrideSeconds: number | null }) {
   const [stages, setStages] = useState<Stage[]>(initial.notifyStages);
   const [days, setDays] = useState(String(initial.statusLinkDays));
   const [quiet, setQuiet] = useState(String(initial.quietMinutes));

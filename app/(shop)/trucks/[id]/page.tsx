@@ -1,9 +1,11 @@
+import { showStoredDate } from "@/server/http/calendar-date";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { JobList } from "@/components/job-list";
 import { getDb } from "@/db";
 import { currentStaff, requirePageStaff } from "@/server/auth/session";
+import { truckRecords, withDeliveredDays } from "@/server/jobs/history";
 import { listJobs } from "@/server/jobs/queries";
 import { listCustomerChoices } from "@/server/customers/queries";
 import { findTruck } from "@/server/trucks/queries";
@@ -24,7 +26,10 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
   const truck = id === null ? undefined : await findTruck(getDb(), id);
   if (!truck) notFound();
   const canEdit = user.role !== "tech";
-  const jobs = await listJobs(getDb(), { truckId: truck.id, sort: "newest" });
+  const [jobs, records] = await Promise.all([
+    listJobs(getDb(), { truckId: truck.id, sort: "newest", limit: 2000 }).then((rows) => withDeliveredDays(getDb(), rows)),
+    truckRecords(getDb(), truck.id),
+  ]);
 
   return (
     <section className="space-y-3">
@@ -73,6 +78,49 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
             )}
           </div>
           <JobList rows={jobs} hide={["customer", "truck"]} caption={`Jobs for unit ${truck.unitNumber}`} narrow empty={<p className="text-ink-soft">No jobs for this truck yet.</p>} />
+        </section>
+      </div>
+
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
+        <section aria-labelledby="photos-heading" className="space-y-3 rounded-lg border border-line bg-panel p-4">
+          <h2 id="photos-heading" className="text-lg font-bold">
+            Photos <span className="font-normal text-ink-soft">({records.photos.length})</span>
+          </h2>
+          {records.photos.length === 0 ? (
+            <p className="text-ink-soft">No photos of this truck&rsquo;s work yet; they are taken on each job&rsquo;s page.</p>
+          ) : (
+            <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3 xl:grid-cols-4">
+              {records.photos.map((p) => (
+                <li key={p.id}>
+                  <Link href={`/jobs/${p.jobId}#photos`} className="block space-y-1 rounded-md hover:bg-bay-50">
+                    {/* eslint-disable-next-line @next/next/no-img-element -- the shop's own resized thumbnail */}
+                    <img src={`/api/photos/${p.id}?size=thumb`} alt={p.caption || `Photo on ${p.workOrder}`} width={p.width} height={p.height} loading="lazy" className="aspect-[4/3] h-auto w-full rounded-md object-cover" />
+                    <span className="block truncate text-sm">{p.caption || "No caption"}</span>
+                    <span className="block text-xs text-ink-soft">{p.workOrder} · {showStoredDate(p.createdAt, "d MMM yyyy")}</span>
+                  </Link>
+                </li>
+              ))}
+            </ul>
+          )}
+        </section>
+        <section aria-labelledby="specs-heading" className="space-y-3 rounded-lg border border-line bg-panel p-4">
+          <h2 id="specs-heading" className="text-lg font-bold">
+            Kit specs <span className="font-normal text-ink-soft">({records.specs.length})</span>
+          </h2>
+          {records.specs.length === 0 ? (
+            <p className="text-ink-soft">No kit spec saved on this truck&rsquo;s jobs yet.</p>
+          ) : (
+            <ul className="divide-y divide-line">
+              {records.specs.map((k) => (
+                <li key={k.id}>
+                  <Link href={`/jobs/${k.jobId}#kit-spec`} className="flex min-h-11 flex-col justify-center py-1 hover:bg-bay-50">
+                    <span className="font-semibold text-bay-900 underline">{k.workOrder}: kit spec version {k.version}</span>
+                    <span className="text-sm text-ink-soft">Saved {showStoredDate(k.savedAt, "d MMM yyyy")}{k.savedBy ? ` by ${k.savedBy}` : ""}</span>
+                  </Link>
+                </li>
+              ))}
+            </ul>
+          )}
         </section>
       </div>
     </section>
