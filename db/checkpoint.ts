@@ -19,14 +19,14 @@ const Database = require("better-sqlite3");
 const db = new Database(workerData.path, { fileMustExist: true });
 db.pragma("busy_timeout = 5000");
 db.pragma("synchronous = NORMAL");
-const run = () => {
+const run = (asked) => {
   const [result] = db.pragma("wal_checkpoint(PASSIVE)");
-  parentPort.postMessage(result);
+  if (asked !== undefined) parentPort.postMessage({ ...result, asked });
 };
 run();
 const timer = setInterval(run, workerData.everyMs);
 parentPort.on("message", (message) => {
-  if (message === "now") run();
+  if (typeof message === "number") run(message);
   if (message === "stop") {
     clearInterval(timer);
     db.close();
@@ -56,17 +56,19 @@ const AUTOCHECKPOINT_PAGES = 1000;
 export function startCheckpointer(sqlite: SQLite.Database, path: string, everyMs = 1000): Checkpointer {
   sqlite.pragma("wal_autocheckpoint = 0");
   let running = true;
-  const waiting: ((r: CheckpointResult) => void)[] = [];
+  const waiting = new Map<number, (r: CheckpointResult) => void>();
+  let asked = 0;
   const fallBack = () => {
     if (!running) return;
     running = false;
     if (sqlite.open) sqlite.pragma(`wal_autocheckpoint = ${AUTOCHECKPOINT_PAGES}`);
   };
   const worker = new Worker(WORKER_SOURCE, { eval: true, workerData: { path, everyMs } });
-  worker.on("message", (result: CheckpointResult) => {
-    if (!waiting.length) return;
-    worker.unref();
-    for (const resolve of waiting.splice(0)) resolve(result);
+  // Only checkpoints someone asked for are answered, each to whoever asked.
+  worker.on("message", ({ asked: id, busy, log, checkpointed }: CheckpointResult & { asked: number }) => {
+    waiting.get(id)?.({ busy, log, checkpointed });
+    waiting.delete(id);
+    if (!waiting.size) worker.unref();
   });
   worker.on("error", (error) => {
     console.error(`WAL checkpoints moved back to the server's connection: ${error.message}`);
@@ -82,10 +84,11 @@ export function startCheckpointer(sqlite: SQLite.Database, path: string, everyMs
     now() {
       return new Promise((resolve, reject) => {
         if (!running) return reject(new Error("The checkpoint worker is not running."));
-        waiting.push(resolve);
+        const id = ++asked;
+        waiting.set(id, resolve);
         // Someone is waiting for the answer: keep the process alive until it comes.
         worker.ref();
-        worker.postMessage("now");
+        worker.postMessage(id);
       });
     },
     async stop() {
