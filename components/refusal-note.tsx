@@ -14,7 +14,7 @@ export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refus
       {refusal.unmet.length > 0 && (
         <ul className="list-disc space-y-0.5 pl-5">
           {refusal.unmet.map((u) => (
-            <li key={u}>{u}</li>
+            <li key={u}>{withoutHeadingStage(u, refusal.toStage)}</li>
           ))}
         </ul>
       )}
@@ -52,4 +52,10 @@ export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refus
 /** The part of the job page where the first missing record is kept. */
 function recordAnchor(unmet: string[]) {
   return /sign-off/i.test(unmet[0] ?? "") ? "sign-off" : "parts";
+}
+
+/** "Into Install: …" under "Needs before it can move to Install:" says the stage twice; a move across several stages keeps the other stages' names. */
+function withoutHeadingStage(item: string, toStage: MoveRefusal["toStage"]) {
+  const prefix = toStage ? `Into ${STAGE_LABELS[toStage]}: ` : null;
+  return prefix && item.startsWith(prefix) ? item.slice(prefix.length) : item;
 }

@@ -1,10 +1,12 @@
 import Link from "next/link";
 import { redirect } from "next/navigation";
+import { FirstSteps } from "@/components/first-steps";
 import { IconWarn } from "@/components/icons";
 import { StageBadge } from "@/components/stage-badge";
 import { getDb } from "@/db";
 import { requirePageStaff } from "@/server/auth/session";
 import { showStoredDate } from "@/server/http/calendar-date";
+import { shopBeginnings } from "@/server/jobs/queries";
 import { DUE_SOON_DAYS, loadOverview, type OverviewJob } from "@/server/reports/overview";
 
 export const metadata = { title: "Overview" };
@@ -58,7 +60,10 @@ export default async function OverviewPage() {
   const user = await requirePageStaff();
   // The bench starts at the board; the overview is the office's page.
   if (user.role === "tech") redirect("/board");
-  const o = await loadOverview(getDb());
+  const db = getDb();
+  const o = await loadOverview(db);
+  // A shop with no job yet has only zeros to show: the first steps come first.
+  const beginnings = o.onBoard === 0 ? await shopBeginnings(db) : null;
 
   return (
     <section className="space-y-4" aria-labelledby="overview-title">
@@ -69,6 +74,8 @@ export default async function OverviewPage() {
           <Link href="/reports" className={linkClass}>Reports</Link>
         </p>
       </div>
+
+      {beginnings && beginnings.jobs === 0 && <FirstSteps counts={beginnings} role={user.role} />}
 
       <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
         <Figure label="Past due" value={o.pastDue.count} href={o.pastDue.href} tone="stop" note="open jobs past their due date" />

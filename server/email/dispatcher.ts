@@ -179,7 +179,7 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string): Promise
       // A card dragged on and straight back should not send two e-mails a minute apart.
       if (later.some((l) => !parsePayload(l.payload)?.resendOf)) return { skip: REPLACED_BY_LATER_MOVE };
     }
-    if (to.length === 0) return { skip: "Nobody on this job receives e-mail: choose a contact with an e-mail address." };
+    if (to.length === 0) return { skip: "Nobody on this job gets e-mail updates: choose a contact with an e-mail address." };
 
     const link =
       work.kind === "link_issued"

@@ -70,7 +70,7 @@ export async function resendMessage(db: DB, actor: StaffUser, outboxId: string) 
   if (original.replaced_at) throw new ApiError("conflict", "A later move replaced this message, so it is not sent again: it no longer says where the job is. Send the newest message again instead.");
   const { emailOff, to } = await recipientsFor(db, original.job_id);
   if (emailOff) throw new ApiError("conflict", "E-mail is off for this job: switch it on under E-mail settings, then send again.");
-  if (to.length === 0) throw new ApiError("conflict", "Nobody on this job receives e-mail: choose a contact with an e-mail address first.");
+  if (to.length === 0) throw new ApiError("conflict", "Nobody on this job gets e-mail updates: choose a contact with an e-mail address first.");
   const at = new Date().toISOString();
   const row = {
     id: randomUUID(),

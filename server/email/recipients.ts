@@ -10,7 +10,7 @@ type Reader = DB | Transaction<Database>;
 
 export interface JobEmailSettings {
   emailOff: boolean;
-  /** false: every contact of the customer marked "receives e-mail"; true: exactly the chosen ones. */
+  /** false: every contact of the customer who gets e-mail updates; true: exactly the chosen ones. */
   recipientsChosen: boolean;
   contacts: { id: number; name: string; email: string; receivesEmail: boolean; chosen: boolean; gets: boolean }[];
 }

@@ -230,7 +230,7 @@ export function computeKitSpec(rawInput: KitCalcInput): KitSpec {
   const pressureBand = pressureLineBand(input.workingPressurePsi);
   const pressure = input.pressureLine ? checkLine(flowGpm, input.pressureLine.insideDiameterIn, pressureBand) : undefined;
 
-  // Vendor rule of thumb: Btu/h = wetted area × 2.0 Btu/h·ft²·°F × (oil − air) °F.
+  // Equipment suppliers' rule of thumb: Btu/h = wetted area × 2.0 Btu/h·ft²·°F × (oil − air) °F.
   const dissipationBtuPerHr = wettedAreaSqFt * TANK_HEAT_SHED_BTU_PER_HR_SQFT_F * oilToAirDeltaF;
   // Trade reference: 1 hp = 2544 Btu/h.
   const dissipationHp = dissipationBtuPerHr / BTU_PER_HOUR_PER_HORSEPOWER;

@@ -16,7 +16,7 @@ export const sources = {
   mobileReservoirSizing:
     "Common practice, from memory: about 3 × pump flow per minute for an industrial reservoir, down to about 1 × on mobile equipment (no standard's text was read for this)",
   tankHeatRule:
-    "Vendor rules of thumb for a bare steel tank in free air (2.0–2.5 Btu/h·ft²·°F; from memory); an estimate, not a published standard",
+    "Equipment suppliers' rules of thumb for a bare steel tank in free air (2.0–2.5 Btu/h·ft²·°F; from memory); an estimate, not a published standard",
   oilDensity: "From memory: mineral hydraulic oil ISO VG 46 about 0.87 kg/L (data sheets give 0.86–0.88)",
   airSpace: "From memory: leave about 10 % air space above the oil",
   commonPractice: "Common practice, no published source",

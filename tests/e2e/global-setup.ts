@@ -46,6 +46,7 @@ export default async function setup(project: TestProject) {
     if (process.env.REQUIRE_BROWSER === "1") throw new Error(banner + "REQUIRE_BROWSER=1, so this is a failure.");
     console.warn(banner);
     project.provide("baseUrl", "");
+    project.provide("emptyShopUrl", "");
     return;
   }
   if (!existsSync(".next/BUILD_ID")) throw new Error("Build first: npm run build (npm test does this for you).");
@@ -75,20 +76,35 @@ export default async function setup(project: TestProject) {
     UPLOADTHING_UFS_APP_ID_LOCATION: "path",
     UPLOADTHING_LOG_LEVEL: "Error",
   };
-  await run("npx", ["tsx", "scripts/seed.ts"], env);
-  const server: ChildProcess = spawn("npx", ["next", "start", "-p", String(port), "-H", "127.0.0.1"], { env, stdio: ["ignore", "inherit", "inherit"], detached: true });
+  // A second shop on its own database with the tables and nothing in them, as a new shop starts:
+  // the same build, fakes and settings, only its own port, address, database and photos.
+  const emptyPort = await freePort();
+  const emptyEnv = {
+    ...env,
+    DATABASE_PATH: join(dir, "empty-shop.db"),
+    PORT: String(emptyPort),
+    APP_URL: `http://127.0.0.1:${emptyPort}`,
+    PHOTOS_DIR: join(dir, "empty-shop-photos"),
+  };
+  await Promise.all([run("npx", ["tsx", "scripts/seed.ts"], env), run("npx", ["tsx", "scripts/migrate.ts"], emptyEnv)]);
+  const start = (e: typeof env) => spawn("npx", ["next", "start", "-p", e.PORT, "-H", "127.0.0.1"], { env: e, stdio: ["ignore", "inherit", "inherit"], detached: true });
+  const servers: ChildProcess[] = [start(env), start(emptyEnv)];
   const baseUrl = `http://127.0.0.1:${port}`;
-  await waitFor(`${baseUrl}/api/health`, 60_000);
+  const emptyShopUrl = emptyEnv.APP_URL;
+  await Promise.all([waitFor(`${baseUrl}/api/health`, 60_000), waitFor(`${emptyShopUrl}/api/health`, 60_000)]);
   project.provide("baseUrl", baseUrl);
   project.provide("databasePath", env.DATABASE_PATH);
   project.provide("fakesUrl", fakes.url);
+  project.provide("emptyShopUrl", emptyShopUrl);
 
   return async () => {
     // next start forks a next-server child: end the whole process group so the port and database are freed.
-    try {
-      if (server.pid) process.kill(-server.pid, "SIGTERM");
-    } catch {
-      // already gone
+    for (const server of servers) {
+      try {
+        if (server.pid) process.kill(-server.pid, "SIGTERM");
+      } catch {
+        // already gone
+      }
     }
     await fakes.close();
     rmSync(dir, { recursive: true, force: true });
@@ -100,5 +116,7 @@ declare module "vitest" {
     baseUrl: string;
     databasePath: string;
     fakesUrl: string;
+    /** A second server on a database with the tables and no rows: a shop on its first day. */
+    emptyShopUrl: string;
   }
 }

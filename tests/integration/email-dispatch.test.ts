@@ -341,7 +341,7 @@ describe("who gets e-mail, and when none goes", () => {
     const lonely = await makeJob(db());
     await move(cookie, lonely.id, "fabricate");
     await dispatchDueOutbox(db(), new Date(), sender);
-    expect((await outbox(lonely.id))[0]).toMatchObject({ status: "skipped", last_error: expect.stringMatching(/^Nobody on this job receives e-mail/) });
+    expect((await outbox(lonely.id))[0]).toMatchObject({ status: "skipped", last_error: expect.stringMatching(/^Nobody on this job gets e-mail updates/) });
     expect(await emails()).toHaveLength(0);
   });
 });
@@ -420,7 +420,7 @@ describe("a retry sends what is true when it goes", () => {
     const second = await moveThatMustRetry(nobody.job.id);
     expect((await putSettings(office.cookie, nobody.job.id, { emailOff: false, contactIds: [] })).status).toBe(200);
     expect(await dispatchDueOutbox(db(), second.retryAt, sender)).toMatchObject({ claimed: 1, skipped: 1, sent: 0 });
-    expect((await outbox(nobody.job.id))[0]).toMatchObject({ status: "skipped", last_error: expect.stringMatching(/^Nobody on this job receives e-mail/) });
+    expect((await outbox(nobody.job.id))[0]).toMatchObject({ status: "skipped", last_error: expect.stringMatching(/^Nobody on this job gets e-mail updates/) });
     expect(await emails()).toEqual([]);
   });
 

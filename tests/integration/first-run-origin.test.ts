@@ -33,4 +33,18 @@ describe("first run on an empty database", () => {
     await expect(createOwnerAction({}, ownerForm())).rejects.toMatchObject({ digest: expect.stringMatching(/^NEXT_REDIRECT;.*\/board/) });
     expect((await db().selectFrom("staff").select(["email", "role"]).execute())).toEqual([{ email: "dana@ridge.example", role: "owner" }]);
   });
+
+  it("is refused once anyone works here, and adds nobody", async () => {
+    const { createOwnerAction } = await import("@/app/(auth)/first-run/actions");
+    sent.headers = { origin: "http://localhost:3000", "sec-fetch-site": "same-origin" };
+    const before = await db().selectFrom("staff").select(["email", "role"]).execute();
+    expect(before.length).toBeGreaterThan(0);
+    const second = ownerForm();
+    second.set("email", "someone-else@ridge.example");
+    second.set("shopName", "Another Name");
+    const result = await createOwnerAction({}, second);
+    expect(result.message).toBe("This shop is already set up. Sign in instead.");
+    expect(await db().selectFrom("staff").select(["email", "role"]).execute()).toEqual(before);
+    expect((await db().selectFrom("shop").select("name").executeTakeFirst())?.name).toBe("Ridge Upfit");
+  });
 });

@@ -23,7 +23,7 @@ export function FirstSteps({ steps, canOpenJobs }: { steps: { customers: number;
           <li key={item.href} className="flex flex-wrap items-baseline gap-1">
             <span className="font-semibold">{i + 1}.</span>
             <Link href={item.href} className="inline-flex min-h-11 items-center font-semibold text-bay-900 underline">{item.text}</Link>
-            <span className="text-ink-soft">: {item.help}</span>
+            <span className="text-ink-soft">— {item.help}</span>
             {item.done && <span className="font-semibold text-ok-700">✓ done</span>}
           </li>
         ))}

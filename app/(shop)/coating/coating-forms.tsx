@@ -14,11 +14,16 @@ const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
 /** Sends parts from one or more jobs out to a coater on a new run. */
 export function SendRunForm({ vendors, candidates, today }: { vendors: VendorView[]; candidates: CoatingCandidate[]; today: string }) {
   const router = useRouter();
-  const [vendorId, setVendorId] = useState<string>(vendors[0] ? String(vendors[0].id) : "");
+  const [picked, setVendorId] = useState<string>(vendors[0] ? String(vendors[0].id) : "");
+  // The list can grow under the form (the shop's first coater, added on this page): the choice is
+  // always one on the list, the first when none was picked, never a blank the select does not show.
+  const vendorId = vendors.some((v) => String(v.id) === picked) ? picked : vendors[0] ? String(vendors[0].id) : "";
   const [sentOn, setSentOn] = useState(today);
   const [promisedOn, setPromisedOn] = useState<string | null>(null);
   const [chosen, setChosen] = useState<number[]>([]);
   const [done, setDone] = useState<string | null>(null);
+  // Each run sent starts the next one blank: the last customer's color is not the next one's.
+  const [runsSent, setRunsSent] = useState(0);
   const vendor = vendors.find((v) => String(v.id) === vendorId);
   // The promise follows the coater's usual turnaround until someone types the date they were actually given.
   const suggested = vendor && ISO_DATE.test(sentOn) ? addBusinessDaysTo(sentOn, vendor.usualTurnaroundDays) : "";
@@ -38,12 +43,18 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
     ({ run }) => {
       setDone(`Run ${run.id} is out to ${run.vendorName} with ${run.parts.length} ${run.parts.length === 1 ? "part" : "parts"}.`);
       setChosen([]);
+      setRunsSent((n) => n + 1);
       setPromisedOn(null);
       router.refresh();
     },
   );
 
-  if (vendors.length === 0) return <p className="text-ink-soft">Add a coater first (Coaters, on this page).</p>;
+  if (vendors.length === 0)
+    return (
+      <p className="text-ink-soft">
+        Parts go out to a coater on the shop&apos;s list: <a href="#vendors" className="inline-flex min-h-11 items-center font-semibold text-bay-900 underline">add a coater first</a>.
+      </p>
+    );
 
   const partError = (partId: number) => {
     const index = chosen.indexOf(partId);
@@ -93,7 +104,7 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
   };
 
   return (
-    <form onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Send parts out for coating">
+    <form key={runsSent} onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Send parts out for coating">
       <FormAlert failure={form.failure} />
       {done && (
         <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">

@@ -193,38 +193,42 @@ export default async function CoatingPage() {
             <p className="mb-2 text-sm text-ink-soft">
               Runs sent in the last {VENDOR_RECORD_WINDOW_DAYS} days. Turnaround in business days, sent to received. On time means back by the promised date; a run still out past its promise counts as late.
             </p>
-            {/* Focusable and named, so a keyboard can scroll the figures sideways on a phone. */}
-            <div tabIndex={0} role="region" aria-label="Each coater's record, table" className="overflow-x-auto">
-              <table className="w-full min-w-[640px] text-left text-sm">
-                <thead>
-                  <tr className="border-b border-line">
-                    <th scope="col" className="py-2 pr-3">Coater</th>
-                    <th scope="col" className="py-2 pr-3">Usual turnaround</th>
-                    <th scope="col" className="py-2 pr-3">Runs sent</th>
-                    <th scope="col" className="py-2 pr-3">Back</th>
-                    <th scope="col" className="py-2 pr-3">Median turnaround</th>
-                    <th scope="col" className="py-2 pr-3">On time</th>
-                    <th scope="col" className="py-2">Overdue now</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {vendors.map((v) => {
-                    const r = v.record;
-                    return (
-                      <tr key={v.id} className="border-b border-line">
-                        <th scope="row" className="py-2 pr-3 font-semibold">{v.name}</th>
-                        <td className="py-2 pr-3">{days(v.usualTurnaroundDays)}</td>
-                        <td className="py-2 pr-3">{r.runs}</td>
-                        <td className="py-2 pr-3">{r.received}</td>
-                        <td className="py-2 pr-3">{r.medianTurnaroundBusinessDays === null ? "none back yet" : days(r.medianTurnaroundBusinessDays)}</td>
-                        <td className="py-2 pr-3">{r.onTimeShare === null ? "none back or due yet" : `${Math.round(r.onTimeShare * 100)} % (${r.onTime} of ${r.onTime + r.late})`}</td>
-                        <td className={`py-2 ${r.overdue ? "font-bold text-stop-700" : ""}`}>{r.overdue ? <><IconWarn /> {r.overdue}</> : "0"}</td>
-                      </tr>
-                    );
-                  })}
-                </tbody>
-              </table>
-            </div>
+            {vendors.length === 0 ? (
+              <p className="text-ink-soft">No coaters yet: each one&apos;s turnaround shows here once it is on the list.</p>
+            ) : (
+              // Focusable and named, so a keyboard can scroll the figures sideways on a phone.
+              <div tabIndex={0} role="region" aria-label="Each coater's record, table" className="overflow-x-auto">
+                <table className="w-full min-w-[640px] text-left text-sm">
+                  <thead>
+                    <tr className="border-b border-line">
+                      <th scope="col" className="py-2 pr-3">Coater</th>
+                      <th scope="col" className="py-2 pr-3">Usual turnaround</th>
+                      <th scope="col" className="py-2 pr-3">Runs sent</th>
+                      <th scope="col" className="py-2 pr-3">Back</th>
+                      <th scope="col" className="py-2 pr-3">Median turnaround</th>
+                      <th scope="col" className="py-2 pr-3">On time</th>
+                      <th scope="col" className="py-2">Overdue now</th>
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {vendors.map((v) => {
+                      const r = v.record;
+                      return (
+                        <tr key={v.id} className="border-b border-line">
+                          <th scope="row" className="py-2 pr-3 font-semibold">{v.name}</th>
+                          <td className="py-2 pr-3">{days(v.usualTurnaroundDays)}</td>
+                          <td className="py-2 pr-3">{r.runs}</td>
+                          <td className="py-2 pr-3">{r.received}</td>
+                          <td className="py-2 pr-3">{r.medianTurnaroundBusinessDays === null ? "none back yet" : days(r.medianTurnaroundBusinessDays)}</td>
+                          <td className="py-2 pr-3">{r.onTimeShare === null ? "none back or due yet" : `${Math.round(r.onTimeShare * 100)} % (${r.onTime} of ${r.onTime + r.late})`}</td>
+                          <td className={`py-2 ${r.overdue ? "font-bold text-stop-700" : ""}`}>{r.overdue ? <><IconWarn /> {r.overdue}</> : "0"}</td>
+                        </tr>
+                      );
+                    })}
+                  </tbody>
+                </table>
+              </div>
+            )}
           </Section>
           {recent.length > 0 && (
             <Section title="Back in the last 30 days" id="recent">
@@ -263,8 +267,10 @@ export default async function CoatingPage() {
                 </li>
               ))}
             </ul>
+            {vendors.length === 0 && <p className="text-ink-soft">No coaters yet. Add the coater the shop sends parts to; runs are sent to a coater on this list.</p>}
             {office && (
-              <details className="mt-3">
+              // Open on a shop with no coater yet: nothing can go out for coating before one is added.
+              <details className="mt-3" open={vendors.length === 0 || undefined}>
                 <summary className="flex min-h-11 cursor-pointer items-center font-semibold text-bay-800">+ Add a coater</summary>
                 <VendorForm />
               </details>

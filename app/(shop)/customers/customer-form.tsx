@@ -116,7 +116,7 @@ export function CustomerForm({ saved: first }: { saved?: Saved }) {
       <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-4">
         <legend className="px-1 text-lg font-bold">Contacts</legend>
         <p className="text-sm text-ink-soft">
-          People at this customer. Those marked &ldquo;gets e-mail updates&rdquo; receive the status e-mails. Changes here are kept when you save.
+          People at this customer. Those marked &ldquo;gets e-mail updates&rdquo; get the status e-mails. Changes here are kept when you save.
         </p>
         {f.contacts && <p className="text-sm font-medium text-stop-700">⚠ {f.contacts.join(" ")}</p>}
         {rows.length === 0 && <p className="rounded-md border border-dashed border-line p-3 text-ink-soft">No contacts.</p>}

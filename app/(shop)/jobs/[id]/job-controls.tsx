@@ -30,7 +30,7 @@ export function MoveControl({ job, role }: { job: { id: number; stage: Stage; ve
       setNote("");
       router.refresh();
     } catch (err) {
-      const r = refusalOf(err);
+      const r = refusalOf(err, to);
       setRefusal({ ...r, canOverride: r.canOverride && role === "owner" });
       if (r.kind === "stale") router.refresh();
     } finally {

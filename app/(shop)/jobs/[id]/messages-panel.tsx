@@ -237,7 +237,7 @@ function EmailSettingsBox({ jobId, office, initial }: { jobId: number; office: b
           ))}
         </ul>
       )}
-      {!settings.recipientsChosen && <p className="text-sm text-ink-soft">Until the office saves a choice, e-mail goes to the contacts marked “receives e-mail” on the customer page.</p>}
+      {!settings.recipientsChosen && <p className="text-sm text-ink-soft">Until the office saves a choice, e-mail goes to the contacts who get e-mail updates (as ticked on the customer page).</p>}
       {office && (
         <div className="flex items-center gap-3">
           <button type="button" className={buttonClass.primary} disabled={!dirty || state.kind === "saving"} onClick={save}>

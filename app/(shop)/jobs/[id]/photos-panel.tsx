@@ -58,7 +58,11 @@ export function PhotosPanel({
 }) {
   const queryClient = useQueryClient();
   const photos = useQuery({ queryKey: photoKeys.job(jobId), queryFn: () => api<{ photos: JobPhoto[] }>(`/api/jobs/${jobId}/photos`).then((r) => r.photos), initialData: initialPhotos });
-  const [stage, setStage] = useState<Stage>(jobStage);
+  // The stage a new photo is filed under follows the job as it moves, unless someone chose another
+  // one while the job was where it is now (a photo of the Fabricate weld taken during Install).
+  const [chosen, setChosen] = useState<{ stage: Stage; whileJobIn: Stage } | null>(null);
+  const stage = chosen && chosen.whileJobIn === jobStage ? chosen.stage : jobStage;
+  const setStage = (next: Stage) => setChosen({ stage: next, whileJobIn: jobStage });
   const [partId, setPartId] = useState<string>("");
   const [caption, setCaption] = useState("");
   const [sending, setSending] = useState<Sending[]>([]);

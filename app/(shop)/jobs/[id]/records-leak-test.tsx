@@ -504,7 +504,7 @@ export function SendBackOffer({ job, seen, note }: { job: LeakTestJob; seen?: { 
       await sendMove(job.id, { toStage: "fabricate", version: current.version, note });
       setMoved(true);
     } catch (err) {
-      const r = refusalOf(err);
+      const r = refusalOf(err, "fabricate");
       const now = err instanceof ApiRequestError ? (err.failure.details?.job as { stage: Stage; version: number } | undefined) : undefined;
       if (r.kind === "stale" && now) {
         setLatest({ stage: now.stage, version: now.version });
