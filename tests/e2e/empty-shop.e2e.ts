@@ -192,6 +192,9 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     // marks the run received and records the receiving inspection.
     await desk.reload();
     await moveTo(desk, "Outside coating");
+    // The customer hears of a stage once the job has rested in it for the quiet period (3 s here);
+    // a move within that time would replace the message, so the journey waits as a shop's day would.
+    await mailWith(contact.email, `Powder coat · Work order ${workOrder} · Unit FG-07 · ${description}`);
     await desk.getByRole("navigation").getByRole("link", { name: "Coating" }).first().click();
     await desk.waitForURL(/\/coating/);
     // No coater on the list yet: the page leads to adding one, its form already open.
