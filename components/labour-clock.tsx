@@ -4,18 +4,10 @@ import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ApiRequestError, api } from "./api";
+import type { OpenClock } from "@/server/labour/queries";
 import { IconClock, IconWarn } from "./icons";
 
-export interface OpenClock {
-  entryId: number;
-  jobId: number;
-  workOrder: string;
-  unitNumber: string;
-  stage: string;
-  startedAt: string;
-  since: string;
-  flags: { code: string; message: string }[];
-}
+export type { OpenClock };
 
 const clockKey = ["clock"] as const;
 
