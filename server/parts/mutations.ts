@@ -8,7 +8,7 @@ import { latestKitSpec } from "@/server/kit-spec/queries";
 import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
 import { type BoughtPartView, findBoughtPart } from "./queries";
-import { applyReceipt, boughtPartState, countOf } from "./rules";
+import { applyReceipt, boughtPartState, countOf, linesFromQuote } from "./rules";
 import type { BoughtPartInput, BoughtPartPatch, PurchaseOrderInput } from "./schemas";
 
 /** Who sees and sets what bought-in parts cost, and orders them. */
@@ -73,6 +73,56 @@ export async function boughtPartsFromKitSpec(db: DB, actor: StaffUser, jobId: nu
   }
   if (made.length === 0) throw new ApiError("conflict", "A PTO and a pump are already listed on this job; edit them instead.");
   return made;
+}
+
+/**
+ * A bought-in line for each part line of the job's approved quote and change orders not already
+ * listed (see `linesFromQuote`): quantity and description as quoted, no cost (the office fills in
+ * what the supplier charges, not what the customer pays). All lines or none are added.
+ */
+export async function boughtPartsFromQuote(db: DB, actor: StaffUser, jobId: number): Promise<BoughtPartView[]> {
+  const ids = await db.transaction().execute(async (trx) => {
+    const job = await trx.selectFrom("job").select("id").where("id", "=", jobId).executeTakeFirst();
+    if (!job) throw notFound("That job");
+    const approved = await trx.selectFrom("quote").select("id").where("job_id", "=", jobId).where("status", "=", "approved").execute();
+    if (approved.length === 0) {
+      throw new ApiError("conflict", "This job has no approved quote yet: the parts are listed from it once the customer approves it. Add them by hand meanwhile.");
+    }
+    const quoteLines = await trx
+      .selectFrom("quote_line as l")
+      .innerJoin("quote as q", "q.id", "l.quote_id")
+      .leftJoin("price_item as i", "i.id", "l.price_item_id")
+      .select(["l.description", "l.quantity_milli", "i.kit_use"])
+      .where("q.job_id", "=", jobId)
+      .where("q.status", "=", "approved")
+      .where("l.kind", "=", "part")
+      // Versions number quotes and change orders together, so this is the order they were written in.
+      .orderBy("q.version", "asc")
+      .orderBy("l.position", "asc")
+      .execute();
+    if (quoteLines.length === 0) throw new ApiError("conflict", "The approved quote has no part lines; add the bought-in parts by hand.");
+    const listed = await trx.selectFrom("bought_part").select(["kind", "description"]).where("job_id", "=", jobId).execute();
+    const lines = linesFromQuote(
+      quoteLines.map((l) => ({ description: l.description, quantityMilli: l.quantity_milli, kitUse: l.kit_use })),
+      listed,
+    );
+    if (lines.length === 0) throw new ApiError("conflict", "Every part on the approved quote is already listed on this job; edit those lines instead.");
+    const at = new Date().toISOString();
+    const rows = await trx
+      .insertInto("bought_part")
+      .values(
+        lines.map((line) => ({
+          job_id: jobId, kind: line.kind, description: line.description, part_number: "", quantity: line.quantity, supplier: "",
+          unit_cost_cents: null, state: "needed" as const, purchase_order_id: null, expected_on: null, installed_at: null, installed_by: null,
+          fits_transmission: "", ratio_percent: null, displacement_cu_in: null, source: "quote" as const, created_by: actor.id, created_at: at, updated_at: at,
+        })),
+      )
+      .returning("id")
+      .execute();
+    return rows.map((r) => r.id);
+  });
+  const views = await Promise.all(ids.map((id) => findBoughtPart(db, id, { withCost: canSeeCosts(actor) })));
+  return views.map((v) => v!);
 }
 
 export async function patchBoughtPart(db: DB, actor: StaffUser, id: number, patch: BoughtPartPatch): Promise<BoughtPartView> {

@@ -96,3 +96,74 @@ export function orderTotal(lines: readonly { quantity: number; unitCostCents: nu
 export function countOf(n: number, one: string, many = `${one}s`) {
   return `${n} ${n === 1 ? one : many}`;
 }
+
+/** A part line of the job's approved quote or change order, as "List from the quote" reads it. */
+export interface QuotePartLine {
+  description: string;
+  /** Thousandths, as quote lines keep them (2.5 is 2500). */
+  quantityMilli: number;
+  /** The kit-spec line its price-list item prices, if any (pto, pump, reservoir, hose). */
+  kitUse: string | null;
+}
+
+export interface ListedLine {
+  kind: BoughtPartKind;
+  description: string;
+}
+
+export interface LineFromQuote {
+  kind: BoughtPartKind;
+  description: string;
+  quantity: number;
+}
+
+const DESCRIPTION_MAX = 200;
+
+// The kind from the price-list item's kit use, else from the trade's own words in the description.
+const KIND_WORDS: [BoughtPartKind, RegExp][] = [
+  ["pto", /\bpto\b|power take-?off/i],
+  ["pump", /\bpump\b/i],
+  ["valve", /\bvalve\b/i],
+  ["hose", /\bhose\b/i],
+  ["fitting", /\bfitting|\bcoupler|\badapter|\belbow\b|\btee\b|\bnipple\b/i],
+  ["control", /\bswitch\b|\bcontrol\b|\bcable\b|\bindicator\b|\bsolenoid\b|\bharness\b/i],
+];
+
+export function kindOfQuoteLine(line: Pick<QuotePartLine, "description" | "kitUse">): BoughtPartKind {
+  if (line.kitUse === "pto" || line.kitUse === "pump" || line.kitUse === "hose") return line.kitUse;
+  return KIND_WORDS.find(([, words]) => words.test(line.description))?.[0] ?? "other";
+}
+
+/**
+ * The bought-in line a quote line becomes: whole quantities carry over; a part quoted by a
+ * fraction (hose by the foot) is one piece to order, its quoted quantity kept in the description.
+ */
+export function lineFromQuote(line: QuotePartLine): LineFromQuote {
+  const kind = kindOfQuoteLine(line);
+  if (line.quantityMilli % 1000 === 0) return { kind, description: line.description.slice(0, DESCRIPTION_MAX), quantity: line.quantityMilli / 1000 };
+  const quoted = ` (quoted quantity ${line.quantityMilli / 1000})`;
+  return { kind, description: `${line.description.slice(0, DESCRIPTION_MAX - quoted.length)}${quoted}`, quantity: 1 };
+}
+
+// A kit has one PTO and one pump: one already listed (by hand or from the kit spec, whatever its
+// words) stands for the quote's. Other lines match on their description, case and spaces aside.
+const listingKey = (line: ListedLine) =>
+  line.kind === "pto" || line.kind === "pump" ? `kind:${line.kind}` : `words:${line.description.toLowerCase().replace(/\s+/g, " ").trim()}`;
+
+/**
+ * The quote's part lines not yet listed on the job, in quote order. Each listed line stands for
+ * one quote line, so two identical quote lines need two listed lines and a second press adds nothing.
+ */
+export function linesFromQuote(quoteLines: readonly QuotePartLine[], listed: readonly ListedLine[]): LineFromQuote[] {
+  const unmatched = new Map<string, number>();
+  for (const line of listed) unmatched.set(listingKey(line), (unmatched.get(listingKey(line)) ?? 0) + 1);
+  const out: LineFromQuote[] = [];
+  for (const quoteLine of quoteLines) {
+    const line = lineFromQuote(quoteLine);
+    const key = listingKey(line);
+    const left = unmatched.get(key) ?? 0;
+    if (left > 0) unmatched.set(key, left - 1);
+    else out.push(line);
+  }
+  return out;
+}

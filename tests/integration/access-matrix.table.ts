@@ -130,6 +130,7 @@ export const ACCESS_MATRIX: Row[] = [
   anyStaff("GET /api/jobs/[id]/bought-parts"),
   anyStaff("POST /api/jobs/[id]/bought-parts"),
   anyStaff("POST /api/jobs/[id]/bought-parts/from-kit-spec"),
+  anyStaff("POST /api/jobs/[id]/bought-parts/from-quote"),
   anyStaff("GET /api/bought-parts/[id]"),
   anyStaff("PATCH /api/bought-parts/[id]"),
   officeUp("DELETE /api/bought-parts/[id]"),

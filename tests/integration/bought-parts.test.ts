@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import * as board from "@/app/api/board/route";
 import * as receipts from "@/app/api/bought-parts/[id]/receipts/route";
 import * as boughtItem from "@/app/api/bought-parts/[id]/route";
+import * as fromQuoteRoute from "@/app/api/jobs/[id]/bought-parts/from-quote/route";
 import * as boughtParts from "@/app/api/jobs/[id]/bought-parts/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as purchaseOrderItem from "@/app/api/purchase-orders/[id]/route";
@@ -194,5 +195,74 @@ describe("purchase orders", () => {
     expect((await del(office.cookie)).status).toBe(204);
     const audit = await db().selectFrom("audit_event").select("summary").where("kind", "=", "bought_part_deleted").execute();
     expect(audit.map((a) => a.summary)).toEqual([expect.stringContaining('deleted the bought-in part "Bulkhead fitting"')]);
+  });
+});
+
+describe("List from the quote", () => {
+  /** A quote of the given status with part, labour and fabrication lines, written as the quote screens leave it. */
+  async function quoteWith(jobId: number, staffId: string, status: "draft" | "approved", kind: "quote" | "change_order", lines: [string, string, number][]) {
+    const at = new Date().toISOString();
+    const version = ((await db().selectFrom("quote").select((e) => e.fn.max("version").as("v")).where("job_id", "=", jobId).executeTakeFirst())?.v ?? 0) + 1;
+    const quote = await db()
+      .insertInto("quote")
+      .values({ job_id: jobId, version, kind, status, supersedes_id: null, tax_millipercent: 0, subtotal_cents: 0, taxable_cents: 0, tax_cents: 0, total_cents: 0, deposit_cents: 0, created_by: staffId, created_at: at, updated_at: at })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await db()
+      .insertInto("quote_line")
+      .values(lines.map(([lineKind, description, quantityMilli], position) => ({ quote_id: quote.id, position, kind: lineKind as "part", description, quantity_milli: quantityMilli, unit_price_cents: 5000, taxable: 1, amount_cents: 5000, price_item_id: null })))
+      .execute();
+  }
+  const fromQuote = (cookie: string, jobId: number | string, body: unknown = {}) =>
+    fromQuoteRoute.POST(request(`/api/jobs/${jobId}/bought-parts/from-quote`, { cookie, body }), params({ id: String(jobId) }));
+  const lines = async (jobId: number) =>
+    db().selectFrom("bought_part").select(["kind", "description", "quantity", "unit_cost_cents", "source", "state"]).where("job_id", "=", jobId).orderBy("id").execute();
+
+  it("adds a line for each part line of the approved quote and change orders, cost empty; a second press adds nothing", async () => {
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "fabricate" });
+    await addBought(tech.cookie, job.id, { kind: "pto", description: "10-bolt PTO, 52 %", quantity: 1 });
+    await quoteWith(job.id, tech.staff.id, "draft", "quote", [["part", "Draft only valve", 1000]]);
+    await quoteWith(job.id, tech.staff.id, "approved", "quote", [
+      ["part", "PTO, 52 % of engine speed", 1000],
+      ["part", "Hydraulic pump, 2.5 in³/rev", 1000],
+      ["labour", "Install and plumb", 6000],
+      ["fabrication", "Reservoir, round 20 in × 30 in", 1000],
+      ["part", "Pressure hose, 1 in inside diameter, 12.5 ft", 12_500],
+    ]);
+    await quoteWith(job.id, tech.staff.id, "approved", "change_order", [["part", "Breakaway coupler pair", 2000]]);
+
+    const res = await fromQuote(tech.cookie, job.id);
+    expect(res.status).toBe(201);
+    const made = (await readBody(res)).parts as { description: string; state: string }[];
+    expect(made.map((p) => p.description)).toEqual(["Hydraulic pump, 2.5 in³/rev", "Pressure hose, 1 in inside diameter, 12.5 ft (quoted quantity 12.5)", "Breakaway coupler pair"]);
+    expect(await lines(job.id)).toEqual([
+      { kind: "pto", description: "10-bolt PTO, 52 %", quantity: 1, unit_cost_cents: null, source: "manual", state: "needed" },
+      { kind: "pump", description: "Hydraulic pump, 2.5 in³/rev", quantity: 1, unit_cost_cents: null, source: "quote", state: "needed" },
+      { kind: "hose", description: "Pressure hose, 1 in inside diameter, 12.5 ft (quoted quantity 12.5)", quantity: 1, unit_cost_cents: null, source: "quote", state: "needed" },
+      { kind: "fitting", description: "Breakaway coupler pair", quantity: 2, unit_cost_cents: null, source: "quote", state: "needed" },
+    ]);
+
+    const again = await fromQuote(tech.cookie, job.id);
+    expect(again.status).toBe(409);
+    expect((await readBody(again)).error.message).toMatch(/already listed/);
+    expect(await lines(job.id)).toHaveLength(4);
+  });
+
+  it("refuses a job with no approved quote or no part lines, saying what to do, and adds nothing", async () => {
+    const office = await as("office");
+    const job = await makeJob(db(), { stage: "fabricate" });
+    await quoteWith(job.id, office.staff.id, "draft", "quote", [["part", "Valve", 1000]]);
+    const none = await fromQuote(office.cookie, job.id);
+    expect(none.status).toBe(409);
+    expect((await readBody(none)).error.message).toMatch(/no approved quote yet/);
+    await quoteWith(job.id, office.staff.id, "approved", "quote", [["labour", "Install", 4000]]);
+    const noParts = await fromQuote(office.cookie, job.id);
+    expect(noParts.status).toBe(409);
+    expect((await readBody(noParts)).error.message).toMatch(/no part lines/);
+    expect(await lines(job.id)).toEqual([]);
+    expect((await fromQuote(office.cookie, 99_999)).status).toBe(404);
+    expect((await fromQuote(office.cookie, "abc")).status).toBe(400);
+    expect((await fromQuote(office.cookie, job.id, { extra: 1 })).status).toBe(400);
   });
 });

@@ -10,10 +10,15 @@ import { BoughtParts } from "./bought-parts";
 export async function BoughtPartsSection({ job, user }: { job: JobDetail; user: StaffUser }) {
   const db = getDb();
   const canCost = canSeeCosts(user);
-  const [parts, spec, shop] = await Promise.all([listBoughtParts(db, job.id, { withCost: canCost }), fitSpecFor(db, job.id), shopSettings(db)]);
+  const [parts, spec, shop, approved] = await Promise.all([
+    listBoughtParts(db, job.id, { withCost: canCost }),
+    fitSpecFor(db, job.id),
+    shopSettings(db),
+    db.selectFrom("quote").select("id").where("job_id", "=", job.id).where("status", "=", "approved").limit(1).executeTakeFirst(),
+  ]);
   return (
     <Section title="Bought-in parts" id="bought-parts">
-      <BoughtParts jobId={job.id} parts={parts} canCost={canCost} hasKitSpec={spec !== null} timeZone={shop.timeZone} />
+      <BoughtParts jobId={job.id} parts={parts} canCost={canCost} hasKitSpec={spec !== null} hasApprovedQuote={approved !== undefined} timeZone={shop.timeZone} />
     </Section>
   );
 }

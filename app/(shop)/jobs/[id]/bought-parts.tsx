@@ -16,7 +16,21 @@ import { formatShopTime } from "@/server/records/calendar";
 type Panel = { mode: "add" } | { mode: "edit" | "receive"; id: number } | null;
 
 /** A job's bought-in parts: what is to order, on order, received and installed, with fit checks. */
-export function BoughtParts({ jobId, parts, canCost, hasKitSpec, timeZone }: { jobId: number; parts: BoughtPartView[]; canCost: boolean; hasKitSpec: boolean; timeZone: string }) {
+export function BoughtParts({
+  jobId,
+  parts,
+  canCost,
+  hasKitSpec,
+  hasApprovedQuote,
+  timeZone,
+}: {
+  jobId: number;
+  parts: BoughtPartView[];
+  canCost: boolean;
+  hasKitSpec: boolean;
+  hasApprovedQuote: boolean;
+  timeZone: string;
+}) {
   const router = useRouter();
   const [panel, setPanel] = useState<Panel>(null);
   const [failure, setFailure] = useState<ApiFailure | null>(null);
@@ -121,6 +135,11 @@ export function BoughtParts({ jobId, parts, canCost, hasKitSpec, timeZone }: { j
           {hasKitSpec && (
             <button type="button" className={buttonClass.secondary} disabled={busy} onClick={() => act(`/api/jobs/${jobId}/bought-parts/from-kit-spec`, "POST")}>
               List the PTO and pump from the kit spec
+            </button>
+          )}
+          {hasApprovedQuote && (
+            <button type="button" className={buttonClass.secondary} disabled={busy} onClick={() => act(`/api/jobs/${jobId}/bought-parts/from-quote`, "POST")}>
+              List from the quote
             </button>
           )}
           {canCost && waiting.some((p) => p.state === "needed") && <Link href="/parts" className={buttonClass.secondary}>Order on the parts desk</Link>}
