@@ -83,6 +83,8 @@ export interface CoatingRunTable {
   created_by: string | null;
   created_at: string;
   updated_at: string;
+  /** What the coater charged for the whole run, integer cents; null until recorded (migration 0014b). */
+  price_cents: ColumnType<number | null, number | null | undefined, number | null>;
 }
 
 export interface CoatingRunPartTable {

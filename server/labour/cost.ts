@@ -1,17 +1,56 @@
 /**
  * A job's cost so far, in integer cents: labour is hours × the shop's hourly rate, each stage's
  * share rounded half-up to the cent from milliseconds (no float dollars), bought-in parts are
- * quantity × cost of one. Lines without a cost are counted, not guessed.
+ * quantity × cost of one, outside coating the job's share of each run's price. Lines and runs
+ * without a price are counted, not guessed.
  */
 export function labourCents(ms: number, rateCentsPerHour: number): number {
   // ms × cents/h ÷ 3,600,000 ms/h, rounded half-up: integers until the one division.
   return Math.floor((ms * rateCentsPerHour + 1_800_000) / 3_600_000);
 }
 
+/**
+ * A coating run's price split over the parts on it: equal shares in whole cents, the cents left
+ * over going one each to the parts with the lowest ids, so the shares add up to the price exactly
+ * (common practice, no published source: a coater prices the run, not each part).
+ */
+export function splitRunPrice(priceCents: number, partIds: readonly number[]): Map<number, number> {
+  const ids = [...new Set(partIds)].sort((a, b) => a - b);
+  const shares = new Map<number, number>();
+  if (ids.length === 0) return shares;
+  const each = Math.floor(priceCents / ids.length);
+  const left = priceCents - each * ids.length;
+  ids.forEach((id, i) => shares.set(id, each + (i < left ? 1 : 0)));
+  return shares;
+}
+
+export interface CoatingRunCost {
+  priceCents: number | null;
+  /** Every part on the run, of any job. */
+  partIds: readonly number[];
+}
+
+/** A job's share of its coating runs: its parts' shares of each priced run, and how many runs carry no price yet. */
+export function coatingShare(runs: readonly CoatingRunCost[], jobPartIds: ReadonlySet<number>) {
+  let cents = 0;
+  let unpricedRuns = 0;
+  for (const run of runs) {
+    if (!run.partIds.some((id) => jobPartIds.has(id))) continue;
+    if (run.priceCents === null) {
+      unpricedRuns++;
+      continue;
+    }
+    for (const [partId, share] of splitRunPrice(run.priceCents, run.partIds)) if (jobPartIds.has(partId)) cents += share;
+  }
+  return { cents, unpricedRuns };
+}
+
 export interface JobCostInput {
   rateCentsPerHour: number;
   msByStage: ReadonlyMap<string, number> | readonly [string, number][];
   boughtLines: readonly { quantity: number; unitCostCents: number | null }[];
+  /** The job's share of its outside coating (`coatingShare`); none when left out. */
+  coating?: { cents: number; unpricedRuns: number };
 }
 
 export function jobCost(input: JobCostInput) {
@@ -27,12 +66,15 @@ export function jobCost(input: JobCostInput) {
     if (l.unitCostCents === null) unpriced++;
     else parts += l.quantity * l.unitCostCents;
   }
+  const coating = input.coating ?? { cents: 0, unpricedRuns: 0 };
   return {
     stages,
     hours: stages.reduce((n, s) => n + s.hours, 0),
     labourCents: labour,
     partsCents: parts,
     unpricedParts: unpriced,
-    totalCents: labour + parts,
+    coatingCents: coating.cents,
+    unpricedCoatingRuns: coating.unpricedRuns,
+    totalCents: labour + parts + coating.cents,
   };
 }

@@ -4,7 +4,7 @@ import type { Stage } from "@/db/schema";
 import { formatCents } from "@/components/money";
 import type { StaffUser } from "@/server/auth/session";
 import { recordAudit } from "@/server/audit/record";
-import { jobCost } from "./cost";
+import { coatingShare, jobCost } from "./cost";
 import { msByStage } from "./rules";
 
 export async function labourRateCents(db: DB): Promise<number> {
@@ -12,20 +12,51 @@ export async function labourRateCents(db: DB): Promise<number> {
   return row?.labour_rate_cents ?? 0;
 }
 
-/** One job's cost so far: labour by stage at the shop's rate and its bought-in parts. */
+/**
+ * Every coating run that carried a part of these jobs, with all the parts on it (of any job), so
+ * each job's share of a run's price can be worked out; answers each job's share.
+ */
+export async function coatingSharesOf(db: DB, jobIds: readonly number[]): Promise<(jobId: number) => { cents: number; unpricedRuns: number }> {
+  if (jobIds.length === 0) return () => ({ cents: 0, unpricedRuns: 0 });
+  const rows = await db
+    .selectFrom("coating_run_part as c")
+    .innerJoin("coating_run as r", "r.id", "c.run_id")
+    .innerJoin("part as p", "p.id", "c.part_id")
+    .select(["r.id as run_id", "r.price_cents", "c.part_id", "p.job_id"])
+    .where("c.run_id", "in", (eb) =>
+      eb.selectFrom("coating_run_part as c2").innerJoin("part as p2", "p2.id", "c2.part_id").select("c2.run_id").where("p2.job_id", "in", [...jobIds]),
+    )
+    .execute();
+  const runs = new Map<number, { priceCents: number | null; partIds: number[] }>();
+  const partsOfJob = new Map<number, Set<number>>();
+  for (const r of rows) {
+    const run = runs.get(r.run_id) ?? { priceCents: r.price_cents, partIds: [] };
+    run.partIds.push(r.part_id);
+    runs.set(r.run_id, run);
+    if (!partsOfJob.has(r.job_id)) partsOfJob.set(r.job_id, new Set());
+    partsOfJob.get(r.job_id)!.add(r.part_id);
+  }
+  const list = [...runs.values()];
+  /** A job's share of those runs (`coatingShare`). */
+  return (jobId: number) => coatingShare(list, partsOfJob.get(jobId) ?? new Set());
+}
+
+/** One job's cost so far: labour by stage at the shop's rate, its bought-in parts and its share of outside coating. */
 export async function loadJobCost(db: DB, jobId: number, now = new Date()) {
-  const [rate, entries, events, lines] = await Promise.all([
+  const [rate, entries, events, lines, shareOf] = await Promise.all([
     labourRateCents(db),
     db.selectFrom("clock_entry").select(["stage", "started_at", "ended_at"]).where("job_id", "=", jobId).execute(),
     db.selectFrom("stage_event").select(["at", "to_stage"]).where("job_id", "=", jobId).orderBy("id").execute(),
     db.selectFrom("bought_part").select(["quantity", "unit_cost_cents"]).where("job_id", "=", jobId).execute(),
+    coatingSharesOf(db, [jobId]),
   ]);
+  const coating = shareOf(jobId);
   const byStage = msByStage(
     entries.map((e) => ({ startedAt: e.started_at, endedAt: e.ended_at, stage: e.stage })),
     events.map((e) => ({ at: e.at, toStage: e.to_stage as Stage })),
     now,
   );
-  return { rateCents: rate, ...jobCost({ rateCentsPerHour: rate, msByStage: byStage, boughtLines: lines.map((l) => ({ quantity: l.quantity, unitCostCents: l.unit_cost_cents })) }) };
+  return { rateCents: rate, ...jobCost({ rateCentsPerHour: rate, msByStage: byStage, boughtLines: lines.map((l) => ({ quantity: l.quantity, unitCostCents: l.unit_cost_cents })), coating }) };
 }
 
 /** The owner's new labour rate; unchanged writes nothing, a change is an audit line. */

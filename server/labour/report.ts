@@ -7,7 +7,7 @@ import type { Period } from "@/server/reports/compute";
 import type { ReportCalendar } from "@/server/reports/queries";
 import { addCalendarDays, shopDayStart } from "@/server/shop/business-days";
 import { jobCost } from "./cost";
-import { labourRateCents } from "./job-cost";
+import { coatingSharesOf, labourRateCents } from "./job-cost";
 import { hoursByWeek, msByStage } from "./rules";
 
 export interface JobCostRow {
@@ -19,6 +19,9 @@ export interface JobCostRow {
   labourCents: number;
   partsCents: number;
   unpricedParts: number;
+  /** The job's share of its coating runs' prices; runs with no price yet are counted apart. */
+  coatingCents: number;
+  unpricedCoatingRuns: number;
   totalCents: number;
   byStage: Record<string, number>;
   /** The approved quote and change orders before tax; null when none is approved. */
@@ -29,8 +32,8 @@ export interface JobCostRow {
 }
 
 /**
- * Each job's cost from the clock entries started in the period (split by stage at its moves) and
- * all its bought-in parts, plus hours by stage across those jobs and hours per person per week.
+ * Each job's cost from the clock entries started in the period (split by stage at its moves), all
+ * its bought-in parts and its share of its coating runs, plus hours by stage across those jobs and hours per person per week.
  * A job with an approved quote is compared with it in total (quote lines carry no stage).
  */
 export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar, now = new Date()) {
@@ -45,7 +48,7 @@ export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar
     .where("c.started_at", "<", end)
     .execute();
   const jobIds = [...new Set(entries.map((e) => e.job_id))];
-  const [jobs, events, lines, quoteLines] = jobIds.length
+  const [jobs, events, lines, quoteLines, coatingOf] = jobIds.length
     ? await Promise.all([
         db.selectFrom("job").innerJoin("customer", "customer.id", "job.customer_id").select(["job.id", "job.work_order", "job.stage", "customer.name"]).where("job.id", "in", jobIds).execute(),
         db.selectFrom("stage_event").select(["job_id", "at", "to_stage"]).where("job_id", "in", jobIds).orderBy("id").execute(),
@@ -57,8 +60,9 @@ export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar
           .where("q.job_id", "in", jobIds)
           .where("q.status", "=", "approved")
           .execute(),
+        coatingSharesOf(db, jobIds),
       ])
-    : [[], [], [], []];
+    : [[], [], [], [], await coatingSharesOf(db, [])];
   const group = <T extends { job_id: number }>(rows: T[]) => {
     const m = new Map<number, T[]>();
     for (const r of rows) m.set(r.job_id, [...(m.get(r.job_id) ?? []), r]);
@@ -76,14 +80,19 @@ export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar
       now,
     );
     for (const [stage, ms] of byStage) totals.set(stage, (totals.get(stage) ?? 0) + ms);
-    const cost = jobCost({ rateCentsPerHour: rate, msByStage: byStage, boughtLines: (linesBy.get(j.id) ?? []).map((l) => ({ quantity: l.quantity, unitCostCents: l.unit_cost_cents })) });
+    const cost = jobCost({
+      rateCentsPerHour: rate,
+      msByStage: byStage,
+      boughtLines: (linesBy.get(j.id) ?? []).map((l) => ({ quantity: l.quantity, unitCostCents: l.unit_cost_cents })),
+      coating: coatingOf(j.id),
+    });
     const q = quotedBy.get(j.id);
     const quotedCents = q ? q.reduce((n, l) => n + l.amount_cents, 0) : null;
     const quotedHours = q ? q.filter((l) => l.kind === "labour").reduce((n, l) => n + l.quantity_milli, 0) / 1000 : null;
     return {
       quotedCents, quotedHours, overQuoteCents: quotedCents === null ? null : cost.totalCents - quotedCents,
       jobId: j.id, workOrder: j.work_order, customerName: j.name, stage: j.stage, hours: cost.hours, labourCents: cost.labourCents, partsCents: cost.partsCents,
-      unpricedParts: cost.unpricedParts, totalCents: cost.totalCents, byStage: Object.fromEntries(cost.stages.map((s) => [s.stage, s.hours])),
+      unpricedParts: cost.unpricedParts, coatingCents: cost.coatingCents, unpricedCoatingRuns: cost.unpricedCoatingRuns, totalCents: cost.totalCents, byStage: Object.fromEntries(cost.stages.map((s) => [s.stage, s.hours])),
     };
   });
   rows.sort((a, b) => b.totalCents - a.totalCents || a.workOrder.localeCompare(b.workOrder));
@@ -104,10 +113,10 @@ const money = (cents: number) => (cents / 100).toFixed(2);
 
 export function jobCostsCsv(r: JobCostsReport) {
   return toCsv(
-    ["work_order", "customer", "stage_now", "hours", "quoted_hours", "labour_dollars", "bought_in_dollars", "unpriced_bought_in_lines", "cost_dollars", "quoted_dollars", "over_quote_dollars"],
+    ["work_order", "customer", "stage_now", "hours", "quoted_hours", "labour_dollars", "bought_in_dollars", "unpriced_bought_in_lines", "coating_dollars", "unpriced_coating_runs", "cost_dollars", "quoted_dollars", "over_quote_dollars"],
     r.jobs.map((j) => [
       j.workOrder, j.customerName, STAGE_LABELS[j.stage], j.hours.toFixed(2), j.quotedHours === null ? "" : j.quotedHours.toFixed(2), money(j.labourCents), money(j.partsCents), j.unpricedParts,
-      money(j.totalCents), j.quotedCents === null ? "" : money(j.quotedCents), j.overQuoteCents === null ? "" : money(j.overQuoteCents),
+      money(j.coatingCents), j.unpricedCoatingRuns, money(j.totalCents), j.quotedCents === null ? "" : money(j.quotedCents), j.overQuoteCents === null ? "" : money(j.overQuoteCents),
     ]),
   );
 }

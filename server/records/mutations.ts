@@ -326,7 +326,7 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
       .values({
         vendor_id: input.vendorId, finish_colour: input.finish.colour, finish_gloss: input.finish.gloss, sent_on: input.sentOn,
         promised_on: input.promisedOn, received_on: input.receivedOn ?? null, dft_readings_mils: null, adhesion_ok: null, defects: null,
-        inspected_at: null, inspected_by: null, created_by: actor.id, created_at: at, updated_at: at,
+        inspected_at: null, inspected_by: null, created_by: actor.id, created_at: at, updated_at: at, price_cents: input.priceCents ?? null,
       })
       .returning("id")
       .executeTakeFirstOrThrow();
@@ -346,6 +346,9 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
 export async function patchCoatingRun(db: DB, actor: StaffUser, runId: number, patch: CoatingRunPatch, now = new Date()): Promise<CoatingRunView> {
   if (patch.promisedOn !== undefined && actor.role === "tech") {
     throw new ApiError("forbidden", "The office keeps the coater's promised date; a tech can mark a run received and record its inspection.");
+  }
+  if (patch.priceCents !== undefined && actor.role === "tech") {
+    throw new ApiError("forbidden", "The office records what the coater charged; a tech can mark a run received and record its inspection.");
   }
   await db.transaction().execute(async (trx) => {
     const run = await trx.selectFrom("coating_run").select(["id", "sent_on", "received_on"]).where("id", "=", runId).executeTakeFirst();
@@ -370,6 +373,7 @@ export async function patchCoatingRun(db: DB, actor: StaffUser, runId: number, p
       .set({
         ...(patch.receivedOn !== undefined ? { received_on: patch.receivedOn } : {}),
         ...(patch.promisedOn !== undefined ? { promised_on: patch.promisedOn } : {}),
+        ...(patch.priceCents !== undefined ? { price_cents: patch.priceCents } : {}),
         ...(patch.inspection
           ? {
               dft_readings_mils: JSON.stringify(patch.inspection.dftReadingsMils),

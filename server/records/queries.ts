@@ -387,6 +387,15 @@ export interface CoatingRunView {
   overdue: boolean;
   businessDaysOut: number;
   businessDaysOverdue: number;
+  /** What the coater charged for the run, cents; null when not recorded. Left out for techs (`runForRole`). */
+  priceCents?: number | null;
+}
+
+/** A tech sees no prices: the run as the signed-in person may read it. */
+export function runForRole<T extends CoatingRunView>(run: T, role: string): T {
+  if (role !== "tech") return run;
+  const { priceCents: _hidden, ...rest } = run;
+  return rest as T;
 }
 
 export type CoatingRunListStatus = "current" | "open" | "all";
@@ -404,7 +413,7 @@ export async function listCoatingRuns(db: DB, filter: { status?: CoatingRunListS
     .leftJoin("staff as s", "s.id", "r.inspected_by")
     .select([
       "r.id", "r.vendor_id", "v.name as vendor_name", "r.finish_colour", "r.finish_gloss", "r.sent_on", "r.promised_on", "r.received_on",
-      "r.dft_readings_mils", "r.adhesion_ok", "r.defects", "r.inspected_at", "s.name as inspected_by_name",
+      "r.dft_readings_mils", "r.adhesion_ok", "r.defects", "r.inspected_at", "s.name as inspected_by_name", "r.price_cents",
     ]);
   const status = filter.status ?? "current";
   if (filter.runId !== undefined) query = query.where("r.id", "=", filter.runId);
@@ -454,6 +463,7 @@ export async function listCoatingRuns(db: DB, filter: { status?: CoatingRunListS
       overdue: isOverdue(dates, clock),
       businessDaysOut: businessDaysOut(dates, clock),
       businessDaysOverdue: businessDaysOverdue(dates, clock),
+      priceCents: r.price_cents,
     };
   });
   // Overdue first (longest overdue on top), then what is due soonest, then the runs already back.

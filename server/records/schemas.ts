@@ -124,9 +124,19 @@ export type CoatingFinish = z.infer<typeof coatingFinishSchema>;
 const recordId = (message: string) =>
   z.number({ error: message }).int({ error: message }).positive({ error: message });
 
+// What a coater charges for a run, in cents: up to $100,000; anything more is a slip of the finger.
+export const MAX_RUN_PRICE_CENTS = 10_000_000;
+const runPriceCents = z
+  .number({ error: "Enter the coater's price in cents, as a whole number." })
+  .int({ error: "Enter the coater's price in whole cents." })
+  .min(0, { error: "The coater's price cannot be negative." })
+  .max(MAX_RUN_PRICE_CENTS, { error: "The coater's price is at most $100,000.00 for a run." });
+
 export const coatingRunSchema = z
   .object({
     vendorId: recordId("Choose the coater."),
+    // Optional: the office often learns the price only when the invoice comes with the parts.
+    priceCents: runPriceCents.nullable().optional(),
     finish: coatingFinishSchema,
     sentOn: isoDate("the date the parts went out"),
     promisedOn: isoDate("the date the coater promised"),
@@ -399,10 +409,11 @@ export const coatingRunPatchSchema = z
       receivedOn: isoDate("the date the parts came back").optional(),
       promisedOn: isoDate("the date the coater promised").optional(),
       inspection: receivingInspectionSchema.optional(),
+      priceCents: runPriceCents.nullable().optional(),
     },
-    { error: strictError("Only the received date, the promised date and the receiving inspection can be changed.") },
+    { error: strictError("Only the received date, the promised date, the coater's price and the receiving inspection can be changed.") },
   )
-  .refine((patch) => Object.keys(patch).length > 0, { error: "Send the received date, the promised date or the inspection." });
+  .refine((patch) => Object.keys(patch).length > 0, { error: "Send the received date, the promised date, the coater's price or the inspection." });
 export type CoatingRunPatch = z.infer<typeof coatingRunPatchSchema>;
 
 // Past half a psi over a hold at 1.5–5 psig a tank is plainly leaking (common practice, no published source).

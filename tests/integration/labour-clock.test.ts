@@ -145,7 +145,8 @@ describe("job cost", () => {
     expect(row).toEqual(expect.objectContaining({ labourCents: 16_667, partsCents: 64_900, totalCents: 81_567 }));
     const csv = await (await jobCosts.GET(request("/api/reports/job-costs?format=csv", { cookie: office.cookie }))).text();
     expect(csv).toContain(`${job.work_order},`);
-    expect(csv).toContain(",1.33,,166.67,649.00,0,815.67,,");
+    // Hours, quoted hours, labour, bought-in, unpriced lines, coating share, unpriced runs, cost, quoted, over.
+    expect(csv).toContain(",1.33,,166.67,649.00,0,0.00,0,815.67,,");
     expect((await jobCosts.GET(request("/api/reports/job-costs", { cookie: tech.cookie }))).status).toBe(403);
   });
 });

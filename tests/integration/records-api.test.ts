@@ -10,6 +10,7 @@ import * as partItem from "@/app/api/parts/[id]/route";
 import * as shopSettings from "@/app/api/shop-settings/route";
 import * as vendors from "@/app/api/vendors/route";
 import type { Role } from "@/db/schema";
+import { loadJobCost } from "@/server/labour/job-cost";
 import { expectedEndPressurePsig } from "@/server/records/leak-test";
 import { DEFAULT_ALLOWED_DROP_PSI } from "@/server/records/settings";
 import { addBusinessDaysTo, shopToday } from "@/server/records/turnaround";
@@ -350,6 +351,41 @@ describe("vendors and coating runs", () => {
     expect((await patchRun(office.cookie, "abc", { receivedOn: today() })).status).toBe(400);
     expect((await patchRun(office.cookie, 99999, { receivedOn: today() })).status).toBe(404);
     expect((await coatingRuns.GET(request("/api/coating-runs?status=lost", { cookie: tech.cookie }))).status).toBe(400);
+  });
+
+  it("the office records the coater's price on sending or later; a tech neither sets nor sees it; each job's cost takes its parts' share", async () => {
+    const { office, tech, vendor, job, tank } = await setup();
+    const other = await makeJob(db(), { stage: "coating" });
+    const otherTank = await addPart(tech.cookie, other.id, { ...tankBody, name: "Other tank" });
+    expect((await postTest(tech.cookie, otherTank.id, goodTest)).status).toBe(201);
+    const second = await addPart(tech.cookie, job.id, { name: "Battery box", kind: "box", material: "aluminum", needsLeakTest: false, needsCoating: true });
+
+    const bad = await send(office.cookie, runBody(vendor.id, [tank.id], { priceCents: 12.5 }));
+    expect(await fields(bad)).toEqual(["priceCents"]);
+    const sent = await send(office.cookie, runBody(vendor.id, [tank.id, second.id, otherTank.id], { priceCents: 30_001 }));
+    expect(sent.status).toBe(201);
+    const run = (await readBody(sent)).run;
+    expect(run.priceCents).toBe(30_001);
+
+    // $300.01 over three parts: 10001 + 10000 + 10000 cents; this job has two of them.
+    expect(await loadJobCost(db(), job.id)).toEqual(expect.objectContaining({ coatingCents: 20_001, unpricedCoatingRuns: 0 }));
+    expect(await loadJobCost(db(), other.id)).toEqual(expect.objectContaining({ coatingCents: 10_000, totalCents: 10_000 }));
+
+    expect((await patchRun(tech.cookie, run.id, { priceCents: 1 })).status).toBe(403);
+    const seen = (await readBody(await coatingRunItem.GET(request(`/api/coating-runs/${run.id}`, { cookie: tech.cookie }), params({ id: String(run.id) })))).run;
+    expect(seen).not.toHaveProperty("priceCents");
+    const listed = (await readBody(await coatingRuns.GET(request("/api/coating-runs?status=all", { cookie: tech.cookie })))).runs;
+    expect(listed.every((r: object) => !("priceCents" in r))).toBe(true);
+    const received = (await readBody(await patchRun(tech.cookie, run.id, { receivedOn: today() }))).run;
+    expect(received).not.toHaveProperty("priceCents");
+
+    // Cleared, the run counts as not priced.
+    const cleared = await patchRun(office.cookie, run.id, { priceCents: null });
+    expect((await readBody(cleared)).run.priceCents).toBeNull();
+    expect(await loadJobCost(db(), job.id)).toEqual(expect.objectContaining({ coatingCents: 0, unpricedCoatingRuns: 1 }));
+    expect(await fields(await patchRun(office.cookie, run.id, { priceCents: -1 }))).toEqual(["priceCents"]);
+    expect((await patchRun(office.cookie, run.id, { priceCents: 48_000 })).status).toBe(200);
+    expect(await loadJobCost(db(), job.id)).toEqual(expect.objectContaining({ coatingCents: 32_000 }));
   });
 
   it("a part out on a run cannot be unmarked for coating", async () => {

@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
+import { formatCents, parseDollars } from "@/components/money";
 import { IconStop } from "@/components/icons";
 import { collapseListErrors, fieldErrorSummary } from "@/server/records/form-errors";
 import type { CoatingCandidate, VendorView } from "@/server/records/queries";
@@ -37,6 +38,7 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
         finish: { colour: str(v.colour), gloss: str(v.gloss) || undefined },
         sentOn,
         promisedOn: promised,
+        priceCents: parseDollars(str(v.price)),
         partIds: chosen,
       },
     }),
@@ -141,6 +143,9 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
         <Field label="Promised by" name="promisedOn" errors={form.fields.promisedOn} hint={promisedOn === null && suggested ? "The coater's usual turnaround; change it to the date they gave." : undefined}>
           {(p) => <input {...p} type="date" min={sentOn} value={promised} onChange={(e) => setPromisedOn(e.target.value)} className={inputClass} />}
         </Field>
+        <Field label="Coater's price for the run ($, optional)" name="price" errors={form.fields.priceCents} hint="Leave empty until the coater prices it; job cost splits it over the parts.">
+          {(p) => <input {...p} inputMode="decimal" autoComplete="off" placeholder="480.00" className={inputClass} />}
+        </Field>
       </div>
       <fieldset className="space-y-2">
         <legend className="text-sm font-semibold">Parts going out ({chosen.length} chosen)</legend>
@@ -179,6 +184,52 @@ export function ReceiveForm({ runId, sentOn, today }: { runId: number; sentOn: s
         {form.pending ? "Saving…" : "Mark received"}
       </button>
       {form.failure && !form.fields.receivedOn && (
+        <div className="w-full">
+          <FormAlert failure={form.failure} />
+        </div>
+      )}
+    </form>
+  );
+}
+
+/** The office records or corrects what the coater charged for a run. */
+export function RunPriceForm({ runId, priceCents }: { runId: number; priceCents: number | null }) {
+  const router = useRouter();
+  const [editing, setEditing] = useState(false);
+  const form = useApiForm(
+    (v) => ({ path: `/api/coating-runs/${runId}`, method: "PATCH", body: { priceCents: parseDollars(str(v.price)) ?? null } }),
+    () => {
+      setEditing(false);
+      router.refresh();
+    },
+  );
+  if (!editing) {
+    return (
+      <p className="flex flex-wrap items-center gap-2 text-sm">
+        <span>
+          <span className="font-semibold text-ink-soft">Coater&apos;s price: </span>
+          <span data-run-price>{priceCents === null ? "not recorded" : formatCents(priceCents)}</span>
+        </span>
+        <button type="button" className={buttonClass.secondary} onClick={() => setEditing(true)} aria-label={`${priceCents === null ? "Record" : "Change"} the price of run ${runId}`}>
+          {priceCents === null ? "Record the price" : "Change"}
+        </button>
+      </p>
+    );
+  }
+  return (
+    <form onSubmit={form.onSubmit} noValidate className="flex flex-wrap items-end gap-2" aria-label={`Price of run ${runId}`}>
+      <div className="min-w-40">
+        <Field label="Coater's price for the run ($)" name="price" errors={form.fields.priceCents} hint="Empty clears it.">
+          {(p) => <input {...p} inputMode="decimal" autoComplete="off" defaultValue={priceCents === null ? "" : (priceCents / 100).toFixed(2)} className={inputClass} />}
+        </Field>
+      </div>
+      <button type="submit" className={`${buttonClass.primary} mb-6`} disabled={form.pending}>
+        {form.pending ? "Saving…" : "Save the price"}
+      </button>
+      <button type="button" className={`${buttonClass.secondary} mb-6`} onClick={() => setEditing(false)}>
+        Cancel
+      </button>
+      {form.failure && !form.fields.priceCents && (
         <div className="w-full">
           <FormAlert failure={form.failure} />
         </div>

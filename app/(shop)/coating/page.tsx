@@ -9,7 +9,7 @@ import { type CoatingRunView, coatingCandidates, listCoatingRuns, recordsSetting
 import { formatShopTime } from "@/server/records/calendar";
 import { glossLabels } from "@/server/records/schemas";
 import { VENDOR_RECORD_WINDOW_DAYS, businessDaysBetween, shopToday } from "@/server/records/turnaround";
-import { InspectionForm, ReceiveForm, SendRunForm, VendorForm } from "./coating-forms";
+import { InspectionForm, ReceiveForm, RunPriceForm, SendRunForm, VendorForm } from "./coating-forms";
 
 export const metadata = { title: "Coating" };
 
@@ -46,7 +46,7 @@ function RunStatus({ run, today }: { run: CoatingRunView; today: string }) {
   );
 }
 
-function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string; timeZone: string }) {
+function RunCard({ run, today, timeZone, office }: { run: CoatingRunView; today: string; timeZone: string; office: boolean }) {
   const dft = run.inspection?.dftReadingsMils ?? [];
   return (
     <article id={`run-${run.id}`} aria-label={`Coating run ${run.id}, ${run.vendorName}`} className={`scroll-mt-4 rounded-lg border bg-panel p-3 ${run.overdue ? "border-2 border-stop-700" : "border-line"}`}>
@@ -87,6 +87,11 @@ function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string;
           </li>
         ))}
       </ul>
+      {office && (
+        <div className="mt-2">
+          <RunPriceForm runId={run.id} priceCents={run.priceCents ?? null} />
+        </div>
+      )}
       {run.inspection && (
         <p className="mt-2 text-sm">
           Inspected {formatShopTime(run.inspection.inspectedAt, timeZone, "d MMM")}
@@ -175,7 +180,7 @@ export default async function CoatingPage() {
             {out.length === 0 ? <p className="text-ink-soft">Nothing is out at a coater.</p> : (
               <div className="space-y-3">
                 {out.map((run) => (
-                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} />
+                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} office={office} />
                 ))}
               </div>
             )}
@@ -184,7 +189,7 @@ export default async function CoatingPage() {
             <Section title={`Back: inspection to record (${awaiting.length})`} id="back">
               <div className="space-y-3">
                 {awaiting.map((run) => (
-                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} />
+                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} office={office} />
                 ))}
               </div>
             </Section>
@@ -234,7 +239,7 @@ export default async function CoatingPage() {
             <Section title="Back in the last 30 days" id="recent">
               <div className="space-y-3">
                 {recent.map((run) => (
-                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} />
+                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} office={office} />
                 ))}
               </div>
             </Section>

@@ -82,9 +82,9 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
           <p className="text-ink-soft">No job was clocked in this period.</p>
         ) : (
           <div className="overflow-x-auto">
-            <table className="w-full min-w-[760px] text-left text-sm">
+            <table className="w-full min-w-[860px] text-left text-sm">
               <thead className="border-b border-line text-ink-soft">
-                <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th><th className="text-right">Over / under</th></tr>
+                <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Coating</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th><th className="text-right">Over / under</th></tr>
               </thead>
               <tbody>
                 {report.jobs.map((j) => (
@@ -94,6 +94,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
                     <td className="text-right tabular-nums">{hours(j.hours)}</td>
                     <td className="text-right tabular-nums">{formatCents(j.labourCents)}</td>
                     <td className="text-right tabular-nums">{formatCents(j.partsCents)}{j.unpricedParts ? ` (+${j.unpricedParts} not priced)` : ""}</td>
+                    <td className="text-right tabular-nums">{formatCents(j.coatingCents)}{j.unpricedCoatingRuns ? ` (+${j.unpricedCoatingRuns} ${j.unpricedCoatingRuns === 1 ? "run" : "runs"} not priced)` : ""}</td>
                     <td className="text-right font-semibold tabular-nums">{formatCents(j.totalCents)}</td>
                     <td className="text-right tabular-nums">{j.quotedCents === null ? "no approved quote" : formatCents(j.quotedCents)}</td>
                     <td className={`text-right font-semibold tabular-nums ${j.overQuoteCents !== null && j.overQuoteCents > 0 ? "text-stop-700" : ""}`}>

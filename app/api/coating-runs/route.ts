@@ -3,7 +3,7 @@ import { getDb } from "@/db";
 import { requireStaff } from "@/server/auth/session";
 import { json, readJson, respond } from "@/server/http/respond";
 import { createCoatingRun } from "@/server/records/mutations";
-import { listCoatingRuns } from "@/server/records/queries";
+import { listCoatingRuns, runForRole } from "@/server/records/queries";
 import { coatingRunSchema } from "@/server/records/schemas";
 
 const listFilter = z.object({
@@ -12,9 +12,10 @@ const listFilter = z.object({
 
 export async function GET(req: Request) {
   return respond(async () => {
-    await requireStaff(req);
+    const user = await requireStaff(req);
     const raw = Object.fromEntries([...new URL(req.url).searchParams.entries()].filter(([, v]) => v !== ""));
-    return json({ runs: await listCoatingRuns(getDb(), listFilter.parse(raw)) });
+    const runs = await listCoatingRuns(getDb(), listFilter.parse(raw));
+    return json({ runs: runs.map((run) => runForRole(run, user.role)) });
   });
 }
 

@@ -88,9 +88,9 @@ export async function JobCostSection({ job }: { job: JobDetail }) {
             <td className="text-right tabular-nums">{q(quoted?.partsCents)}</td>
           </tr>
           <tr className="border-b border-line/60">
-            <td className="py-1">Outside coating</td>
+            <td className="py-1">Outside coating{cost.unpricedCoatingRuns ? ` (${cost.unpricedCoatingRuns} ${cost.unpricedCoatingRuns === 1 ? "run" : "runs"} not priced)` : ""}</td>
             <td />
-            <td className="text-right text-ink-soft">not recorded</td>
+            <td className="text-right tabular-nums" data-job-coating-cost>{formatCents(cost.coatingCents)}</td>
             <td className="text-right tabular-nums">{q(quoted?.coatingCents)}</td>
           </tr>
         </tbody>
@@ -114,7 +114,7 @@ export async function JobCostSection({ job }: { job: JobDetail }) {
         {quoted
           ? "Quoted: the approved quote and change orders before tax; quote lines carry no stage, so labour is compared in total."
           : "No approved quote yet: once the customer approves one, its prices show in the Quoted column and the margin so far below."}{" "}
-        Coating runs carry no price yet, so outside coating is not in the cost.
+        Outside coating is this job&apos;s share of each coating run&apos;s price, split equally over the parts on the run (the Coating page records the price).
       </p>
     </Section>
   );

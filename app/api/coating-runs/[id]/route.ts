@@ -3,30 +3,31 @@ import { requireStaff } from "@/server/auth/session";
 import { notFound } from "@/server/http/errors";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
 import { patchCoatingRun } from "@/server/records/mutations";
-import { findCoatingRun } from "@/server/records/queries";
+import { findCoatingRun, runForRole } from "@/server/records/queries";
 import { coatingRunPatchSchema } from "@/server/records/schemas";
 
 type Ctx = { params: Promise<{ id: string }> };
 
 export async function GET(req: Request, ctx: Ctx) {
   return respond(async () => {
-    await requireStaff(req);
+    const user = await requireStaff(req);
     const id = parseId((await ctx.params).id, "Coating run");
     const run = await findCoatingRun(getDb(), id);
     if (!run) throw notFound("That coating run");
-    return json({ run });
+    return json({ run: runForRole(run, user.role) });
   });
 }
 
 /**
  * Whoever unloads the parts marks the run received and records the receiving inspection (a tech
- * with the film gauge, or the office); only the office and owner change the coater's promised date.
+ * with the film gauge, or the office); only the office and owner change the coater's promised date
+ * and record its price.
  */
 export async function PATCH(req: Request, ctx: Ctx) {
   return respond(async () => {
     const actor = await requireStaff(req);
     const id = parseId((await ctx.params).id, "Coating run");
     const patch = await readJson(req, coatingRunPatchSchema);
-    return json({ run: await patchCoatingRun(getDb(), actor, id, patch) });
+    return json({ run: runForRole(await patchCoatingRun(getDb(), actor, id, patch), actor.role) });
   });
 }
