@@ -169,6 +169,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await send.getByLabel("Color", { exact: true }).fill("Black");
     await send.getByRole("checkbox", { name: tankA }).check();
     await send.getByRole("checkbox", { name: tankB }).check();
+    await send.getByLabel("Coater's price for the run ($, optional)").fill("300.01");
     await send.getByRole("button", { name: "Send 2 parts out" }).click();
     const sent = send.getByRole("status");
     await sent.waitFor();
@@ -176,6 +177,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const run = desk.locator(`#run-${runId}`);
     await run.waitFor();
     for (const job of [jobA, jobB]) expect(await run.getByRole("link", { name: job.workOrder }).getAttribute("href")).toBe(`/jobs/${job.id}`);
+    expect(await run.locator("[data-run-price]").textContent()).toBe("$300.01");
     await shot(desk, "coating-desk");
 
     for (const job of [jobA, jobB]) await expectRefused(desk.request, job.id, /still out for coating/);
@@ -197,10 +199,19 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await desk.locator(`#recent #run-${runId}`).getByText("Back and inspected").waitFor();
     expect(await desk.locator(`#run-${runId}`).textContent()).toMatch(/film 2\.4–3 mils over 3 readings, adhesion passed/);
     await shot(desk, "coating-desk-inspected");
+    // The coater's invoice came to $320.00: the office corrects the price on the run.
+    const inspected = desk.locator(`#run-${runId}`);
+    await inspected.getByRole("button", { name: `Change the price of run ${runId}` }).click();
+    const price = inspected.getByRole("form", { name: `Price of run ${runId}` });
+    await price.getByLabel("Coater's price for the run ($)").fill("320.00");
+    await price.getByRole("button", { name: "Save the price" }).click();
+    await expect.poll(() => inspected.locator("[data-run-price]").textContent()).toBe("$320.00");
 
     // Both cards are free to move: one through the job page's control, one as the board would.
     await desk.goto(`${baseUrl()}/jobs/${jobA.id}`);
     expect(await desk.locator(`li[data-part="${tankA}"]`).textContent()).toMatch(/back .* and inspected/);
+    // Two parts on the run, one of them this job's: half of $320.00.
+    expect(await desk.locator("[data-job-coating-cost]").textContent()).toBe("$160.00");
     await shot(desk, "job-records-desk");
     await desk.getByRole("combobox", { name: /^Move to/ }).selectOption("install");
     await desk.getByRole("button", { name: "Move to Install" }).click();

@@ -116,4 +116,39 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     await shot(page, "job-bought-parts-desk");
     await context.close();
   });
+  it("the office lists a job's bought-in parts from its approved quote, once, with the costs left to fill", async () => {
+    for (const [device, name] of [[DESK, "desk"], [PHONE, "phone"]] as const) {
+      const context = await browser.newContext(device);
+      const page = await signIn(context, "office");
+      const headers = { origin: baseUrl() };
+      const job = await newJob(page, "Quoted wet kit");
+      const link = (await json(await page.request.post(`${baseUrl()}/api/jobs/${job.id}/status-links`, { headers }), 201)).link as { url: string };
+      const lines = [
+        { kind: "part", description: "Directional control valve, 2 spool", quantity: 1, unitPriceCents: 61_500, taxable: true },
+        { kind: "part", description: "Breakaway coupler pair", quantity: 2, unitPriceCents: 9_800, taxable: true },
+        { kind: "labour", description: "Install and plumb", quantity: 6, unitPriceCents: 12_500, taxable: false },
+      ];
+      const quote = (await json(await page.request.post(`${baseUrl()}/api/jobs/${job.id}/quotes`, { headers, data: { lines } }), 201)).quote as { id: number };
+      await json(await page.request.post(`${baseUrl()}/api/quotes/${quote.id}/send`, { headers, data: {} }));
+      // The customer approves on the status link, as the status page's form sends it.
+      await json(await page.request.post(`${baseUrl()}/status/${link.url.split("/status/")[1]}/quote`, { headers, data: { decision: "approve", quoteId: quote.id, name: "Dana Reyes", acceptTerms: true } }));
+
+      await page.goto(`${baseUrl()}/jobs/${job.id}`);
+      const section = page.locator("#bought-parts");
+      await section.getByRole("button", { name: "List from the quote" }).click();
+      const valve = section.locator('[data-bought-part="Directional control valve, 2 spool"]');
+      await valve.waitFor();
+      expect(await valve.textContent()).toMatch(/Valve\s*1 × Directional control valve, 2 spool/);
+      expect(await valve.textContent()).toContain("cost not entered");
+      expect(await section.locator('[data-bought-part="Breakaway coupler pair"]').textContent()).toMatch(/Fitting\s*2 × Breakaway coupler pair/);
+      expect(await section.locator("[data-bought-part]").count()).toBe(2);
+      await shot(page, `bought-parts-from-quote-${name}`);
+
+      // A second press lists nothing twice and says why.
+      await section.getByRole("button", { name: "List from the quote" }).click();
+      await expect.poll(() => section.getByRole("alert").textContent()).toContain("already listed");
+      expect(await section.locator("[data-bought-part]").count()).toBe(2);
+      await context.close();
+    }
+  });
 });
