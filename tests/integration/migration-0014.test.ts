@@ -110,13 +110,14 @@ describe("migration 0014: D-shaped tanks in the part and leak-test records", () 
   });
 
   it("will not go down while a part is D-shaped, and names it; without one it goes down with D tests read as box tests", async () => {
-    // Down to 0013 (areas numbered later may sit above 0014 and go down first).
-    const refused = await migrator(db).migrateTo("0013_money");
+    // Later migrations go down first, so the next step down is this one.
+    expect((await migrator(db).migrateTo("0014_d_shaped_tanks")).error).toBeUndefined();
+    const refused = await migrator(db).migrateDown();
     expect(String(refused.error)).toMatch(/D tank, left rail \(WO-1\).*box or other/);
     expect(await rows(sql`select shape from part where id = 4`)).toEqual([{ shape: "d" }]);
 
     await sql`update part set shape = 'box' where id = 4`.execute(db);
-    const down = await migrator(db).migrateTo("0013_money");
+    const down = await migrator(db).migrateDown();
     expect(down.error).toBeUndefined();
     expect(await rows(sql`select part_shape from leak_test where part_id = 4`)).toEqual([{ part_shape: "box" }]);
     await expect(part("Another D tank", "d")).rejects.toThrow(/CHECK constraint failed/);
