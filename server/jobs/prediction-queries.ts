@@ -49,6 +49,8 @@ export interface PredictionContext {
   history: StageHistory;
   /** The day a job entered `stage`, when that is the stage it is in (its newest move there); null when no move was recorded. */
   enteredOn: (jobId: number, stage: Stage) => string | null;
+  /** Answers already worked out in this request: cards in the same stage on the same route since the same day share one. */
+  worked: Map<string, Prediction>;
 }
 
 type EventRow = { id: number; job_id: number; from_stage: Stage | null; to_stage: Stage; at: string };
@@ -123,6 +125,7 @@ async function refresh(db: DB, now: Date): Promise<PredictionContext> {
     timeZone: shop.timeZone,
     holidays,
     history: state.sorted.history,
+    worked: new Map(),
     enteredOn: (jobId, stage) => {
       const visit = open.get(jobId);
       return visit && visit.stage === stage ? visit.day : null;
@@ -148,17 +151,15 @@ export interface PredictableJob {
 }
 
 export function predictionOf(ctx: PredictionContext, job: PredictableJob): Prediction {
-  return predictReady(
-    {
-      stage: job.stage,
-      route: jobRoute(job.scope, job.parts),
-      enteredOn: ctx.enteredOn(job.id, job.stage),
-      today: ctx.today,
-      coatingPromisedOn: job.coatingPromisedOn,
-    },
-    ctx.history,
-    ctx.holidays,
-  );
+  const route = jobRoute(job.scope, job.parts);
+  const enteredOn = ctx.enteredOn(job.id, job.stage);
+  const key = `${job.stage}|${route.join(",")}|${enteredOn}|${job.coatingPromisedOn}`;
+  let prediction = ctx.worked.get(key);
+  if (!prediction) {
+    prediction = predictReady({ stage: job.stage, route, enteredOn, today: ctx.today, coatingPromisedOn: job.coatingPromisedOn }, ctx.history, ctx.holidays);
+    ctx.worked.set(key, prediction);
+  }
+  return prediction;
 }
 
 /** Predictions for a few jobs (a job page, the status page), reading what each needs. */
