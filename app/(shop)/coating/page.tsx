@@ -154,6 +154,14 @@ export default async function CoatingPage() {
           </span>
           <span className="text-ink-soft">Today is {day(today)} (shop time); turnaround counts business days, weekends excluded.</span>
         </p>
+        {office && (
+          <p>
+            <a href="/api/coating-runs/export.csv" download className="inline-flex min-h-11 items-center text-sm font-semibold text-bay-800 underline">
+              Download CSV
+            </a>{" "}
+            <span className="text-sm text-ink-soft">(every coating run)</span>
+          </p>
+        )}
       </header>
 
       {/* On a phone "Send parts out" comes first (the job done most often here), the runs after it and the
