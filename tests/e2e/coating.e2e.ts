@@ -257,6 +257,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     expect(said).toContain(`${ready.workOrder} moved to Outside coating.`);
     expect(said).toContain(`${held.workOrder} not moved (still in Pressure test). Needs before it can move to Outside coating:`);
     expect(said).toContain(`Step box ${suffix}: record a passing leak test.`);
+    await desk.locator("#out article", { hasText: ready.tank }).waitFor();
     await shot(desk, "coating-sent-moves-desk");
     expect((await json(await desk.request.get(`${baseUrl()}/api/jobs/${ready.id}`))).job.stage).toBe("coating");
     expect((await json(await desk.request.get(`${baseUrl()}/api/jobs/${held.id}`))).job.stage).toBe("pressure_test");
