@@ -11,6 +11,7 @@ import * as m0010 from "./0010_indexes";
 import * as m0011 from "./0011_desk";
 import * as m0012 from "./0012_bought_parts_and_labour";
 import * as m0013 from "./0013_money";
+import * as m0014 from "./0014_d_shaped_tanks";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
@@ -26,6 +27,7 @@ export const migrations: Record<string, Migration> = {
   "0011_desk": m0011,
   "0012_bought_parts_and_labour": m0012,
   "0013_money": m0013,
+  "0014_d_shaped_tanks": m0014,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

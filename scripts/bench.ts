@@ -50,6 +50,7 @@ async function measureGet(url: string, cookie: string, seconds = SECONDS) {
     });
   });
   if (bad) throw new Error(`${url} answered ${bad} requests with a status other than 200`);
+  if (!times.length) throw new Error(`${url} answered nothing in ${seconds} s (${result.errors} connection errors): is the server built and running?`);
   times.sort((a, b) => a - b);
   return { p50: percentile(times, 50), p95: percentile(times, 95), rps: result.requests.average, errors: result.errors + result.non2xx };
 }
@@ -284,12 +285,13 @@ async function partsOnly() {
 }
 
 async function main() {
-  if (process.env.BENCH_ONLY === "parts") return partsOnly();
+  // Every mode starts the production server, so every mode needs a build.
   if (!existsSync(".next/BUILD_ID")) {
     console.log("Building first…");
     const b = spawnSync("npx", ["next", "build"], { stdio: "inherit" });
     if (b.status !== 0) process.exit(1);
   }
+  if (process.env.BENCH_ONLY === "parts") return partsOnly();
   const dir = mkdtempSync(join(tmpdir(), "baywright-bench-"));
   const dbPath = join(dir, "bench.db");
   const db = createDb(dbPath);

@@ -2,7 +2,8 @@ import type { ColumnType, Generated } from "kysely";
 
 export type PartKind = "reservoir" | "box" | "bracket" | "other";
 export type PartMaterial = "aluminum" | "stainless" | "carbon_steel";
-export type PartShape = "round" | "box" | "other";
+/** "d": a D-shaped tank, a flat side against the frame rail and a half round outboard (migration 0014). */
+export type PartShape = "round" | "box" | "d" | "other";
 
 export interface PartTable {
   id: Generated<number>;
@@ -11,7 +12,7 @@ export interface PartTable {
   kind: PartKind;
   material: PartMaterial;
   shape: PartShape;
-  /** JSON of the reservoir's geometry ({ shape, insideDiameterIn, lengthIn } or { shape, lengthIn, widthIn, heightIn }). */
+  /** JSON of the reservoir's geometry ({ shape, insideDiameterIn, lengthIn } or { shape: "box" | "d", lengthIn, widthIn, heightIn }). */
   geometry: string | null;
   needs_leak_test: number;
   needs_coating: number;

@@ -1,8 +1,8 @@
-import { type LeakTestProcedure, PUBLISHED_PROCEDURE, procedureBreaches } from "./procedure";
+import { type LeakTestProcedure, type TankShape, PUBLISHED_PROCEDURE, flatTankWords, flatWalled, procedureBreaches } from "./procedure";
 import type { LeakTestInput } from "./schemas";
 
 /** The part's shape, from the part record: the pressure band and the decay method depend on it. */
-export type PartShape = "round" | "box" | "other";
+export type PartShape = TankShape;
 
 /** "invalid": the test broke the shop's procedure (see procedure.ts); it is neither a pass nor a fail. */
 export type LeakTestResult = "pass" | "fail" | "invalid";
@@ -174,10 +174,11 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
 
   // Trade reference, leak test: flat walls flex with pressure, so the volume is not constant and
   // the P/T correction does not hold. With soap on every seam as well the test still counts.
-  if (test.method === "both" && context.partShape === "box") {
+  // A D-shaped tank's flat side and flat top and bottom flex the same way.
+  if (test.method === "both" && flatWalled(context.partShape)) {
     warn(
       "decay_on_box_tank",
-      "Pressure decay is not a valid leak test for a box tank: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution (trade reference, leak test).",
+      `Pressure decay is not a valid leak test for ${flatTankWords(context.partShape)}: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution (trade reference, leak test).`,
     );
   }
 

@@ -78,13 +78,31 @@ function source(same: boolean, published: string) {
   return same ? published : "the shop's procedure";
 }
 
-export function pressureBand(procedure: LeakTestProcedure, shape: "round" | "box" | "other") {
+/** A tank's shape as the part record keeps it: "d" is a D-shaped tank (flat side against the rail, half round outboard). */
+export type TankShape = "round" | "box" | "d" | "other";
+
+/**
+ * Flat walls flex under pressure, so the tank's volume changes and a decay reading cannot be
+ * trusted (trade reference, leak test). A D-shaped tank has a flat side the height of the tank
+ * against the rail and flat top and bottom, so it is tested as a flat-walled tank: the box tank's
+ * band and soap on every seam (common practice, no published source: UL 142 names only
+ * cylindrical and rectangular tanks).
+ */
+export function flatWalled(shape: TankShape): shape is "box" | "d" {
+  return shape === "box" || shape === "d";
+}
+
+/** How a flat-walled tank is named in a caution: "a box tank", "a D-shaped tank". */
+export const flatTankWords = (shape: "box" | "d") => (shape === "d" ? "a D-shaped tank" : "a box tank");
+
+export function pressureBand(procedure: LeakTestProcedure, shape: TankShape) {
   if (shape === "round") return { min: procedure.roundMinPsig, max: procedure.roundMaxPsig, tank: "a round (horizontal cylindrical) tank" };
   if (shape === "box") return { min: procedure.boxMinPsig, max: procedure.boxMaxPsig, tank: "a box (rectangular) tank" };
+  if (shape === "d") return { min: procedure.boxMinPsig, max: procedure.boxMaxPsig, tank: "a D-shaped tank (flat walls: the box tank's band)" };
   return null;
 }
 
-export function bandSource(procedure: LeakTestProcedure, shape: "round" | "box") {
+export function bandSource(procedure: LeakTestProcedure, shape: "round" | "box" | "d") {
   const p = PUBLISHED_PROCEDURE;
   const same = shape === "round" ? procedure.roundMinPsig === p.roundMinPsig && procedure.roundMaxPsig === p.roundMaxPsig : procedure.boxMinPsig === p.boxMinPsig && procedure.boxMaxPsig === p.boxMaxPsig;
   return source(same, "UL 142 §42.2.1");
@@ -111,7 +129,7 @@ const monthsText = (months: number) => (months % 12 === 0 ? (months === 12 ? "a 
  */
 export function procedureBreaches(
   readings: ProcedureReadings,
-  context: { partShape: "round" | "box" | "other"; procedure: LeakTestProcedure; today: string },
+  context: { partShape: TankShape; procedure: LeakTestProcedure; today: string },
 ): ProcedureBreach[] {
   const { procedure } = context;
   const breaches: ProcedureBreach[] = [];
@@ -121,7 +139,7 @@ export function procedureBreaches(
     breaches.push({
       code: "test_pressure_outside_band",
       field: "testPressurePsig",
-      message: `Test pressure ${show(readings.testPressurePsig)} psig is outside ${band.min}–${band.max} psig for ${band.tank} (${bandSource(procedure, context.partShape as "round" | "box")}).`,
+      message: `Test pressure ${show(readings.testPressurePsig)} psig is outside ${band.min}–${band.max} psig for ${band.tank} (${bandSource(procedure, context.partShape as "round" | "box" | "d")}).`,
     });
   }
 
@@ -164,13 +182,13 @@ export function procedureBreaches(
     }
   }
 
-  // Trade reference, leak test: flat walls flex with pressure, so a decay reading on a box tank
-  // cannot be trusted; with no seams examined nothing valid was tested.
-  if (readings.method === "decay" && context.partShape === "box") {
+  // Trade reference, leak test: flat walls flex with pressure, so a decay reading on a box or
+  // D-shaped tank cannot be trusted; with no seams examined nothing valid was tested.
+  if (readings.method === "decay" && flatWalled(context.partShape)) {
     breaches.push({
       code: "decay_on_box_tank",
       field: "method",
-      message: "Pressure decay alone is not a valid leak test for a box tank: its flat walls flex, so the drop cannot be trusted. Check every seam with soap solution.",
+      message: `Pressure decay alone is not a valid leak test for ${flatTankWords(context.partShape)}: its flat walls flex, so the drop cannot be trusted. Check every seam with soap solution.`,
     });
   }
 

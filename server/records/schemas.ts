@@ -226,13 +226,14 @@ export const PART_KINDS = ["reservoir", "box", "bracket", "other"] as const;
 export type PartKind = (typeof PART_KINDS)[number];
 export const PART_MATERIALS = ["aluminum", "stainless", "carbon_steel"] as const;
 export type PartMaterial = (typeof PART_MATERIALS)[number];
-export const PART_SHAPES = ["round", "box", "other"] as const;
+export const PART_SHAPES = ["round", "box", "d", "other"] as const;
 
 export const partKindLabels: Record<PartKind, string> = { reservoir: "Reservoir", box: "Box", bracket: "Bracket", other: "Other" };
 export const partMaterialLabels: Record<PartMaterial, string> = { aluminum: "Aluminum", stainless: "Stainless", carbon_steel: "Carbon steel" };
 export const partShapeLabels: Record<(typeof PART_SHAPES)[number], string> = {
   round: "Round (horizontal tube)",
   box: "Box (flat walls)",
+  d: "D-shaped (flat side on the rail)",
   other: "Other shape",
 };
 export const glossLabels: Record<(typeof GLOSS_LEVELS)[number], string> = {
@@ -265,8 +266,15 @@ export const partGeometrySchema = z.discriminatedUnion(
       widthIn: tankInches("width"),
       heightIn: tankInches("height"),
     }),
+    // The calculator's D-shaped tank: width from the rail to the crown of the half round.
+    z.object({
+      shape: z.literal("d"),
+      lengthIn: tankInches("length"),
+      widthIn: tankInches("width"),
+      heightIn: tankInches("height"),
+    }),
   ],
-  { error: "Tank geometry is round (inside diameter and length) or box (length, width and height)." },
+  { error: "Tank geometry is round (inside diameter and length), or box or D-shaped (length, width and height)." },
 );
 export type PartGeometry = z.infer<typeof partGeometrySchema>;
 
@@ -274,7 +282,7 @@ const partFields = {
   name: name("the part's name"),
   kind: z.enum(PART_KINDS, { error: "Choose the kind of part: reservoir, box, bracket or other." }),
   material: z.enum(PART_MATERIALS, { error: "Choose the material: aluminum, stainless or carbon steel." }),
-  shape: z.enum(PART_SHAPES, { error: "Choose the shape: round, box or other." }),
+  shape: z.enum(PART_SHAPES, { error: "Choose the shape: round, box, D-shaped or other." }),
   geometry: partGeometrySchema.nullable(),
   needsLeakTest: z.boolean({ error: "Say whether the part gets a leak test." }),
   needsCoating: z.boolean({ error: "Say whether the part goes out for coating." }),
@@ -312,7 +320,15 @@ export function partProblems(part: PartRecord): { path: string; message: string 
     problems.push({ path: "geometry", message: "Only a reservoir carries tank geometry; clear it or make the part a reservoir." });
   }
   if (part.geometry && part.geometry.shape !== part.shape) {
-    problems.push({ path: "shape", message: `The geometry is for a ${part.geometry.shape} tank; set the shape to match.` });
+    problems.push({ path: "shape", message: `The geometry is for a ${part.geometry.shape === "d" ? "D-shaped" : part.geometry.shape} tank; set the shape to match.` });
+  }
+  // A D-shaped tank's width runs from the flat side to the crown of the half round of diameter
+  // h, so it is at least h/2 (the calculator refuses the same).
+  if (part.geometry?.shape === "d" && part.geometry.widthIn < part.geometry.heightIn / 2) {
+    problems.push({
+      path: "geometry.widthIn",
+      message: `A D-shaped tank's width (${part.geometry.widthIn} in) runs from the rail to the crown of the curve, so it is at least half its height (${part.geometry.heightIn / 2} in).`,
+    });
   }
   // Trade reference: fabricated tanks are leak-tested with low air before they are finished.
   if (part.kind === "reservoir" && !part.needsLeakTest) {

@@ -85,6 +85,39 @@ describe.skipIf(!enabled)("records forms in Chromium", () => {
     await context.close();
   });
 
+  it("adds a D-shaped reservoir with its dimensions from the form, and its leak test starts as a flat-walled one", async () => {
+    for (const [device, name] of [[PHONE, "phone"], [DESK, "desk"]] as const) {
+      const context = await browser.newContext(device);
+      const page = await signIn(context, "office");
+      const { job } = await jobWithTank(page);
+      await page.goto(`${baseUrl()}/jobs/${job.id}`);
+      await page.getByRole("button", { name: "+ Add a part" }).click();
+      const form = page.getByRole("form", { name: "Add a part" });
+      await form.getByLabel("Part", { exact: true }).fill("D tank, left rail");
+      await form.getByLabel("Shape").selectOption({ label: "D-shaped (flat side on the rail)" });
+      expect(await form.getByText(/half round outboard/).count()).toBe(1);
+      await form.getByLabel("Length (in)").fill("40");
+      await form.getByLabel("Width, rail to crown (in)").fill("14");
+      await form.getByLabel("Height of the flat side (in)").fill("20");
+      await shot(page, `part-form-d-shaped-${name}`);
+      await form.getByRole("button", { name: "Add the part" }).click();
+
+      const line = page.locator("li[data-part='D tank, left rail']");
+      await line.waitFor();
+      // End area 20 × (14 − 10) + π × 20² / 8 = 237.08 in², × 40 in = 9,483 in³ = 41.05 US gal (231 in³).
+      expect(await line.textContent()).toMatch(/D-shaped · 40 × 14 × 20 in \(length × width × height\), about 41\.1 gal total/);
+      await line.getByRole("button", { name: "Record a leak test" }).click();
+      const test = page.getByRole("form", { name: /Leak test of D tank, left rail/ });
+      await test.waitFor();
+      expect(await test.getByRole("radio", { name: /Soap solution only/ }).isChecked()).toBe(true);
+      expect(await test.getByText(/For a D-shaped tank \(flat walls: the box tank's band\): 1\.5–3 psig \(UL 142 §42\.2\.1\)/).count()).toBe(1);
+      await test.getByRole("radio", { name: /Soap and pressure decay/ }).check();
+      expect(await test.getByText(/A D-shaped tank's flat walls flex/).count()).toBe(1);
+      await shot(page, `leak-test-d-shaped-${name}`);
+      await context.close();
+    }
+  });
+
   it("Add staff empties after saving, its hint follows the role, and deactivating asks first", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "owner");

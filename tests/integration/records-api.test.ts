@@ -126,6 +126,31 @@ describe("leak tests", () => {
     expect(body.test.rawDropPsi).toBeGreaterThan(0.6);
   });
 
+  it("a D-shaped reservoir is kept with its geometry and tested as flat-walled: the box tank's band, soap deciding", async () => {
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "pressure_test", parts: false });
+    const geometry = { shape: "d", lengthIn: 40, widthIn: 14, heightIn: 20 };
+    const tank = await addPart(tech.cookie, job.id, { ...tankBody, name: "D tank, left rail", geometry });
+    expect(tank).toEqual(expect.objectContaining({ shape: "d", geometry }));
+    const narrow = await parts.POST(request(`/api/jobs/${job.id}/parts`, { cookie: tech.cookie, body: { ...tankBody, geometry: { ...geometry, widthIn: 9 } } }), params({ id: String(job.id) }));
+    expect(narrow.status).toBe(400);
+    expect(await fields(narrow)).toEqual(["geometry.widthIn"]);
+
+    // 4 psig suits a round tank; for flat walls it is over UL 142's rectangular 1.5–3 psig.
+    const high = await readBody(await postTest(tech.cookie, tank.id, { ...goodTest, jobId: job.id }));
+    expect(high.result).toBe("invalid");
+    expect(high.invalidReasons.map((w: { code: string }) => w.code)).toEqual(["test_pressure_outside_band"]);
+    expect(high.invalidReasons[0].message).toContain("1.5–3 psig for a D-shaped tank");
+
+    const atTwo = { ...goodTest, jobId: job.id, testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 };
+    const both = await readBody(await postTest(tech.cookie, tank.id, atTwo));
+    expect(both.result).toBe("pass");
+    expect(both.warnings.map((w: { code: string }) => w.code)).toEqual(["decay_on_box_tank"]);
+    expect(both.test.partShape).toBe("d");
+    const decayOnly = await readBody(await postTest(tech.cookie, tank.id, { ...atTwo, method: "decay", seams: [] }));
+    expect(decayOnly.result).toBe("invalid");
+  });
+
   it("decides against the shop's allowance, which the owner sets and each test keeps", async () => {
     const owner = await as("owner");
     const office = await as("office");

@@ -12,6 +12,7 @@ import {
   thermometerSensitivityPsiPerF,
   type LeakTestContext,
 } from "@/server/records/leak-test";
+import { PUBLISHED_PROCEDURE } from "@/server/records/procedure";
 import type { LeakTestInput } from "@/server/records/schemas";
 
 const context: LeakTestContext = { partShape: "round", allowedDropPsi: 0.05, today: "2025-06-02" };
@@ -246,6 +247,41 @@ describe("evaluateLeakTest: warnings", () => {
     const box = { ...context, partShape: "box" as const };
     const outcome = evaluateLeakTest(leakTest({ method: "decay", seams: [], testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), box);
     expect(outcome.result).toBe("invalid");
+  });
+});
+
+describe("a D-shaped tank (flat side on the rail, half round outboard) is tested as flat-walled", () => {
+  const d = { ...context, partShape: "d" as const };
+  const soapAt = (psig: number, gaugeFullScalePsi = 2.5 * psig) =>
+    leakTest({ method: "soap", gaugeFullScalePsi, testPressurePsig: psig, startPressurePsig: psig, endPressurePsig: psig });
+
+  it("takes the box tank's 1.5–3 psig band (UL 142 §42.2.1 rectangular tanks), not the round tank's 3–5", () => {
+    for (const psig of [1.5, 2, 3]) expect(codes(evaluateLeakTest(soapAt(psig), d))).toEqual([]);
+    for (const psig of [1.4, 3.1, 4, 5]) {
+      const outcome = evaluateLeakTest(soapAt(psig), d);
+      expect(codes(outcome)).toEqual(["test_pressure_outside_band"]);
+      expect(outcome.result).toBe("invalid");
+      expect(outcome.warnings[0].message).toContain("1.5–3 psig for a D-shaped tank");
+    }
+  });
+
+  it("follows the shop's own box band when the owner changes it", () => {
+    const procedure = { ...PUBLISHED_PROCEDURE, boxMinPsig: 1, boxMaxPsig: 2 };
+    expect(codes(evaluateLeakTest(soapAt(1), { ...d, procedure }))).toEqual([]);
+    const outcome = evaluateLeakTest(soapAt(2.5), { ...d, procedure });
+    expect(codes(outcome)).toEqual(["test_pressure_outside_band"]);
+    expect(outcome.warnings[0].message).toContain("the shop's procedure");
+  });
+
+  it("flags pressure decay on it, and calls decay alone invalid", () => {
+    const both = evaluateLeakTest(leakTest({ method: "both", testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), d);
+    expect(codes(both)).toEqual(["decay_on_box_tank"]);
+    expect(both.warnings[0].message).toContain("for a D-shaped tank: its flat walls flex");
+    // Soap on every seam still decides, so the test counts.
+    expect(both.result).toBe("pass");
+    const decayOnly = evaluateLeakTest(leakTest({ method: "decay", seams: [], testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), d);
+    expect(decayOnly.result).toBe("invalid");
+    expect(decayOnly.invalidReasons.map((r) => r.code)).toEqual(["decay_on_box_tank"]);
   });
 });
 

@@ -37,6 +37,17 @@ describe("partInputSchema", () => {
     expect(pathsOf(partInputSchema, { ...tank, geometry: { shape: "oval" } })).toEqual(["geometry.shape"]);
   });
 
+  it("takes a D-shaped reservoir with the calculator's dimensions, its width at least half its height", () => {
+    const d = (widthIn: number) => ({ ...tank, geometry: { shape: "d", lengthIn: 40, widthIn, heightIn: 20 } });
+    expect(partInputSchema.parse(d(24))).toEqual(expect.objectContaining({ shape: "d", geometry: { shape: "d", lengthIn: 40, widthIn: 24, heightIn: 20 } }));
+    // Width 10 in on a 20 in flat side is exactly a half round: the edge is allowed.
+    expect(partInputSchema.parse(d(10)).shape).toBe("d");
+    expect(pathsOf(partInputSchema, d(9.9))).toEqual(["geometry.widthIn"]);
+    expect(partInputSchema.parse({ ...tank, shape: "d" })).toEqual(expect.objectContaining({ shape: "d", geometry: null }));
+    expect(pathsOf(partInputSchema, { ...tank, shape: "box", geometry: { shape: "d", lengthIn: 40, widthIn: 24, heightIn: 20 } })).toEqual(["shape"]);
+    expect(pathsOf(partInputSchema, { ...tank, shape: "hex" })).toEqual(["shape"]);
+  });
+
   it("checks merged edits with the same rules", () => {
     expect(partProblems({ kind: "reservoir", shape: "round", geometry: null, needsLeakTest: true })).toEqual([]);
     expect(partProblems({ kind: "bracket", shape: "box", geometry: { shape: "round", insideDiameterIn: 18, lengthIn: 36 }, needsLeakTest: false }).map((p) => p.path)).toEqual([

@@ -30,6 +30,9 @@ describe("procedure flags while the form is typed", () => {
     expect(codes(procedureBreaches({ holdMinutes: 14.9 }, round))).toEqual(["hold_too_short"]);
     expect(codes(procedureBreaches({ testPressurePsig: 5.5 }, round))).toEqual(["test_pressure_outside_band"]);
     expect(codes(procedureBreaches({ testPressurePsig: 2.5 }, { ...round, partShape: "box" }))).toEqual([]);
+    expect(codes(procedureBreaches({ testPressurePsig: 2.5 }, { ...round, partShape: "d" }))).toEqual([]);
+    expect(codes(procedureBreaches({ testPressurePsig: 4 }, { ...round, partShape: "d" }))).toEqual(["test_pressure_outside_band"]);
+    expect(codes(procedureBreaches({ method: "decay" }, { ...round, partShape: "d" }))).toEqual(["decay_on_box_tank"]);
     expect(procedureBreaches({ holdMinutes: 10 }, round)[0].message).toContain("ASME BPVC Section V, Article 10");
   });
 

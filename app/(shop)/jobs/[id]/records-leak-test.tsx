@@ -21,7 +21,7 @@ import {
   formatDropPsi,
   pneumaticTestCautions,
 } from "@/server/records/leak-test";
-import { type LeakTestProcedure, type ProcedureBreach, bandSource, gaugeSource, holdSource, pressureBand, procedureBreaches } from "@/server/records/procedure";
+import { type LeakTestProcedure, type ProcedureBreach, bandSource, flatWalled, gaugeSource, holdSource, pressureBand, procedureBreaches } from "@/server/records/procedure";
 import type { LeakTestMethod } from "@/server/records/schemas";
 import { canSendBackToFabricate, sendBackNote } from "@/server/records/send-back";
 import { useFocusFirstInvalid } from "./records-form-errors";
@@ -111,7 +111,7 @@ const FIELD_NAMES: Record<(typeof FIELD_ORDER)[number], string> = {
 
 function bandHint(shape: PartShape, procedure: LeakTestProcedure) {
   const band = pressureBand(procedure, shape);
-  if (band && (shape === "round" || shape === "box")) return `For ${band.tank}: ${band.min}–${band.max} psig (${bandSource(procedure, shape)}).`;
+  if (band && shape !== "other") return `For ${band.tank}: ${band.min}–${band.max} psig (${bandSource(procedure, shape)}).`;
   return "No set band for this shape: use the lowest pressure that finds a leak.";
 }
 
@@ -189,7 +189,7 @@ function LeakTestRound({
 }) {
   const router = useRouter();
   const formId = useId();
-  const [method, setMethod] = useState<LeakTestMethod>(part.shape === "box" ? "soap" : "both");
+  const [method, setMethod] = useState<LeakTestMethod>(flatWalled(part.shape) ? "soap" : "both");
   const [testPressure, setTestPressure] = useState("");
   const [hold, setHold] = useState("");
   const [gaugeScale, setGaugeScale] = useState(lastGauge?.fullScalePsi != null ? String(lastGauge.fullScalePsi) : "");
@@ -315,9 +315,9 @@ function LeakTestRound({
           ))}
         </div>
         {form.fields.method && <p className="text-sm font-medium text-stop-700">⚠ {form.fields.method.join(" ")}</p>}
-        {part.shape === "box" && method === "both" && (
+        {flatWalled(part.shape) && method === "both" && (
           <p className="flex gap-2 text-sm font-medium text-warn-700">
-            <IconWarn /> A box tank&apos;s flat walls flex, so pressure decay cannot be trusted on it: the soap check on every seam decides.
+            <IconWarn /> {part.shape === "d" ? "A D-shaped tank's" : "A box tank's"} flat walls flex, so pressure decay cannot be trusted on it: the soap check on every seam decides.
           </p>
         )}
         {flagFor("method") && (

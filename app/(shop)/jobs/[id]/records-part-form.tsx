@@ -118,7 +118,9 @@ export function PartForm({
           hint={
             shape === "box"
               ? "Flat walls flex: a box tank is checked with soap on every seam, at the box tank's test pressure."
-              : shape === "round"
+              : shape === "d"
+                ? "A flat side against the rail and a half round outboard. Its flat walls flex: it is checked with soap on every seam, at the box tank's test pressure."
+                : shape === "round"
                 ? "A round tank is tested at the round tank's pressure, with soap, pressure decay or both."
                 : "No set test pressure for this shape: the tester uses the lowest pressure that finds a leak."
           }
@@ -144,8 +146,8 @@ export function PartForm({
           ) : (
             <>
               {dimension("lengthIn", "Length (in)")}
-              {dimension("widthIn", "Width (in)")}
-              {dimension("heightIn", "Height (in)")}
+              {dimension("widthIn", shape === "d" ? "Width, rail to crown (in)" : "Width (in)")}
+              {dimension("heightIn", shape === "d" ? "Height of the flat side (in)" : "Height (in)")}
             </>
           )}
         </fieldset>

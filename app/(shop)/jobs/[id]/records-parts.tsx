@@ -21,10 +21,13 @@ type Panel = { partId: number; mode: "test" | "edit" | "rework" } | { partId: nu
 const day = (iso: string) => showStoredDate(iso, "EEE d MMM");
 const dateTime = (iso: string, timeZone: string) => formatShopTime(iso, timeZone, "d MMM yyyy, HH:mm");
 
-// Cylinder or box volume (elementary geometry) in US gallons of 231 in³.
+// Cylinder, box or D-shaped volume (the calculator's exact geometry) in US gallons of 231 in³.
 function geometryText(geometry: PartGeometry) {
   const gallons = tankFill(geometry, geometry.shape === "round" ? geometry.insideDiameterIn : geometry.heightIn).totalCuIn / 231;
-  const size = geometry.shape === "round" ? `${geometry.insideDiameterIn} in inside diameter × ${geometry.lengthIn} in long` : `${geometry.lengthIn} × ${geometry.widthIn} × ${geometry.heightIn} in`;
+  const size =
+    geometry.shape === "round"
+      ? `${geometry.insideDiameterIn} in inside diameter × ${geometry.lengthIn} in long`
+      : `${geometry.lengthIn} × ${geometry.widthIn} × ${geometry.heightIn} in${geometry.shape === "d" ? " (length × width × height)" : ""}`;
   return `${size}, about ${gallons.toFixed(1)} gal total`;
 }
 
@@ -170,7 +173,7 @@ export function RecordsParts({
               <h3 className="text-lg font-bold">{part.name}</h3>
               <p className="text-sm text-ink-soft">
                 {partKindLabels[part.kind]} · {partMaterialLabels[part.material]}
-                {part.shape !== "other" ? ` · ${part.shape}` : ""}
+                {part.shape !== "other" ? ` · ${part.shape === "d" ? "D-shaped" : part.shape}` : ""}
                 {part.geometry ? ` · ${geometryText(part.geometry)}` : ""}
               </p>
               {part.notes && <p className="text-sm">{part.notes}</p>}
