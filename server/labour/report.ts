@@ -1,5 +1,6 @@
 import "server-only";
 import type { DB } from "@/db";
+import { cachedUntilWrite } from "@/db/read-cache";
 import type { Stage } from "@/db/schema";
 import { toCsv } from "@/server/audit/csv";
 import { STAGE_LABELS } from "@/server/jobs/stages";
@@ -33,7 +34,13 @@ export interface JobCostRow {
  * all its bought-in parts, plus hours by stage across those jobs and hours per person per week.
  * A job with an approved quote is compared with it in total (quote lines carry no stage).
  */
-export async function jobCostsReport(db: DB, period: Period, cal: ReportCalendar, now = new Date()) {
+export function jobCostsReport(db: DB, period: Period, cal: ReportCalendar, now = new Date()) {
+  // A running clock's hours grow by the minute, so a kept answer lasts a minute at most.
+  const minute = Math.floor(now.getTime() / 60_000);
+  return cachedUntilWrite(db, `jobCostsReport|${period.from}|${period.to}|${minute}`, () => buildJobCostsReport(db, period, cal, now));
+}
+
+async function buildJobCostsReport(db: DB, period: Period, cal: ReportCalendar, now: Date) {
   const start = shopDayStart(period.from, cal.timeZone);
   const end = shopDayStart(addCalendarDays(period.to, 1), cal.timeZone);
   const rate = await labourRateCents(db);

@@ -1,5 +1,6 @@
 import { TZDate } from "@date-fns/tz";
-import { format, startOfISOWeek } from "date-fns";
+import { format } from "date-fns";
+import { shopDateOf, weekOf as mondayOf } from "@/server/shop/business-days";
 import type { Stage } from "@/db/schema";
 
 /** A clock entry as the rules read it: instants as ISO strings; an open entry has no end. */
@@ -29,9 +30,7 @@ export function overlapping(candidate: ClockSpan, others: readonly ClockSpan[], 
 }
 
 /** The shop's calendar day of an instant. */
-export function shopDay(instant: string | Date, timeZone: string): string {
-  return format(new TZDate(new Date(instant), timeZone), "yyyy-MM-dd");
-}
+export const shopDay = shopDateOf;
 
 export type ClockFlag = { code: "left_on_over_midnight" | "crossed_midnight"; message: string };
 
@@ -93,8 +92,7 @@ export function msByStage(entries: readonly (Pick<ClockSpan, "startedAt" | "ende
 
 /** The Monday (shop's calendar) of the ISO week an instant falls in. */
 export function weekOf(instant: string, timeZone: string): string {
-  const day = shopDay(instant, timeZone);
-  return format(startOfISOWeek(new Date(`${day}T12:00:00Z`)), "yyyy-MM-dd");
+  return mondayOf(shopDateOf(instant, timeZone));
 }
 
 /**

@@ -1,5 +1,6 @@
 import "server-only";
 import type { DB } from "@/db";
+import { cachedUntilWrite } from "@/db/read-cache";
 import { BOARD_STAGES } from "@/server/jobs/stages";
 import { shopToday } from "@/server/records/turnaround";
 import { addCalendarDays, shopDayStart } from "@/server/shop/business-days";
@@ -18,7 +19,11 @@ function instants(period: Period, timeZone: string) {
   return { start: shopDayStart(period.from, timeZone), end: shopDayStart(addCalendarDays(period.to, 1), timeZone) };
 }
 
-export async function stageTimesReport(db: DB, period: Period, cal: ReportCalendar) {
+export function stageTimesReport(db: DB, period: Period, cal: ReportCalendar) {
+  return cachedUntilWrite(db, `stageTimesReport|${period.from}|${period.to}|${cal.today}`, () => buildStageTimesReport(db, period, cal));
+}
+
+async function buildStageTimesReport(db: DB, period: Period, cal: ReportCalendar) {
   const { start, end } = instants(period, cal.timeZone);
   // Every event, up to the period's end, of the jobs that moved within it: a visit that ended in
   // the period may have begun long before.
@@ -35,7 +40,11 @@ export async function stageTimesReport(db: DB, period: Period, cal: ReportCalend
   return { period, stages: stageTimes(events, period, cal.timeZone, cal.holidays) };
 }
 
-export async function throughputReport(db: DB, period: Period, cal: ReportCalendar) {
+export function throughputReport(db: DB, period: Period, cal: ReportCalendar) {
+  return cachedUntilWrite(db, `throughputReport|${period.from}|${period.to}|${cal.today}`, () => buildThroughputReport(db, period, cal));
+}
+
+async function buildThroughputReport(db: DB, period: Period, cal: ReportCalendar) {
   const { start, end } = instants(period, cal.timeZone);
   const rows = await db
     .selectFrom("stage_event")
@@ -49,7 +58,11 @@ export async function throughputReport(db: DB, period: Period, cal: ReportCalend
   return { period, ...throughput(rows.map((r) => ({ jobId: r.job_id, at: r.at, dueOn: r.due_on })), period, cal.timeZone) };
 }
 
-export async function coatersReport(db: DB, period: Period, cal: ReportCalendar) {
+export function coatersReport(db: DB, period: Period, cal: ReportCalendar) {
+  return cachedUntilWrite(db, `coatersReport|${period.from}|${period.to}|${cal.today}`, () => buildCoatersReport(db, period, cal));
+}
+
+async function buildCoatersReport(db: DB, period: Period, cal: ReportCalendar) {
   const rows = await db
     .selectFrom("coating_run")
     .innerJoin("vendor", "vendor.id", "coating_run.vendor_id")
@@ -75,7 +88,11 @@ export async function techOpenJobs(db: DB) {
   return rows.map((r) => ({ id: r.id, name: r.name, openJobs: Number(r.open) }));
 }
 
-export async function workloadReport(db: DB, period: Period, cal: ReportCalendar) {
+export function workloadReport(db: DB, period: Period, cal: ReportCalendar) {
+  return cachedUntilWrite(db, `workloadReport|${period.from}|${period.to}|${cal.today}`, () => buildWorkloadReport(db, period, cal));
+}
+
+async function buildWorkloadReport(db: DB, period: Period, cal: ReportCalendar) {
   const { start, end } = instants(period, cal.timeZone);
   const techs = await techOpenJobs(db);
   const rows = techs.length

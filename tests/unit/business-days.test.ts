@@ -1,5 +1,8 @@
+import { TZDate } from "@date-fns/tz";
+import { addDays, differenceInBusinessDays, format, startOfISOWeek } from "date-fns";
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { addWorkingDays, NO_HOLIDAYS, shopDateOf, shopDayStart, weekOf, workingDaysBetween } from "@/server/shop/business-days";
+import { addCalendarDays, addWorkingDays, NO_HOLIDAYS, shopDateOf, shopDayStart, weekOf, workingDaysBetween } from "@/server/shop/business-days";
 import { median, percentile } from "@/server/reports/stats";
 
 // Calendar facts used below: 1 January 2027 is a Friday; 3 July 2026 is a Friday; 8 March 2026
@@ -57,5 +60,48 @@ describe("median and percentile", () => {
     expect(percentile([4], 90)).toBe(4);
     expect(percentile([], 90)).toBeNull();
     expect(() => percentile([1], 0)).toThrow(RangeError);
+  });
+});
+
+describe("the shop's calendar agrees with date-fns, its first definition, everywhere", () => {
+  // date-fns (a registry library) is the oracle: the whole-day arithmetic must give what its
+  // differenceInBusinessDays, startOfISOWeek and addDays give, and TZDate for the shop's clock.
+  const day = fc.integer({ min: Date.UTC(1999, 0, 1) / 86_400_000, max: Date.UTC(2040, 11, 31) / 86_400_000 }).map((n) => new Date(n * 86_400_000).toISOString().slice(0, 10));
+  const utc = (iso: string) => new TZDate(`${iso}T00:00:00Z`, "UTC");
+
+  it("working days without holidays are date-fns business days", () => {
+    fc.assert(
+      fc.property(day, day, (a, b) => {
+        const expected = a <= b ? differenceInBusinessDays(utc(b), utc(a)) : -differenceInBusinessDays(utc(a), utc(b));
+        expect(workingDaysBetween(a, b, NO_HOLIDAYS)).toBe(expected);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it("weeks start on date-fns' ISO Monday, and adding days matches addDays", () => {
+    fc.assert(
+      fc.property(day, fc.integer({ min: -800, max: 800 }), (a, n) => {
+        expect(weekOf(a)).toBe(format(startOfISOWeek(utc(a)), "yyyy-MM-dd"));
+        expect(addCalendarDays(a, n)).toBe(format(addDays(utc(a), n), "yyyy-MM-dd"));
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it("an instant's shop date is the date TZDate gives in that zone, in zones with half and quarter hours", () => {
+    const instant = fc.integer({ min: Date.UTC(2000, 0, 1), max: Date.UTC(2040, 0, 1) });
+    const zone = fc.constantFrom("US/Central", "America/Denver", "America/St_Johns", "Asia/Kathmandu", "Pacific/Chatham", "UTC");
+    fc.assert(
+      fc.property(instant, zone, (ms, tz) => {
+        expect(shopDateOf(new Date(ms).toISOString(), tz)).toBe(format(new TZDate(ms, tz), "yyyy-MM-dd"));
+      }),
+      { numRuns: 1000 },
+    );
+  });
+
+  it("refuses a date that is not on the calendar", () => {
+    expect(() => workingDaysBetween("2026-02-31", "2026-03-02", NO_HOLIDAYS)).toThrow(RangeError);
+    expect(() => weekOf("2026-13-01")).toThrow(RangeError);
   });
 });

@@ -18,6 +18,8 @@ export const metadata = { title: "Hours and job cost" };
 const hours = (h: number) => `${h.toFixed(2)} h`;
 const day = (iso: string) => showStoredDate(iso, "EEE d MMM yyyy");
 
+const JOBS_SHOWN = 50;
+
 /** Hours by stage, each job's cost so far, and each person's hours per week, over a period. */
 export default async function JobCostsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   await requirePageStaff(["office", "owner"]);
@@ -29,6 +31,11 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
   const period = read.ok ? read.period : fallback.ok ? fallback.period : { from: cal.today, to: cal.today };
   const [report, running] = await Promise.all([jobCostsReport(db, period, cal), openClocks(db, cal.timeZone)]);
   const csv = `/api/reports/job-costs?from=${period.from}&to=${period.to}&format=csv`;
+  // A busy period clocks thousands of jobs: the page shows those most over their quote, then the
+  // costliest, and the whole list is one link (or the CSV) away.
+  const showAll = raw.all === "1";
+  const ranked = [...report.jobs].sort((a, b) => Math.max(0, b.overQuoteCents ?? 0) - Math.max(0, a.overQuoteCents ?? 0));
+  const shownJobs = showAll ? ranked : ranked.slice(0, JOBS_SHOWN);
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-end justify-between gap-3">
@@ -87,7 +94,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
                 <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th><th className="text-right">Over / under</th></tr>
               </thead>
               <tbody>
-                {report.jobs.map((j) => (
+                {shownJobs.map((j) => (
                   <tr key={j.jobId} className="border-b border-line/60">
                     <td className="py-1"><Link className="font-semibold underline" href={`/jobs/${j.jobId}#job-cost`}>{j.workOrder}</Link> <span className="text-ink-soft">· {j.customerName}</span></td>
                     <td>{STAGE_LABELS[j.stage]}</td>
@@ -103,6 +110,12 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
                 ))}
               </tbody>
             </table>
+            {shownJobs.length < report.jobs.length && (
+              <p className="mt-2 text-sm text-ink-soft">
+                Showing {shownJobs.length} of {report.jobs.length.toLocaleString("en-US")} jobs: those most over their quote, then the costliest.{" "}
+                <Link className="font-semibold underline" href={`/job-costs?from=${period.from}&to=${period.to}&all=1#jobs`}>Show all {report.jobs.length.toLocaleString("en-US")}</Link> or download the CSV.
+              </p>
+            )}
           </div>
         )}
       </Section>

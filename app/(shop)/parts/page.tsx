@@ -24,9 +24,27 @@ function JobCell({ line }: { line: Pick<DeskLine, "jobId" | "workOrder" | "unitN
   );
 }
 
+const LINES_PER_SUPPLIER = 25;
+
+function MoreLines({ supplier, shown, total, anchor }: { supplier: string; shown: number; total: number; anchor: string }) {
+  if (shown >= total) return null;
+  return (
+    <p className="mt-1 text-sm text-ink-soft">
+      Showing {shown} of {total.toLocaleString("en-US")} lines.{" "}
+      <Link className="font-semibold underline" href={`/parts?supplier=${encodeURIComponent(supplier)}#${anchor}`}>Show all {total.toLocaleString("en-US")} {supplier ? `from ${supplier}` : "without a supplier"}</Link>
+    </p>
+  );
+}
+
 /** The shop's parts desk: what to order, what is on order and late, what came this week. */
-export default async function PartsDeskPage() {
+export default async function PartsDeskPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   await requirePageStaff(COST_ROLES);
+  const raw = await searchParams;
+  // A busy shop has thousands of open lines: each supplier shows its first few, and one link opens
+  // the whole group (to order a supplier's lines on one purchase order).
+  const opened = typeof raw.supplier === "string" ? raw.supplier : null;
+  const allOverdue = raw.overdue === "all";
+  const shown = <T,>(supplier: string, lines: T[]) => (supplier === opened ? lines : lines.slice(0, LINES_PER_SUPPLIER));
   const db = getDb();
   const [desk, shop] = await Promise.all([loadPartsDesk(db), shopSettings(db)]);
   const toOrderCount = desk.toOrder.reduce((n, g) => n + g.lines.length, 0);
@@ -56,7 +74,7 @@ export default async function PartsDeskPage() {
       {desk.overdue.length > 0 && (
         <Section title="Overdue deliveries" id="overdue">
           <ul className="space-y-2">
-            {desk.overdue.map((l) => (
+            {desk.overdue.slice(0, allOverdue ? undefined : LINES_PER_SUPPLIER).map((l) => (
               <li key={l.id} className="flex flex-wrap items-center justify-between gap-2 rounded-md border-2 border-stop-700 p-2" data-overdue-line={l.description}>
                 <p>
                   <span className="font-bold text-stop-700"><IconWarn /> Overdue since {day(l.expectedOn!)}</span> · {l.quantity - l.receivedQuantity} × {l.description} from {l.supplier} on{" "}
@@ -66,6 +84,12 @@ export default async function PartsDeskPage() {
               </li>
             ))}
           </ul>
+          {!allOverdue && desk.overdue.length > LINES_PER_SUPPLIER && (
+            <p className="mt-1 text-sm text-ink-soft">
+              Showing the {LINES_PER_SUPPLIER} longest overdue of {desk.overdue.length.toLocaleString("en-US")}.{" "}
+              <Link className="font-semibold underline" href="/parts?overdue=all#overdue">Show all {desk.overdue.length.toLocaleString("en-US")}</Link>
+            </p>
+          )}
         </Section>
       )}
 
@@ -76,7 +100,10 @@ export default async function PartsDeskPage() {
           <div className="space-y-4">
             <p className="text-sm text-ink-soft">Tick lines for one supplier and order them on one purchase order; lines of several jobs can share it.</p>
             {desk.toOrder.map((g) => (
-              <OrderGroup key={g.supplier || "none"} supplier={g.supplier} lines={g.lines} today={desk.today} suppliers={desk.suppliers} />
+              <div key={g.supplier || "none"}>
+                <OrderGroup supplier={g.supplier} lines={shown(g.supplier, g.lines)} today={desk.today} suppliers={desk.suppliers} />
+                <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="to-order" />
+              </div>
             ))}
           </div>
         )}
@@ -96,7 +123,7 @@ export default async function PartsDeskPage() {
                       <tr><th className="py-1 pr-2">Expected</th><th className="pr-2">Order</th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Received</th><th className="pr-2"><span className="sr-only">Receive</span></th></tr>
                     </thead>
                     <tbody>
-                      {g.lines.map((l) => (
+                      {shown(g.supplier, g.lines).map((l) => (
                         <tr key={l.id} className="border-b border-line/60 align-top" data-on-order={l.description}>
                           <td className={`py-1.5 pr-2 whitespace-nowrap ${l.overdue ? "font-bold text-stop-700" : ""}`}>
                             {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
@@ -111,6 +138,7 @@ export default async function PartsDeskPage() {
                     </tbody>
                   </table>
                 </div>
+                <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="on-order" />
               </div>
             ))}
           </div>

@@ -1,0 +1,62 @@
+import Database from "better-sqlite3";
+import { describe, expect, it } from "vitest";
+import { cachedUntilWrite } from "@/db/read-cache";
+import { useFreshDatabase } from "../support/db";
+import { ensureShop, makeCustomer } from "../support/factories";
+
+const { db } = useFreshDatabase();
+
+describe("answers kept until the shop writes", () => {
+  it("builds once for repeat reads, and again after any write", async () => {
+    await ensureShop(db());
+    let builds = 0;
+    const count = () => cachedUntilWrite(db(), "customers", async () => {
+      builds += 1;
+      return (await db().selectFrom("customer").select(db().fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n;
+    });
+    expect(await count()).toBe(0);
+    expect(await count()).toBe(0);
+    expect(builds).toBe(1);
+    await makeCustomer(db());
+    expect(await count()).toBe(1);
+    expect(builds).toBe(2);
+  });
+
+  it("sees a write by another connection (a script, a second server)", async () => {
+    let builds = 0;
+    const count = () => cachedUntilWrite(db(), "customers-other", async () => {
+      builds += 1;
+      return Number((await db().selectFrom("customer").select(db().fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+    });
+    const before = await count();
+    const other = new Database(process.env.DATABASE_PATH!);
+    other.prepare("insert into customer (kind, name, phone, email, notes, created_at) values ('company', 'Second connection', '', '', '', ?)").run(new Date().toISOString());
+    other.close();
+    expect(await count()).toBe(before + 1);
+    expect(builds).toBe(2);
+  });
+
+  it("shares one build between readers arriving together, and never keeps a failure", async () => {
+    let builds = 0;
+    let release!: () => void;
+    const gate = new Promise<void>((r) => (release = r));
+    const slow = () => cachedUntilWrite(db(), "slow", async () => {
+      builds += 1;
+      await gate;
+      return builds;
+    });
+    const both = Promise.all([slow(), slow()]);
+    release();
+    expect(await both).toEqual([1, 1]);
+    expect(builds).toBe(1);
+
+    let attempts = 0;
+    const flaky = () => cachedUntilWrite(db(), "flaky", async () => {
+      attempts += 1;
+      if (attempts === 1) throw new Error("disk busy");
+      return "ok";
+    });
+    await expect(flaky()).rejects.toThrow("disk busy");
+    expect(await flaky()).toBe("ok");
+  });
+});
