@@ -69,6 +69,8 @@ export interface ShopTable {
   deposit_fixed_cents: ColumnType<number, number | undefined, number>;
   /** Printed under every quote; the customer ticks that they accept them. */
   quote_terms: ColumnType<string, string | undefined, string>;
+  /** "Money checks before work and delivery": 1 on (the default), 0 off (migration 0015). */
+  money_checks: ColumnType<number, number | undefined, number>;
   /** What an hour of labour costs, cents; 0 until the owner sets it (migration 0012). */
   labour_rate_cents: ColumnType<number, number | undefined, number>;
   next_purchase_order: ColumnType<number, number | undefined, number>;

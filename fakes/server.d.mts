@@ -11,6 +11,10 @@ export interface FakesOptions {
   callbackTimeoutMs?: number;
   /** How long a route-handler upload waits for its `/route-metadata`. Default 5 000 ms. */
   registrationWaitMs?: number;
+  /** Where the payments fake POSTs its signed webhook events. Default: env PAYMENTS_WEBHOOK_URL. */
+  paymentsWebhookUrl?: string;
+  /** The webhook signing secret (`whsec_…`). Default: env PAYMENTS_WEBHOOK_SECRET, else `whsec_local_fake`. */
+  paymentsWebhookSecret?: string;
   /** One line per request and event; silent by default. */
   log?: (line: string) => void;
 }

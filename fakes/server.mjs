@@ -8,6 +8,7 @@ import fs from "node:fs";
 import http from "node:http";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { createPaymentsFake } from "./payments.mjs";
 
 const MB = 1024 * 1024;
 export const LIMITS = Object.freeze({
@@ -383,10 +384,13 @@ export async function startFakes(options = {}) {
     token = process.env.UPLOADTHING_TOKEN,
     callbackTimeoutMs = 30_000,
     registrationWaitMs = 5_000,
+    paymentsWebhookUrl = process.env.PAYMENTS_WEBHOOK_URL,
+    paymentsWebhookSecret = process.env.PAYMENTS_WEBHOOK_SECRET,
     log = () => {},
   } = options;
 
   const store = createStore(path.resolve(dataDir));
+  const payments = createPaymentsFake({ dataDir: path.resolve(dataDir), webhookUrl: paymentsWebhookUrl, webhookSecret: paymentsWebhookSecret, log });
   const knownApiKeys = new Set();
   if (token) knownApiKeys.add(parseUploadthingToken(token).apiKey);
 
@@ -530,6 +534,7 @@ export async function startFakes(options = {}) {
     if (req.method === "POST" && route === "/reset") {
       await readBody(req, LIMITS.jsonBody);
       store.reset();
+      payments.reset();
       failNext = { count: 0, status: 500 };
       for (const reg of registrations.values()) reg.endStream?.();
       registrations.clear();
@@ -951,6 +956,9 @@ export async function startFakes(options = {}) {
     const p = url.pathname;
 
     if (p === "/resend" || p.startsWith("/resend/")) return handleResend(req, res, url);
+    if (p.startsWith("/v1/") || p.startsWith("/pay/") || p === "/__fake/payments" || p.startsWith("/__fake/payments/")) {
+      if (await payments.handle(req, res, url, { readBody, baseUrl })) return;
+    }
     if (p.startsWith("/__fake/")) return handleInspect(req, res, url);
     if (p.startsWith("/v6/")) return handleUtApi(req, res, url);
     if (p === "/route-metadata" && req.method === "POST") return handleRouteMetadata(req, res);
@@ -1045,6 +1053,7 @@ if (isMain) {
       console.log(`fakes listening on ${fakes.url} (data in ${path.resolve(dataDir)})`);
       console.log(`  e-mail:  RESEND_BASE_URL=${fakes.url}/resend`);
       console.log(`  uploads: UPLOADTHING_INGEST_URL=${fakes.url}  UPLOADTHING_API_URL=${fakes.url}`);
+      console.log(`  payments: PAYMENTS_API_URL=${fakes.url}  webhook to ${process.env.PAYMENTS_WEBHOOK_URL ?? "(PAYMENTS_WEBHOOK_URL unset)"}`);
       let stopping = false;
       const stop = () => {
         if (stopping) process.exit(1); // a second Ctrl-C: don't wait

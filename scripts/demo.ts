@@ -32,10 +32,15 @@ const fakeUploads = process.env.UPLOADTHING_TOKEN
       UPLOADTHING_UFS_HOST: `localhost:${new URL(fakesUrl).port}`,
       UPLOADTHING_UFS_APP_ID_LOCATION: "path",
     };
-const appEnv = { ...process.env, APP_URL: process.env.APP_URL ?? `http://localhost:${port}`, ...fakeEmail, ...fakeUploads };
+const appUrl = process.env.APP_URL ?? `http://localhost:${port}`;
+// Card payments: the fake takes the SDK's calls and posts signed webhook events back to the app.
+const fakePayments = process.env.PAYMENTS_SECRET_KEY
+  ? {}
+  : { PAYMENTS_SECRET_KEY: "sk_local_fake", PAYMENTS_WEBHOOK_SECRET: "whsec_local_fake", PAYMENTS_API_URL: fakesUrl, PAYMENTS_WEBHOOK_URL: `${appUrl}/api/payments/webhook` };
+const appEnv = { ...process.env, APP_URL: appUrl, ...fakeEmail, ...fakeUploads, ...fakePayments };
 
 const children = [
-  spawn("node", ["fakes/server.mjs"], { stdio: "inherit", env: { ...process.env, ...fakeUploads }, detached: true }),
+  spawn("node", ["fakes/server.mjs"], { stdio: "inherit", env: { ...process.env, ...fakeUploads, ...fakePayments }, detached: true }),
   spawn("npx", ["next", "start", "-p", port], { stdio: "inherit", env: appEnv, detached: true }),
 ];
 
@@ -43,6 +48,7 @@ const password = process.env.DEMO_PASSWORD || DEMO_PASSWORD_DEFAULT;
 console.log(`\nBaywright is starting on http://localhost:${port}\nDemo sign-ins (password ${password}):`);
 for (const s of DEMO_STAFF.slice(0, 3)) console.log(`  ${s.role.padEnd(6)} ${s.email}`);
 if (!process.env.RESEND_API_KEY) console.log(`Customer e-mail goes to the local fake: see what was sent at ${fakesUrl}/__fake/emails`);
+if (!process.env.PAYMENTS_SECRET_KEY) console.log(`Card payments go to the local fake's checkout page: see them at ${fakesUrl}/__fake/payments`);
 console.log("Press Ctrl+C to stop.\n");
 
 // `next start` forks a next-server child: end each whole process group so the port and the

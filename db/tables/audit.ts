@@ -21,6 +21,9 @@ export const AUDIT_KINDS = [
   "quote_declined",
   "bought_part_deleted",
   "clock_corrected",
+  "payment_recorded",
+  "payment_received",
+  "invoice_voided",
 ] as const;
 export type AuditKind = (typeof AUDIT_KINDS)[number];
 

@@ -81,6 +81,8 @@ export interface InvoiceTable {
   created_at: string;
   void_reason: string | null;
   voided_at: string | null;
+  voided_by: ColumnType<string | null, string | null | undefined, string | null>;
+  sent_at: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface CheckoutTable {

@@ -24,4 +24,7 @@ export const AUDIT_KIND_LABELS: Record<AuditKind, string> = {
   quote_declined: "Quote declined by the customer",
   bought_part_deleted: "Bought-in part deleted",
   clock_corrected: "Clock entry corrected",
+  payment_recorded: "Payment recorded by staff",
+  payment_received: "Payment received online",
+  invoice_voided: "Invoice voided",
 };

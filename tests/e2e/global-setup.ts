@@ -54,7 +54,8 @@ export default async function setup(project: TestProject) {
   const dir = mkdtempSync(join(tmpdir(), "baywright-e2e-"));
   const port = await freePort();
   // The e-mail and upload services' local fake, in this process; the app reaches it through env (fakes/README.md).
-  const fakes = await startFakes({ port: 0, dataDir: join(dir, "fakes") });
+  // Card payments too: its signed webhook events go to the demo server's webhook route.
+  const fakes = await startFakes({ port: 0, dataDir: join(dir, "fakes"), paymentsWebhookUrl: `http://127.0.0.1:${port}/api/payments/webhook`, paymentsWebhookSecret: "whsec_local_fake" });
   const fakesPort = new URL(fakes.url).port;
   const env = {
     ...process.env,
@@ -75,6 +76,9 @@ export default async function setup(project: TestProject) {
     UPLOADTHING_UFS_HOST: `localhost:${fakesPort}`,
     UPLOADTHING_UFS_APP_ID_LOCATION: "path",
     UPLOADTHING_LOG_LEVEL: "Error",
+    PAYMENTS_SECRET_KEY: "sk_local_fake",
+    PAYMENTS_WEBHOOK_SECRET: "whsec_local_fake",
+    PAYMENTS_API_URL: fakes.url,
   };
   // A second shop on its own database with the tables and nothing in them, as a new shop starts:
   // the same build, fakes and settings, only its own port, address, database and photos.

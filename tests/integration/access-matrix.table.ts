@@ -46,10 +46,13 @@ export const ACCESS_MATRIX: Row[] = [
   open("GET /api/health"),
   open("POST /api/session"),
   open("DELETE /api/session"),
+  // The payment service's webhook: no session; its signature is the key (refused with 400 without one).
+  open("POST /api/payments/webhook"),
   // The customer's status link: the link in the URL is the key, and a wrong one looks like no link.
   row("PAGE /status/[token]", "404", "ok", "404", "404", "404", "404"),
   row("GET /status/[token]/photos/[photoId]", 404, "ok", 404, 404, 404, 404),
   row("POST /status/[token]/quote", 404, "ok", 404, 404, 404, 404),
+  row("POST /status/[token]/checkout", 404, "ok", 404, 404, 404, 404),
   // Signing in and first run (first run answers only while no one works here).
   // The overview is the office's and owner's first page; the bench starts at the board.
   row("PAGE /", "→/sign-in", "→/sign-in", "→/board", "ok", "ok", "→/sign-in"),
