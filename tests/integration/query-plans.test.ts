@@ -8,6 +8,7 @@ import { jobEmailSettings } from "@/server/email/recipients";
 import { notifySettings } from "@/server/email/settings";
 import { loadBoard } from "@/server/jobs/board";
 import { moveJob } from "@/server/jobs/mutations";
+import { predictJob } from "@/server/jobs/prediction-queries";
 import { findJob, listJobs, stageEvents } from "@/server/jobs/queries";
 import { latestKitSpec, kitSpecStartingInputs } from "@/server/kit-spec/queries";
 import { jobParts, listJobPhotos } from "@/server/photos/queries";
@@ -85,6 +86,7 @@ describe("the hot paths use indexes on a shop with a long history", () => {
         await Promise.all([stageEvents(db, id), listTechs(db, found.assignedTechId), shopSettings(db), listParts(db, { jobId: id }), listLeakTests(db, { jobId: id }), findSignOff(db, id), recordsSettings(db)]);
         await Promise.all([latestKitSpec(db, id), kitSpecStartingInputs(db, id), listJobPhotos(db, id), jobParts(db, id)]);
         await Promise.all([listMessages(db, id), jobEmailSettings(db, id), listStatusLinks(db, id), notifySettings(db)]);
+        await predictJob(db, found);
       });
     }
     for (const sort of ["newest", "due", "customer", "stage"] as const) {
