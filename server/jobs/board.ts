@@ -8,6 +8,7 @@ import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
 import { loadGateRecords } from "./gate-records";
 import { nextGateState } from "./gates";
+import { moneyWords } from "@/server/money/state";
 import type { BoardFilter } from "./schemas";
 import { BOARD_STAGES, STAGE_LABELS } from "./stages";
 
@@ -31,6 +32,8 @@ export interface BoardCard {
   coating: { overdue: boolean; vendorName: string; promisedOn: string } | null;
   /** Bought-in parts not yet received, by description ("waiting on 2 parts"). */
   waitingParts: string[];
+  /** The money state in words ("Quote sent", "Deposit paid", "Balance due $1,234.00"), or null before any quote. */
+  money: string | null;
 }
 
 export interface Board {
@@ -107,6 +110,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
       coating: coating.get(r.id) ?? null,
       waitingParts: (jobRecords.waitingBoughtParts ?? []).map((p) => p.description),
+      money: jobRecords.money ? moneyWords(jobRecords.money) : null,
     };
   });
   const unfiltered = !filter.q && !filter.tech && !filter.customer && !filter.due;
