@@ -1,6 +1,7 @@
 import type { APIRequestContext, Browser, Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+import { readyForWork } from "./money-helpers";
 
 const enabled = Boolean(baseUrl());
 // A gauge calibrated two months ago: inside the yearly recalibration whatever day the suite runs.
@@ -255,6 +256,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: truck.customerId, truckId: truck.truckId, scope: "fabrication", description: `Spare tank ${Date.now().toString(36)}` } }), 201)).job as { id: number; workOrder: string };
     const tank = `Round reservoir ${job.workOrder}`;
     await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, { headers: { origin: baseUrl() }, data: { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201);
+    await readyForWork(desk.request, job.id);
     await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "fabricate", version: await version(desk.request, job.id) } }));
 
     // The fabricator opens the job at the bench while it is still in Fabricate…

@@ -1,5 +1,6 @@
 "use client";
 
+import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { type ApiFailure, ApiRequestError, api } from "@/components/api";
 import { buttonClass, inputClass } from "@/components/styles";
@@ -47,6 +48,7 @@ function Lines({ quote }: { quote: CustomerQuote }) {
 
 /** The customer's quotes on their status link: the one waiting for an answer first, with approve and decline. */
 export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQuotes: CustomerQuote[] }) {
+  const router = useRouter();
   const [quotes, setQuotes] = useState(initialQuotes);
   const [mode, setMode] = useState<"approve" | "decline">("approve");
   const [failure, setFailure] = useState<ApiFailure | null>(null);
@@ -68,6 +70,8 @@ export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQu
       const got = await api<{ quotes: CustomerQuote[] }>(`/status/${token}/quote`, { method: "POST", body });
       setQuotes(got.quotes);
       setDone(mode === "approve" ? "Thank you: your approval is with the shop." : "Thank you: the shop has your answer and will be in touch.");
+      // An approval may bring a deposit to pay: the page's server part says so.
+      if (mode === "approve") router.refresh();
     } catch (err) {
       if (err instanceof ApiRequestError) setFailure(err.failure);
       else throw err;

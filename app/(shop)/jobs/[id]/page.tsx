@@ -19,6 +19,7 @@ import { JobEditor, MoveControl } from "./job-controls";
 import { KitSpecSection } from "./kit-spec-section";
 import { MessagesSection } from "./messages-section";
 import { PhotosSection } from "./photos-section";
+import { MoneySection } from "./money-section";
 import { QuoteSection } from "./quote-section";
 import { RecordsSection } from "./records-section";
 
@@ -107,6 +108,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               <Suspense fallback={<SectionLoading title="Quote" />}>
                 <QuoteSection job={job} user={user} />
               </Suspense>
+              <div className="mt-4">
+                <Suspense fallback={<SectionLoading title="Money" />}>
+                  <MoneySection job={job} user={user} />
+                </Suspense>
+              </div>
             </div>
           )}
           <div className="no-print space-y-4">
