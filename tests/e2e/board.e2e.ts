@@ -73,6 +73,8 @@ async function wireJobWithoutSignOff(browser: Browser): Promise<string> {
   const created = await post("/api/jobs", { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `Dash indicator rewire ${Date.now().toString(36)}` });
   expect(created.status(), await created.text()).toBe(201);
   let job = (await created.json()).job as { id: number; workOrder: string; version: number };
+  // Money is not the subject: an approved quote and its deposit let it into Install.
+  await readyForWork(page.request, job.id);
   for (const toStage of ["install", "wire"]) {
     const moved = await post(`/api/jobs/${job.id}/moves`, { toStage, version: job.version });
     expect(moved.status(), await moved.text()).toBe(200);

@@ -81,6 +81,8 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
         (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: t.customerId, truckId: t.truckId, scope: "fabrication", description: `Wet kit ${suffix}-${i}` } }), 201)).job as { id: number; workOrder: string },
       ),
     );
+    // Money is not the subject: each has an approved quote and its deposit in.
+    for (const job of [jobA, jobB]) await readyForWork(desk.request, job.id);
     const tankA = `Round reservoir ${suffix}-A`;
     const tankB = `Round reservoir ${suffix}-B`;
 

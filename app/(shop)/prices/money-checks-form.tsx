@@ -10,6 +10,8 @@ export function MoneyChecksForm({ initial }: { initial: boolean }) {
   const [pending, setPending] = useState(false);
 
   async function change(next: boolean) {
+    // The box follows the hand at once; a refusal puts it back.
+    setOn(next);
     setPending(true);
     setMessage(null);
     try {
@@ -17,6 +19,7 @@ export function MoneyChecksForm({ initial }: { initial: boolean }) {
       setOn(got.on);
       setMessage({ ok: true, text: got.on ? "Saved: on." : "Saved: off." });
     } catch (err) {
+      setOn(!next);
       if (err instanceof ApiRequestError) setMessage({ ok: false, text: err.failure.message });
       else throw err;
     } finally {
