@@ -4,6 +4,8 @@ const nextConfig: NextConfig = {
   poweredByHeader: false,
   typedRoutes: false,
   images: { unoptimized: true },
+  // pdfkit loads its built-in fonts with a `require` made from its own URL at run time: leave it to Node.
+  serverExternalPackages: ["pdfkit"],
   // `npm test` type-checks the whole project (tests included) before it builds; no need twice.
   typescript: { ignoreBuildErrors: true },
   // The truck owner's status page: its link is a secret, so it must not leak through Referer or

@@ -1,10 +1,5 @@
-/** Money is integer cents everywhere; this only writes it for people: 123456 → "$1,234.56". */
-export function formatCents(cents: number): string {
-  const sign = cents < 0 ? "−" : "";
-  const abs = Math.abs(Math.trunc(cents));
-  const dollars = Math.floor(abs / 100).toLocaleString("en-US");
-  return `${sign}$${dollars}.${String(abs % 100).padStart(2, "0")}`;
-}
+/** Money is integer cents everywhere; one function writes it for people (123456 → "$1,234.56") on every screen, e-mail and PDF. */
+export { formatCents } from "@/server/money/totals";
 
 /**
  * "125.50" or "$1,234" typed by a person → cents, exactly (no float arithmetic); undefined for an

@@ -59,6 +59,15 @@ export interface EmailMessageTable {
   created_at: string;
 }
 
+/** A file an e-mail carries (migration 0016): stored with the message so a retry sends the same bytes. */
+export interface EmailAttachmentTable {
+  outbox_id: string;
+  position: number;
+  filename: string;
+  content_type: string;
+  content: Buffer;
+}
+
 export interface JobEmailSettingTable {
   job_id: number;
   email_off: number;
@@ -90,6 +99,7 @@ export interface MessagingTables {
   photo: PhotoTable;
   status_link: StatusLinkTable;
   email_message: EmailMessageTable;
+  email_attachment: EmailAttachmentTable;
   job_email_setting: JobEmailSettingTable;
   job_email_recipient: JobEmailRecipientTable;
   message_setting: MessageSettingTable;

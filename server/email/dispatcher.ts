@@ -8,8 +8,11 @@ import { statusUrl, tokenFor } from "@/server/status/tokens";
 import { emailEnv } from "./env";
 import { recipientsFor } from "./recipients";
 import { REPLACED_BY_LATER_MOVE } from "./outbox";
-import { type LinkIssuedPayload, type StageChangedPayload, parseLinkPayload, parsePayload } from "./payload";
-import { renderLinkEmail, renderStageEmail, withStatusLink } from "./render";
+import { quoteDocument, quotePdfName } from "@/server/money/quote-pdf";
+import { renderMoneyPdf } from "@/server/money/pdf";
+import { fromThousandths } from "@/server/money/totals";
+import { type LinkIssuedPayload, type QuoteSentPayload, type StageChangedPayload, parseLinkPayload, parsePayload, parseQuotePayload } from "./payload";
+import { renderLinkEmail, renderQuoteEmail, renderStageEmail, withStatusLink } from "./render";
 import type { EmailSender, SendResult } from "./sender";
 import { notifySettings } from "./settings";
 
@@ -119,7 +122,16 @@ function sameAddresses(a: string[], b: string[]) {
 
 export const NEW_LINK_TURNED_OFF = "The office turned off this status link before the e-mail went out; issue a new link to send one.";
 
-type Work = { kind: "stage_changed"; payload: StageChangedPayload } | { kind: "link_issued"; payload: LinkIssuedPayload };
+type Work = { kind: "stage_changed"; payload: StageChangedPayload } | { kind: "link_issued"; payload: LinkIssuedPayload } | { kind: "quote_sent"; payload: QuoteSentPayload };
+
+/** A file made for a message before its first rendering (outside any transaction) and stored with it. */
+interface NewAttachment {
+  filename: string;
+  contentType: string;
+  content: Buffer;
+}
+
+export const QUOTE_REPLACED = "The office sent a newer version before this e-mail went out; that version has its own e-mail.";
 
 function readWork(row: ClaimedRow): Work | null {
   if (row.kind === "stage_changed") {
@@ -129,6 +141,10 @@ function readWork(row: ClaimedRow): Work | null {
   if (row.kind === "link_issued") {
     const payload = parseLinkPayload(row.payload);
     return payload ? { kind: "link_issued", payload } : null;
+  }
+  if (row.kind === "quote_sent") {
+    const payload = parseQuotePayload(row.payload);
+    return payload ? { kind: "quote_sent", payload } : null;
   }
   return null;
 }
@@ -145,7 +161,7 @@ async function issuedLink(trx: Parameters<typeof workingLink>[0], jobId: number,
  * renders and stores it; a later one sends what is stored, under the same key, unless the job's
  * recipients or its status link changed since: then it is rendered again as a new revision.
  */
-async function prepare(db: DB, row: ClaimedRow, work: Work, at: string): Promise<Prepared> {
+async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachment: NewAttachment | null): Promise<Prepared> {
   const env = emailEnv();
   return db.transaction().execute(async (trx): Promise<Prepared> => {
     const stored = await trx
@@ -179,6 +195,19 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string): Promise
       // A card dragged on and straight back should not send two e-mails a minute apart.
       if (later.some((l) => !parsePayload(l.payload)?.resendOf)) return { skip: REPLACED_BY_LATER_MOVE };
     }
+    const quote =
+      work.kind === "quote_sent"
+        ? await trx
+            .selectFrom("quote")
+            .select(["kind", "version", "status", "subtotal_cents", "taxable_cents", "tax_millipercent", "tax_cents", "total_cents", "deposit_cents"])
+            .where("id", "=", work.payload.quoteId)
+            .where("job_id", "=", row.job_id)
+            .executeTakeFirst()
+        : undefined;
+    if (work.kind === "quote_sent") {
+      if (!quote || quote.status === "draft") return { skip: "The quote this e-mail was for no longer exists." };
+      if (quote.status === "superseded" && !stored) return { skip: QUOTE_REPLACED };
+    }
     if (to.length === 0) return { skip: "Nobody on this job gets e-mail updates: choose a contact with an e-mail address." };
 
     const link =
@@ -208,7 +237,25 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string): Promise
     const rendered =
       work.kind === "link_issued"
         ? renderLinkEmail({ ...common, stage: job.stage })
-        : renderStageEmail({ ...common, from: work.payload.from, to: work.payload.to, readyBy: job.due_on });
+        : work.kind === "quote_sent" && quote
+          ? renderQuoteEmail({
+              ...common,
+              pdfName: quotePdfName(job.work_order, quote.kind, quote.version),
+              quote: {
+                kind: quote.kind,
+                version: quote.version,
+                subtotalCents: quote.subtotal_cents,
+                taxableCents: quote.taxable_cents,
+                taxRatePercent: fromThousandths(quote.tax_millipercent),
+                taxCents: quote.tax_cents,
+                totalCents: quote.total_cents,
+                depositCents: quote.deposit_cents,
+              },
+            })
+          : work.kind === "stage_changed"
+            ? renderStageEmail({ ...common, from: work.payload.from, to: work.payload.to, readyBy: job.due_on })
+            : null;
+    if (!rendered) return { skip: "Cannot render this message." };
     const message: StoredMessage = {
       from_address: fromAddress(shop.name, env.EMAIL_FROM),
       to_addresses: JSON.stringify(to),
@@ -221,6 +268,9 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string): Promise
     };
     if (stored) await trx.updateTable("email_message").set({ ...message, provider_id: null }).where("outbox_id", "=", row.id).execute();
     else await trx.insertInto("email_message").values({ outbox_id: row.id, job_id: row.job_id, ...message, provider_id: null, created_at: at }).execute();
+    if (attachment && !stored) {
+      await trx.insertInto("email_attachment").values({ outbox_id: row.id, position: 0, filename: attachment.filename, content_type: attachment.contentType, content: attachment.content }).onConflict((oc) => oc.doNothing()).execute();
+    }
     return { message, token: link.token };
   });
 }
@@ -256,7 +306,14 @@ async function deliver(db: DB, row: ClaimedRow, now: Date, sender: EmailSender):
     return "failed";
   }
   const at = now.toISOString();
-  const prepared = await prepare(db, row, work, at);
+  // The PDF is drawn before the transaction (never slow work inside one), once: a retry sends the stored bytes.
+  let attachment: NewAttachment | null = null;
+  if (work.kind === "quote_sent") {
+    const already = await db.selectFrom("email_attachment").select("position").where("outbox_id", "=", row.id).executeTakeFirst();
+    const found = already ? null : await quoteDocument(db, work.payload.quoteId);
+    if (found) attachment = { filename: quotePdfName(found.workOrder, found.meta.kind, found.meta.version), contentType: "application/pdf", content: await renderMoneyPdf(found.doc) };
+  }
+  const prepared = await prepare(db, row, work, at, attachment);
   if ("skip" in prepared) {
     await db.updateTable("outbox").set({ status: "skipped", last_error: prepared.skip }).where("id", "=", row.id).execute();
     return "skipped";
@@ -264,8 +321,17 @@ async function deliver(db: DB, row: ClaimedRow, now: Date, sender: EmailSender):
   const { message, token } = prepared;
   const body = withStatusLink(message, statusUrl(token));
   // Nothing is held open while the service is called: the row is leased, not locked.
+  const attachments = await db.selectFrom("email_attachment").select(["filename", "content_type", "content"]).where("outbox_id", "=", row.id).orderBy("position").execute();
   const result = await sender.send(
-    { from: message.from_address, to: JSON.parse(message.to_addresses) as string[], subject: message.subject, html: body.html, text: body.text, ...(message.reply_to ? { replyTo: message.reply_to } : {}) },
+    {
+      from: message.from_address,
+      to: JSON.parse(message.to_addresses) as string[],
+      subject: message.subject,
+      html: body.html,
+      text: body.text,
+      ...(message.reply_to ? { replyTo: message.reply_to } : {}),
+      ...(attachments.length ? { attachments: attachments.map((a) => ({ filename: a.filename, contentType: a.content_type, content: Buffer.from(a.content) })) } : {}),
+    },
     idempotencyKeyFor(row.id, message.revision),
   );
   return settle(db, row, result, now);

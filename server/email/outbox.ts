@@ -105,3 +105,24 @@ export async function queueLinkMessage(trx: Trx, input: { jobId: number; linkId:
     .execute();
   return id;
 }
+
+/** The e-mail carrying a quote or change order the office just sent; it goes at once, no quiet period. */
+export async function queueQuoteMessage(trx: Trx, input: { jobId: number; quoteId: number; requestedBy: string; at: string }): Promise<string> {
+  const id = randomUUID();
+  await trx
+    .insertInto("outbox")
+    .values({
+      id,
+      job_id: input.jobId,
+      kind: "quote_sent",
+      payload: JSON.stringify({ quoteId: input.quoteId, requestedBy: input.requestedBy }),
+      status: "pending",
+      attempts: 0,
+      next_attempt_at: input.at,
+      last_error: null,
+      created_at: input.at,
+      sent_at: null,
+    })
+    .execute();
+  return id;
+}

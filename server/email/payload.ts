@@ -15,6 +15,22 @@ export interface LinkIssuedPayload {
   requestedBy: string;
 }
 
+/** A quote or change order the office sent: the e-mail names it and carries its PDF. */
+export interface QuoteSentPayload {
+  quoteId: number;
+  requestedBy: string;
+}
+
+export function parseQuotePayload(raw: string): QuoteSentPayload | null {
+  try {
+    const p = JSON.parse(raw) as Partial<QuoteSentPayload>;
+    if (typeof p.quoteId !== "number" || !Number.isInteger(p.quoteId) || typeof p.requestedBy !== "string") return null;
+    return { quoteId: p.quoteId, requestedBy: p.requestedBy };
+  } catch {
+    return null;
+  }
+}
+
 export function parsePayload(raw: string): StageChangedPayload | null {
   try {
     const p = JSON.parse(raw) as Partial<StageChangedPayload>;

@@ -1,5 +1,7 @@
 import { format, parseISO } from "date-fns";
 import type { Stage } from "@/db/schema";
+import { type FigureRow, figureRows } from "@/server/money/document";
+import { formatCents } from "@/server/money/totals";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened, whereItIsNow } from "@/server/status/words";
 
 /**
@@ -102,7 +104,22 @@ export function greeting(names: string[]): string {
   return `Hello ${clean.slice(0, -1).join(", ")} and ${clean.at(-1)},`;
 }
 
-function frame(input: CommonEmailInput, parts: { subject: string; heading: string; lines: string[]; strong: string | null; linkIntro: string; button: string }): RenderedEmail {
+interface FrameParts {
+  subject: string;
+  heading: string;
+  lines: string[];
+  strong: string | null;
+  linkIntro: string;
+  button: string;
+  /** Figures shown as a small table under the lines (a quote's totals). */
+  figures?: FigureRow[];
+  /** Added to the status link (a "#quote" fragment opens the page at the quote). */
+  linkSuffix?: string;
+}
+
+function frame(input: CommonEmailInput, parts: FrameParts): RenderedEmail {
+  const link = LINK_MARK + (parts.linkSuffix ?? "");
+  const figures = parts.figures ?? [];
   const shopName = plain(input.shop.name);
   const reach = reachWords(shopName, plain(input.shop.phone), Boolean(input.replyTo));
   const line = jobLine(input.job);
@@ -114,9 +131,10 @@ function frame(input: CommonEmailInput, parts: { subject: string; heading: strin
     "",
     ...parts.lines,
     ...(parts.strong ? [parts.strong] : []),
+    ...(figures.length ? ["", ...figures.map((f) => `${f.label}: ${f.value}`)] : []),
     "",
     parts.linkIntro,
-    LINK_MARK,
+    link,
     "",
     reach,
     "This link is for you and your team; anyone with it can see this truck's progress.",
@@ -135,8 +153,9 @@ function frame(input: CommonEmailInput, parts: { subject: string; heading: strin
 <p style="margin:0 0 12px">${hello}</p>
 ${safe(parts.lines.map((l) => html`<p style="margin:0 0 12px">${l}</p>`.value).join("\n"))}
 ${parts.strong ? html`<p style="margin:0 0 20px"><strong>${parts.strong}</strong></p>` : safe("")}
-<p style="margin:0 0 24px"><a href="${safe(LINK_MARK)}" style="display:inline-block;max-width:100%;box-sizing:border-box;background:${BAY};color:#ffffff;text-decoration:none;font-weight:bold;padding:12px 20px;border-radius:6px">${parts.button}</a></p>
-<p style="margin:0 0 8px;font-size:14px;color:${INK_SOFT};word-break:break-all;overflow-wrap:anywhere">Or open this address: ${safe(LINK_MARK)}</p>
+${figures.length ? html`<table role="presentation" style="width:100%;max-width:360px;border-collapse:collapse;margin:0 0 20px">${safe(figures.map((f) => html`<tr><td style="padding:2px 8px 2px 0;${safe(f.strong ? "font-weight:bold;" : "")}">${f.label}</td><td style="padding:2px 0;text-align:right;white-space:nowrap;${safe(f.strong ? "font-weight:bold;" : "")}">${f.value}</td></tr>`.value).join(""))}</table>` : safe("")}
+<p style="margin:0 0 24px"><a href="${safe(link)}" style="display:inline-block;max-width:100%;box-sizing:border-box;background:${BAY};color:#ffffff;text-decoration:none;font-weight:bold;padding:12px 20px;border-radius:6px">${parts.button}</a></p>
+<p style="margin:0 0 8px;font-size:14px;color:${INK_SOFT};word-break:break-all;overflow-wrap:anywhere">Or open this address: ${safe(link)}</p>
 <hr style="border:none;border-top:1px solid ${LINE};margin:20px 0">
 <p style="margin:0 0 8px;font-size:14px;color:${INK_SOFT}">${reach}</p>
 <p style="margin:0;font-size:14px;color:${INK_SOFT}">This link is for you and your team; anyone with it can see this truck's progress.</p>
@@ -177,4 +196,41 @@ export function renderLinkEmail(input: LinkEmailInput): RenderedEmail {
 /** The stored message with the status link put in; the URL is escaped for the HTML part. */
 export function withStatusLink(message: { html: string; text: string }, url: string) {
   return { html: message.html.replaceAll(LINK_MARK, escapeHtml(url)), text: message.text.replaceAll(LINK_MARK, url) };
+}
+
+export interface QuoteEmailInput extends CommonEmailInput {
+  quote: {
+    kind: "quote" | "change_order";
+    version: number;
+    subtotalCents: number;
+    taxableCents: number;
+    taxRatePercent: number;
+    taxCents: number;
+    totalCents: number;
+    depositCents: number;
+  };
+  /** The attached PDF's file name, named in the e-mail so the customer knows to look for it. */
+  pdfName: string;
+}
+
+/** The e-mail a sent quote or change order goes out as: the figures, the PDF, and the link to answer it. */
+export function renderQuoteEmail(input: QuoteEmailInput): RenderedEmail {
+  const q = input.quote;
+  const what = q.kind === "quote" ? "quote" : "change order";
+  const What = q.kind === "quote" ? "Quote" : "Change order";
+  const deposit = q.kind === "quote" && q.depositCents > 0;
+  return frame(input, {
+    subject: `${What} ${formatCents(q.totalCents)} · ${jobLine(input.job)}`,
+    heading: `${What} version ${q.version}`,
+    lines: [
+      q.kind === "quote" ? "Here is our price for the work on your truck." : "Here is the price of work added to your job since you approved the quote.",
+      `The ${what} is attached as a PDF (${input.pdfName}). You can approve or decline it on your truck's status page: type your name and tick the terms to approve, or tell us why not.`,
+      ...(deposit ? ["When you approve, we ask the deposit shown below before we order parts and start work."] : []),
+    ],
+    strong: null,
+    figures: figureRows({ ...q, depositCents: q.kind === "quote" ? q.depositCents : undefined }),
+    linkIntro: `See the ${what} and answer it here:`,
+    button: `See the ${what} and answer it`,
+    linkSuffix: "#quote",
+  });
 }

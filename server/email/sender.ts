@@ -9,6 +9,8 @@ export interface OutgoingEmail {
   html: string;
   text: string;
   replyTo?: string;
+  /** Files the message carries (a quote's PDF); the SDK sends the bytes base64-encoded. */
+  attachments?: { filename: string; contentType: string; content: Buffer }[];
 }
 
 export type SendResult =
@@ -47,7 +49,15 @@ export function resendSender(apiKey: string, baseUrl?: string, options: { timeou
       let result: Awaited<ReturnType<typeof client.emails.send>>;
       try {
         result = await client.emails.send(
-          { from: message.from, to: message.to, subject: message.subject, html: message.html, text: message.text, ...(message.replyTo ? { replyTo: message.replyTo } : {}) },
+          {
+            from: message.from,
+            to: message.to,
+            subject: message.subject,
+            html: message.html,
+            text: message.text,
+            ...(message.replyTo ? { replyTo: message.replyTo } : {}),
+            ...(message.attachments?.length ? { attachments: message.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, content: a.content })) } : {}),
+          },
           { idempotencyKey, signal },
         );
       } catch (err) {

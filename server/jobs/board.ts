@@ -9,6 +9,8 @@ import { shopSettings } from "@/server/shop/queries";
 import { loadGateRecords } from "./gate-records";
 import { nextGateState } from "./gates";
 import { moneyWords } from "@/server/money/state";
+import { likelyMissesDue } from "./prediction";
+import { predictionContext, predictionOf } from "./prediction-queries";
 import type { BoardFilter } from "./schemas";
 import { BOARD_STAGES, STAGE_LABELS } from "./stages";
 
@@ -34,6 +36,8 @@ export interface BoardCard {
   waitingParts: string[];
   /** The money state in words ("Quote sent", "Deposit paid", "Balance due $1,234.00"), or null before any quote. */
   money: string | null;
+  /** The likely ready date when it falls after the due date ("likely late"), from the shop's stage-time history; null otherwise. */
+  likelyLate: { likelyOn: string; lateOn: string } | null;
 }
 
 export interface Board {
@@ -85,7 +89,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
   }
   const rows = await query.orderBy("job.stage").orderBy("job.position").execute();
   const ids = rows.map((r) => r.id);
-  const [records, coating] = await Promise.all([loadGateRecords(db, ids), coatingFlags(db, ids, now)]);
+  const [records, coating, history] = await Promise.all([loadGateRecords(db, ids), coatingFlags(db, ids, now), predictionContext(db, now)]);
   const [techs, customers] = await Promise.all([
     db.selectFrom("staff").select(["id", "name"]).where("active", "=", 1).where("role", "=", "tech").orderBy("name").execute(),
     // Only customers with a job on the board: the filter offers what it can show.
@@ -94,6 +98,15 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
   const cards: BoardCard[] = rows.map((r) => {
     const jobRecords = records.get(r.id)!;
     const gate = nextGateState(r.stage, r.scope, jobRecords);
+    const coatingFlag = coating.get(r.id) ?? null;
+    // Only a card with a due date can be late; the route needs only whether parts exist and which lists they are on.
+    const prediction = r.due_on === null ? null : predictionOf(history, {
+      id: r.id,
+      stage: r.stage,
+      scope: r.scope,
+      parts: jobRecords.partCount > 0 ? [{ needsLeakTest: jobRecords.leakTestParts.length > 0, needsCoating: jobRecords.coatedParts.length > 0 }] : [],
+      coatingPromisedOn: coatingFlag?.promisedOn ?? null,
+    });
     return {
       id: r.id,
       workOrder: r.work_order,
@@ -108,9 +121,10 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       overdue: r.due_on !== null && r.due_on < today,
       techName: r.tech_name ? r.tech_name.split(" ")[0] : null,
       gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
-      coating: coating.get(r.id) ?? null,
+      coating: coatingFlag,
       waitingParts: (jobRecords.waitingBoughtParts ?? []).map((p) => p.description),
       money: jobRecords.money ? moneyWords(jobRecords.money) : null,
+      likelyLate: prediction?.kind === "estimate" && likelyMissesDue(prediction, r.due_on) ? { likelyOn: prediction.likelyOn, lateOn: prediction.lateOn } : null,
     };
   });
   const unfiltered = !filter.q && !filter.tech && !filter.customer && !filter.due;

@@ -4,6 +4,8 @@ import type { DB } from "@/db";
 import type { QuoteKind, QuoteStatus } from "@/db/tables/money";
 import { recordAudit } from "@/server/audit/record";
 import { ApiError } from "@/server/http/errors";
+import { type QuotePdf, quotePdf } from "./quote-pdf";
+import { quoteLinesOf } from "./quote-lines";
 import { formatCents, fromThousandths } from "./totals";
 
 /** What the truck owner sees of a quote on the status link: the priced lines and terms, nothing of the shop's own notes. */
@@ -36,25 +38,16 @@ export async function customerQuotes(db: DB, jobId: number): Promise<CustomerQuo
     .orderBy("version", "desc")
     .execute();
   if (!rows.length) return [];
-  const lines = await db
-    .selectFrom("quote_line")
-    .select(["quote_id", "description", "quantity_milli", "unit_price_cents", "amount_cents", "taxable"])
-    .where(
-      "quote_id",
-      "in",
-      rows.map((r) => r.id),
-    )
-    .orderBy("quote_id")
-    .orderBy("position")
-    .execute();
+  const lines = await quoteLinesOf(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => ({
     id: r.id,
     version: r.version,
     kind: r.kind,
     status: r.status as CustomerQuote["status"],
-    lines: lines
-      .filter((l) => l.quote_id === r.id)
-      .map((l) => ({ description: l.description, quantity: fromThousandths(l.quantity_milli), unitPriceCents: l.unit_price_cents, amountCents: l.amount_cents, taxable: l.taxable === 1 })),
+    lines: (lines.get(r.id) ?? []).map((l) => ({ description: l.description, quantity: l.quantity, unitPriceCents: l.unitPriceCents, amountCents: l.amountCents, taxable: l.taxable })),
     subtotalCents: r.subtotal_cents,
     taxableCents: r.taxable_cents,
     taxRatePercent: fromThousandths(r.tax_millipercent),
@@ -137,4 +130,14 @@ export async function answerQuote(db: DB, jobId: number, answer: QuoteAnswer, ad
       });
     }
   });
+}
+
+/**
+ * The customer's PDF of a quote or change order on their job: only versions the shop sent (sent,
+ * approved, declined); a draft, a replaced version or another job's quote is "not found".
+ */
+export async function customerQuotePdf(db: DB, jobId: number, quoteId: number): Promise<QuotePdf> {
+  const row = await db.selectFrom("quote").select(["id"]).where("id", "=", quoteId).where("job_id", "=", jobId).where("status", "in", ["sent", "approved", "declined"]).executeTakeFirst();
+  if (!row) throw new ApiError("not_found", "That quote is not on this status link. Reload the page.");
+  return quotePdf(db, row.id);
 }

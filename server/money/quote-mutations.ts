@@ -2,11 +2,12 @@ import "server-only";
 import type { DB } from "@/db";
 import type { QuoteKind } from "@/db/tables/money";
 import { recordAudit, type AuditActor } from "@/server/audit/record";
+import { queueQuoteMessage } from "@/server/email/outbox";
 import { ApiError } from "@/server/http/errors";
 import { type Quote, getQuote } from "./quotes";
 import type { QuoteCreate, QuoteLineInput, QuoteUpdate } from "./schemas";
 import { depositRule, moneySettings } from "./settings";
-import { MAX_CENTS, depositCents, documentTotals, formatCents, lineAmountCents, toThousandths } from "./totals";
+import { MAX_CENTS, type PricedLine, depositCents, documentTotals, formatCents, lineAmountCents, toThousandths } from "./totals";
 
 type Trx = DB;
 
@@ -18,7 +19,7 @@ function pricedLines(lines: readonly QuoteLineInput[]) {
 }
 
 /** Totals with the shop's rate and deposit as they are now; a document over $10M is a typing slip. */
-async function totalsFor(trx: Trx, kind: QuoteKind, lines: ReturnType<typeof pricedLines>) {
+async function totalsFor(trx: Trx, kind: QuoteKind, lines: readonly PricedLine[]) {
   const settings = await moneySettings(trx);
   const totals = documentTotals(lines, settings.taxMillipercent);
   if (totals.totalCents > MAX_CENTS) {
@@ -29,6 +30,18 @@ async function totalsFor(trx: Trx, kind: QuoteKind, lines: ReturnType<typeof pri
   // A change order adds to a job whose deposit was already asked; it asks none of its own.
   const deposit = kind === "quote" ? depositCents(totals.totalCents, depositRule(settings)) : 0;
   return { ...totals, taxMillipercent: settings.taxMillipercent, depositCents: deposit, terms: settings.quoteTerms };
+}
+
+function totalsColumns(totals: Awaited<ReturnType<typeof totalsFor>>) {
+  return {
+    tax_millipercent: totals.taxMillipercent,
+    subtotal_cents: totals.subtotalCents,
+    taxable_cents: totals.taxableCents,
+    tax_cents: totals.taxCents,
+    total_cents: totals.totalCents,
+    deposit_cents: totals.depositCents,
+    terms: totals.terms,
+  };
 }
 
 async function writeLines(trx: Trx, quoteId: number, lines: ReturnType<typeof pricedLines>) {
@@ -52,8 +65,33 @@ async function writeLines(trx: Trx, quoteId: number, lines: ReturnType<typeof pr
 }
 
 /**
+ * The draft a change is about, or the refusal that says why it cannot be changed: a sent version is
+ * never changed, only replaced by a new one.
+ */
+async function openDraft(trx: Trx, quoteId: number, doing: "change" | "send") {
+  const quote = await trx
+    .selectFrom("quote")
+    .innerJoin("job", "job.id", "quote.job_id")
+    .select(["quote.id", "quote.job_id", "quote.kind", "quote.status", "quote.version", "quote.updated_at", "quote.supersedes_id", "job.work_order"])
+    .where("quote.id", "=", quoteId)
+    .executeTakeFirst();
+  if (!quote) throw new ApiError("not_found", "That quote was not found. Reload the job page.");
+  if (quote.status !== "draft") {
+    throw new ApiError(
+      "conflict",
+      doing === "send"
+        ? `Version ${quote.version} was already sent. Start a new version to change it.`
+        : `Version ${quote.version} was sent to the customer and is never changed. Start a new version from it instead.`,
+    );
+  }
+  return quote;
+}
+
+/**
  * A new draft version on the job. A quote is written until one is approved; after that, added work
  * is a change order. One draft of each kind at a time, so two people cannot price the same thing twice.
+ * A change order may say which earlier change order it replaces (`replacesId`); a new quote version
+ * always replaces the quote still waiting.
  */
 export async function createQuote(db: DB, actor: AuditActor, jobId: number, input: QuoteCreate): Promise<Quote> {
   const kind = input.kind ?? "quote";
@@ -73,6 +111,16 @@ export async function createQuote(db: DB, actor: AuditActor, jobId: number, inpu
     if (draft) {
       throw new ApiError("conflict", `Draft version ${draft.version} is still open on this job. Change that draft or send it.`, { quoteId: draft.id });
     }
+    let replaces: number | null = null;
+    if (input.replacesId !== undefined && input.replacesId !== null) {
+      const old = existing.find((q) => q.id === input.replacesId);
+      if (!old || old.kind !== kind || !["sent", "declined"].includes(old.status)) {
+        throw new ApiError("validation", "replacesId must be a sent or declined version of the same kind on this job.", {
+          fields: { replacesId: ["Choose a sent or declined version of the same kind on this job."] },
+        });
+      }
+      replaces = old.id;
+    }
     const totals = await totalsFor(trx, kind, lines);
     const now = new Date().toISOString();
     const version = existing.reduce((max, q) => Math.max(max, q.version), 0) + 1;
@@ -83,14 +131,8 @@ export async function createQuote(db: DB, actor: AuditActor, jobId: number, inpu
         version,
         kind,
         status: "draft",
-        supersedes_id: null,
-        tax_millipercent: totals.taxMillipercent,
-        subtotal_cents: totals.subtotalCents,
-        taxable_cents: totals.taxableCents,
-        tax_cents: totals.taxCents,
-        total_cents: totals.totalCents,
-        deposit_cents: totals.depositCents,
-        terms: totals.terms,
+        supersedes_id: replaces,
+        ...totalsColumns(totals),
         note: input.note ?? "",
         created_by: actor.id,
         created_at: now,
@@ -108,28 +150,14 @@ export async function createQuote(db: DB, actor: AuditActor, jobId: number, inpu
 export async function updateQuoteDraft(db: DB, quoteId: number, input: QuoteUpdate): Promise<Quote> {
   const lines = pricedLines(input.lines);
   await db.transaction().execute(async (trx) => {
-    const quote = await trx.selectFrom("quote").select(["id", "kind", "status", "version", "updated_at"]).where("id", "=", quoteId).executeTakeFirst();
-    if (!quote) throw new ApiError("not_found", "That quote was not found. Reload the job page.");
-    if (quote.status !== "draft") {
-      throw new ApiError("conflict", `Version ${quote.version} was sent to the customer and is never changed. Start a new version from it instead.`);
-    }
+    const quote = await openDraft(trx, quoteId, "change");
     if (input.updatedAt !== undefined && input.updatedAt !== quote.updated_at) {
       throw new ApiError("stale", `Someone saved draft version ${quote.version} after you opened it. Reload it and make your change again.`);
     }
     const totals = await totalsFor(trx, quote.kind, lines);
     await trx
       .updateTable("quote")
-      .set({
-        tax_millipercent: totals.taxMillipercent,
-        subtotal_cents: totals.subtotalCents,
-        taxable_cents: totals.taxableCents,
-        tax_cents: totals.taxCents,
-        total_cents: totals.totalCents,
-        deposit_cents: totals.depositCents,
-        terms: totals.terms,
-        ...(input.note !== undefined ? { note: input.note } : {}),
-        updated_at: new Date().toISOString(),
-      })
+      .set({ ...totalsColumns(totals), ...(input.note !== undefined ? { note: input.note } : {}), updated_at: new Date().toISOString() })
       .where("id", "=", quoteId)
       .execute();
     await writeLines(trx, quoteId, lines);
@@ -139,60 +167,42 @@ export async function updateQuoteDraft(db: DB, quoteId: number, input: QuoteUpda
 
 /**
  * Sends a draft: its figures are worked out once more with the shop's rate, deposit and terms as
- * they are now and never change again. An earlier version of the same kind still waiting for the
- * customer is replaced by it (the customer can no longer approve the old one).
+ * they are now and never change again, and its e-mail (with the PDF) is put in the outbox to go at
+ * once. A new quote version replaces the quote still waiting for the customer; a change order
+ * replaces only the change order it was started from, since two change orders are usually two
+ * different pieces of added work.
  */
-export async function sendQuote(db: DB, actor: AuditActor, quoteId: number): Promise<Quote> {
-  await db.transaction().execute(async (trx) => {
-    const quote = await trx
-      .selectFrom("quote")
-      .innerJoin("job", "job.id", "quote.job_id")
-      .select(["quote.id", "quote.job_id", "quote.kind", "quote.status", "quote.version", "job.work_order"])
-      .where("quote.id", "=", quoteId)
-      .executeTakeFirst();
-    if (!quote) throw new ApiError("not_found", "That quote was not found. Reload the job page.");
-    if (quote.status !== "draft") throw new ApiError("conflict", `Version ${quote.version} was already sent. Start a new version to change it.`);
+export async function sendQuote(db: DB, actor: AuditActor, quoteId: number): Promise<{ quote: Quote; outboxId: string }> {
+  const outboxId = await db.transaction().execute(async (trx) => {
+    const quote = await openDraft(trx, quoteId, "send");
     const rows = await trx.selectFrom("quote_line").select(["kind", "quantity_milli", "unit_price_cents", "taxable"]).where("quote_id", "=", quoteId).execute();
-    if (!rows.length) throw new ApiError("validation", "A quote needs at least one line before it is sent.");
+    if (!rows.length) throw new ApiError("validation", "A quote needs at least one line before it is sent.", { fields: { lines: ["Add at least one line."] } });
     const totals = await totalsFor(
       trx,
       quote.kind,
-      rows.map((r) => ({ kind: r.kind, quantityMilli: r.quantity_milli, unitPriceCents: r.unit_price_cents, taxable: r.taxable === 1, amountCents: 0, description: "", quantity: 0 })),
+      rows.map((r) => ({ kind: r.kind, quantityMilli: r.quantity_milli, unitPriceCents: r.unit_price_cents, taxable: r.taxable === 1 })),
     );
-    const earlier = await trx
-      .selectFrom("quote")
-      .select(["id", "status"])
-      .where("job_id", "=", quote.job_id)
-      .where("kind", "=", quote.kind)
-      .where("status", "in", ["sent", "declined", "superseded"])
-      .where("version", "<", quote.version)
-      .orderBy("version", "desc")
-      .limit(1)
-      .executeTakeFirst();
-    await trx
-      .updateTable("quote")
-      .set({ status: "superseded", updated_at: new Date().toISOString() })
-      .where("job_id", "=", quote.job_id)
-      .where("kind", "=", quote.kind)
-      .where("status", "=", "sent")
-      .execute();
     const now = new Date().toISOString();
+    let supersedes = quote.supersedes_id;
+    if (quote.kind === "quote") {
+      const earlier = await trx
+        .selectFrom("quote")
+        .select("id")
+        .where("job_id", "=", quote.job_id)
+        .where("kind", "=", "quote")
+        .where("status", "in", ["sent", "declined", "superseded"])
+        .where("version", "<", quote.version)
+        .orderBy("version", "desc")
+        .limit(1)
+        .executeTakeFirst();
+      supersedes = earlier?.id ?? null;
+      await trx.updateTable("quote").set({ status: "superseded", updated_at: now }).where("job_id", "=", quote.job_id).where("kind", "=", "quote").where("status", "=", "sent").execute();
+    } else if (supersedes !== null) {
+      await trx.updateTable("quote").set({ status: "superseded", updated_at: now }).where("id", "=", supersedes).where("status", "=", "sent").execute();
+    }
     await trx
       .updateTable("quote")
-      .set({
-        status: "sent",
-        supersedes_id: earlier?.id ?? null,
-        tax_millipercent: totals.taxMillipercent,
-        subtotal_cents: totals.subtotalCents,
-        taxable_cents: totals.taxableCents,
-        tax_cents: totals.taxCents,
-        total_cents: totals.totalCents,
-        deposit_cents: totals.depositCents,
-        terms: totals.terms,
-        sent_at: now,
-        sent_by: actor.id,
-        updated_at: now,
-      })
+      .set({ status: "sent", supersedes_id: supersedes, ...totalsColumns(totals), sent_at: now, sent_by: actor.id, updated_at: now })
       .where("id", "=", quoteId)
       .execute();
     const what = quote.kind === "quote" ? "quote" : "change order";
@@ -203,6 +213,7 @@ export async function sendQuote(db: DB, actor: AuditActor, quoteId: number): Pro
       summary: `${actor.name} sent ${what} version ${quote.version} for ${formatCents(totals.totalCents)} to the customer.`,
       details: { quoteId, version: quote.version, totalCents: totals.totalCents, depositCents: totals.depositCents, taxCents: totals.taxCents },
     });
+    return queueQuoteMessage(trx, { jobId: quote.job_id, quoteId, requestedBy: actor.name, at: now });
   });
-  return getQuote(db, quoteId);
+  return { quote: await getQuote(db, quoteId), outboxId };
 }

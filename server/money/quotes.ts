@@ -2,18 +2,10 @@ import "server-only";
 import type { DB } from "@/db";
 import type { LineKind, QuoteKind, QuoteStatus } from "@/db/tables/money";
 import { ApiError } from "@/server/http/errors";
+import { type QuoteLine, quoteLinesOf } from "./quote-lines";
 import { fromThousandths } from "./totals";
 
-export interface QuoteLine {
-  id: number;
-  kind: LineKind;
-  description: string;
-  quantity: number;
-  unitPriceCents: number;
-  taxable: boolean;
-  amountCents: number;
-  priceItemId: number | null;
-}
+export type { QuoteLine } from "./quote-lines";
 
 /** A quote or change order as staff screens and the API show it. */
 export interface Quote {
@@ -71,32 +63,10 @@ const QUOTE_COLUMNS = [
 
 async function withLines(db: DB, rows: Awaited<ReturnType<typeof quoteRows>>): Promise<Quote[]> {
   if (!rows.length) return [];
-  const lines = await db
-    .selectFrom("quote_line")
-    .select(["id", "quote_id", "kind", "description", "quantity_milli", "unit_price_cents", "taxable", "amount_cents", "price_item_id"])
-    .where(
-      "quote_id",
-      "in",
-      rows.map((r) => r.id),
-    )
-    .orderBy("quote_id")
-    .orderBy("position")
-    .execute();
-  const byQuote = new Map<number, QuoteLine[]>();
-  for (const l of lines) {
-    const list = byQuote.get(l.quote_id) ?? [];
-    list.push({
-      id: l.id,
-      kind: l.kind,
-      description: l.description,
-      quantity: fromThousandths(l.quantity_milli),
-      unitPriceCents: l.unit_price_cents,
-      taxable: l.taxable === 1,
-      amountCents: l.amount_cents,
-      priceItemId: l.price_item_id,
-    });
-    byQuote.set(l.quote_id, list);
-  }
+  const byQuote = await quoteLinesOf(
+    db,
+    rows.map((r) => r.id),
+  );
   return rows.map((r) => ({
     id: r.id,
     jobId: r.job_id,

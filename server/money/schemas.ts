@@ -47,6 +47,8 @@ export const quoteCreateSchema = z.strictObject(
   {
     lines: quoteLinesSchema,
     kind: z.enum(["quote", "change_order"], { error: "Kind must be quote or change_order." }).optional(),
+    // The earlier sent or declined version this one replaces (change orders; a quote always replaces the waiting one).
+    replacesId: z.number({ error: "replacesId must be the id of the version this one replaces." }).int().positive().max(2 ** 31).nullable().optional(),
     note: z.string({ error: "Note must be text." }).trim().max(2000, { error: "The note is at most 2000 characters." }).optional(),
   },
   { error: "Send { lines: [...] } with the quote's lines." },

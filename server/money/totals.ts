@@ -95,6 +95,14 @@ export function jobPriceCents(approvedDocuments: readonly { totalCents: number }
   return approvedDocuments.reduce((sum, d) => sum + d.totalCents, 0);
 }
 
+/**
+ * The job's price from all its quotes and change orders whatever their state: only approved ones
+ * count. A declined, waiting, replaced or draft change order adds nothing.
+ */
+export function agreedPriceCents(documents: readonly { status: string; totalCents: number }[]): number {
+  return jobPriceCents(documents.filter((d) => d.status === "approved"));
+}
+
 export interface MoneyMovement {
   /** Received is positive; a refund given back is negative. */
   amountCents: number;

@@ -3,6 +3,7 @@ import { sql } from "kysely";
 import type { DB } from "@/db";
 import type { JobScope, Stage } from "@/db/schema";
 import { notifySettings } from "@/server/email/settings";
+import { predictJob } from "@/server/jobs/prediction-queries";
 import { stageIndex } from "@/server/jobs/stages";
 import { jobRoute } from "./route";
 import { DEFAULT_STATUS_LINK_DAYS } from "@/server/email/schemas";
@@ -68,6 +69,8 @@ export interface StatusView {
   route: Stage[];
   scope: JobScope;
   readyBy: string | null;
+  /** "Likely ready around …" from the shop's stage times, only when the shop shows it and there is enough history. */
+  likelyReadyOn?: string | null;
   /** How long the link keeps working after pickup (the shop's setting). */
   linkDays: number;
   timeline: { toStage: Stage; back: boolean; at: string }[];
@@ -146,7 +149,7 @@ export async function readStatusPage(db: DB, rawToken: string, now = new Date())
     stage: Stage | null; scope: JobScope | null; readyBy: string | null; workOrder: string | null; workDescription: string | null;
     unitNumber: string | null; year: number | null; description: string | null; vinTail: string | null;
     deliveredAt: string | null; events: string | null; photos: string | null; parts: string | null;
-    shopName: string | null; shopPhone: string | null; shopTimeZone: string | null; linkDays: number | null;
+    shopName: string | null; shopPhone: string | null; shopTimeZone: string | null; linkDays: number | null; showPredicted: number | null;
   }>`select l.id as "linkId", l.job_id as "jobId", l.revoked_at as "revokedAt", l.last_opened_at as "lastOpenedAt",
       j.stage, j.scope, j.due_on as "readyBy", j.work_order as "workOrder", j.description as "workDescription", t.unit_number as "unitNumber", t.year, t.description, substr(t.vin, -6) as "vinTail",
       case when j.stage = 'delivered' then (select e.at from stage_event e where e.job_id = j.id and e.to_stage = 'delivered' order by e.id desc limit 1) end as "deliveredAt",
@@ -154,7 +157,7 @@ export async function readStatusPage(db: DB, rawToken: string, now = new Date())
       case when j.id is not null then (select json_group_array(json_object('id', p.id, 'caption', p.caption, 'stage', p.stage, 'width', p.width, 'height', p.height) order by p.id)
         from photo p where p.job_id = j.id and p.customer_visible = 1) end as photos,
       case when j.id is not null then (select json_group_array(json_array(pt.needs_leak_test, pt.needs_coating)) from part pt where pt.job_id = j.id) end as parts,
-      s.name as "shopName", s.phone as "shopPhone", s.time_zone as "shopTimeZone", m.status_link_days as "linkDays"
+      s.name as "shopName", s.phone as "shopPhone", s.time_zone as "shopTimeZone", s.show_predicted_date as "showPredicted", m.status_link_days as "linkDays"
     from (select 1) as one
     left join status_link l on l.token_hash = ${tokenHash}
     left join job j on j.id = l.job_id
@@ -169,6 +172,8 @@ export async function readStatusPage(db: DB, rawToken: string, now = new Date())
   if (state !== "active") return { link: { state, linkId: row.linkId }, view: null, shop };
   const events = (JSON.parse(row.events ?? "[]") as [Stage | null, Stage, string][]).map(([from_stage, to_stage, at]) => ({ from_stage, to_stage, at }));
   const parts = (JSON.parse(row.parts ?? "[]") as [number, number][]).map(([leak, coat]) => ({ needsLeakTest: leak === 1, needsCoating: coat === 1 }));
+  // The likely date is the shop's choice to show; without enough history the page says nothing more.
+  const prediction = row.showPredicted === 1 && row.stage !== "ready" && row.stage !== "delivered" ? await predictJob(db, { id: row.jobId, stage: row.stage, scope: row.scope! }, now) : null;
   return {
     link: { state, linkId: row.linkId, jobId: row.jobId, lastOpenedAt: row.lastOpenedAt },
     shop,
@@ -180,6 +185,7 @@ export async function readStatusPage(db: DB, rawToken: string, now = new Date())
       route: jobRoute(row.scope!, parts),
       scope: row.scope!,
       readyBy: row.readyBy,
+      likelyReadyOn: prediction?.kind === "estimate" ? prediction.likelyOn : null,
       linkDays,
       timeline: timelineOf(events),
       photos: JSON.parse(row.photos ?? "[]") as StatusView["photos"],

@@ -134,4 +134,22 @@ describe.skipIf(!enabled)("the office's desk", () => {
     await shot(phone, "search-phone");
     await phone.context().close();
   });
+  it("a job page gives a likely ready date from the shop's history, or says there is not enough history yet", async () => {
+    const page = await signInWhereTheyLand(browser, "office");
+    const { job } = await ownJob(page.request, { dueOn: "2031-06-02", description: "Likely-date check: PTO indicator" });
+    await page.goto(`${baseUrl()}/jobs/${job.id}`);
+    const likely = page.getByTestId("likely-ready");
+    await likely.waitFor();
+    const text = (await likely.textContent()) ?? "";
+    // The demo's history decides which: either a date said to be an estimate, or no date at all.
+    if (text.startsWith("Not enough history yet")) {
+      expect(text).not.toMatch(/Around/);
+    } else {
+      expect(text).toMatch(/^Around \w{3} \d{1,2} \w{3} \d{4} · late case \w{3} \d{1,2} \w{3} \d{4}/);
+      expect(text).toContain("An estimate");
+    }
+    const api = await json(await page.request.get(`${baseUrl()}/api/jobs/${job.id}`));
+    expect(["estimate", "not_enough_history"]).toContain(api.prediction.kind);
+    await page.context().close();
+  });
 });

@@ -52,6 +52,7 @@ export const ACCESS_MATRIX: Row[] = [
   row("PAGE /status/[token]", "404", "ok", "404", "404", "404", "404"),
   row("GET /status/[token]/photos/[photoId]", 404, "ok", 404, 404, 404, 404),
   row("POST /status/[token]/quote", 404, "ok", 404, 404, 404, 404),
+  row("GET /status/[token]/quote/[quoteId]/pdf", 404, "ok", 404, 404, 404, 404),
   row("POST /status/[token]/checkout", 404, "ok", 404, 404, 404, 404),
   // Signing in and first run (first run answers only while no one works here).
   // The overview is the office's and owner's first page; the bench starts at the board.
@@ -208,6 +209,7 @@ export const ACCESS_MATRIX: Row[] = [
   officeUp("GET /api/quotes/[id]"),
   officeUp("PUT /api/quotes/[id]"),
   officeUp("POST /api/quotes/[id]/send"),
+  officeUp("GET /api/quotes/[id]/pdf"),
   // Payments taken at the counter and invoices: office and owner (on account is the owner's, inside);
   // voiding an invoice is the owner's.
   officeUp("POST /api/jobs/[id]/payments"),

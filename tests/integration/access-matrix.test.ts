@@ -41,6 +41,7 @@ interface Fixture {
   ids: Record<string, string>;
   token: string;
   visiblePhotoId: string;
+  customerQuoteId: string;
 }
 let fx: Fixture;
 
@@ -77,6 +78,9 @@ beforeAll(async () => {
   const job = await db().selectFrom("job").select(["customer_id", "truck_id"]).where("id", "=", jobA.id).executeTakeFirstOrThrow();
   const goneSession = await sessionCookieFor(gone.id);
   const money = await makePriceItemAndQuote(db(), jobA.id, office.id);
+  // The customer's copy of a quote is read on the job of the link the customer holds (job B).
+  const sentOnB = await makePriceItemAndQuote(db(), jobB.id, office.id);
+  await db().updateTable("quote").set({ status: "sent", sent_at: new Date().toISOString() }).where("id", "=", sentOnB.quoteId).execute();
   const po = await db().insertInto("purchase_order").values({ number: "PO-26-0001", supplier: "Matrix Supply", ordered_on: "2026-03-02", expected_on: null, created_by: office.id, created_at: new Date().toISOString() }).returning("id").executeTakeFirstOrThrow();
   const bought = await db()
     .insertInto("bought_part")
@@ -100,6 +104,7 @@ beforeAll(async () => {
     },
     token,
     visiblePhotoId: await photoRow(jobB.id, tech.id, true),
+    customerQuoteId: String(sentOnB.quoteId),
   };
   staffIds = { tech: tech.id, office: office.id, owner: owner.id };
 });
@@ -121,6 +126,7 @@ function paramsFor(entry: AppEntry, who: Who): Record<string, string> {
     const name = m[1];
     if (name === "token") out[name] = who === "statusLink" ? fx.token : "not-a-live-link-0000000000000000000000000";
     else if (name === "photoId") out[name] = fx.visiblePhotoId;
+    else if (name === "quoteId") out[name] = fx.customerQuoteId;
     else out[name] = fx.ids[segments[i - 1]] ?? "1";
   });
   return out;

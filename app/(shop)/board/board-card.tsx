@@ -83,6 +83,14 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
             {card.overdue ? <IconWarn /> : <IconClock />} {card.dueOn ? `${card.overdue ? "Overdue · due " : "Due "}${formatDay(card.dueOn)}` : "No due date"}
           </dd>
         </div>
+        {card.likelyLate && (
+          <div className="flex gap-1">
+            <dt className="sr-only">Likely ready</dt>
+            <dd className="font-semibold text-warn-700" data-likely-late title={`From the shop's stage times: late case ${formatDay(card.likelyLate.lateOn)}`}>
+              <IconWarn /> {card.overdue ? "Likely ready around" : "Likely late: ready around"} {formatDay(card.likelyLate.likelyOn)}
+            </dd>
+          </div>
+        )}
         <div className="flex gap-1">
           <dt className="sr-only">Assigned</dt>
           <dd className="text-ink-soft"><IconPerson /> {card.techName ?? "Unassigned"}</dd>

@@ -1,11 +1,5 @@
 import type { KitUse, LineKind } from "@/db/tables/money";
 
-export const KIND_WORDS: Record<LineKind, string> = {
-  labour: "Labour",
-  part: "Bought-in part",
-  fabrication: "Fabricated part",
-  coating: "Outside coating",
-  fee: "Fee",
-};
+export { LINE_KIND_WORDS as KIND_WORDS } from "@/server/money/document";
 
 export const KIT_USE_WORDS: Record<KitUse, string> = { pto: "PTO", pump: "Pump", reservoir: "Reservoir", hose: "Hose" };

@@ -47,6 +47,7 @@ const MARK: Record<Step["state"], { icon: string; word: string; dot: string }> =
 export function StatusView({ view, token, repliesRead, price }: { view: View; token: string; repliesRead: boolean; /** The job's quotes, when the shop has sent one. */ price?: React.ReactNode }) {
   const tz = view.shop.timeZone;
   const readyBy = readyDay(view.readyBy);
+  const likely = readyDay(view.likelyReadyOn ?? null);
   return (
     <main className="mx-auto max-w-xl px-4 pb-10 pt-5">
       <header className="mb-4">
@@ -71,6 +72,14 @@ export function StatusView({ view, token, repliesRead, price }: { view: View; to
       <dl className="mt-3 grid grid-cols-[auto_1fr] gap-x-3 rounded-lg bg-bay-50 px-4 py-3">
         <dt className="font-semibold">{view.stage === "ready" || view.stage === "delivered" ? "Status" : "Expected ready"}</dt>
         <dd>{view.stage === "delivered" ? "Picked up" : view.stage === "ready" ? "Ready now" : (readyBy ?? "The shop will confirm the date")}</dd>
+        {likely && (
+          <>
+            <dt className="mt-1 font-semibold">Likely ready</dt>
+            <dd className="mt-1" data-testid="likely-ready">
+              around {likely} <span className="block text-sm text-ink-soft">An estimate from how long the shop&apos;s recent jobs took at each step; the shop confirms the date.</span>
+            </dd>
+          </>
+        )}
       </dl>
 
       {price}

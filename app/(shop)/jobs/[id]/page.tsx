@@ -11,12 +11,14 @@ import { currentStaff, requirePageStaff } from "@/server/auth/session";
 import { formatShopTime } from "@/server/records/calendar";
 import { shopSettings } from "@/server/shop/queries";
 import { findJob, stageEvents } from "@/server/jobs/queries";
+import { predictJob } from "@/server/jobs/prediction-queries";
 import { SCOPE_LABELS, STAGE_LABELS, stagesFor } from "@/server/jobs/stages";
 import { listTechs } from "@/server/staff/queries";
 import { BoughtPartsSection } from "./bought-parts-section";
 import { JobCostSection, LabourSection } from "./labour-section";
 import { JobEditor, MoveControl } from "./job-controls";
 import { KitSpecSection } from "./kit-spec-section";
+import { LikelyReady } from "./likely-ready";
 import { MessagesSection } from "./messages-section";
 import { PhotosSection } from "./photos-section";
 import { MoneySection } from "./money-section";
@@ -38,7 +40,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const db = getDb();
   const job = await findJob(db, Number(raw));
   if (!job) notFound();
-  const [events, techs, shop] = await Promise.all([stageEvents(db, job.id), listTechs(db, job.assignedTechId), shopSettings(db)]);
+  const [events, techs, shop, prediction] = await Promise.all([stageEvents(db, job.id), listTechs(db, job.assignedTechId), shopSettings(db), predictJob(db, job)]);
   const route = stagesFor(job.scope);
 
   return (
@@ -81,6 +83,10 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               <dd>{SCOPE_LABELS[job.scope]} — stages: {route.filter((s) => s !== "delivered").map((s) => STAGE_LABELS[s]).join(" → ")}</dd>
               <dt className="font-semibold">Due</dt>
               <dd>{job.dueOn ? showStoredDate(job.dueOn, "EEE d MMM yyyy") : "No date set"}</dd>
+              <dt className="font-semibold">Likely ready</dt>
+              <dd>
+                <LikelyReady prediction={prediction} dueOn={job.dueOn} stage={job.stage} />
+              </dd>
               <dt className="font-semibold">Assigned</dt>
               <dd>{job.techName ?? "Nobody yet"}</dd>
               <dt className="font-semibold">Truck</dt>

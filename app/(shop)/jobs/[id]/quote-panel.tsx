@@ -1,12 +1,13 @@
 "use client";
 
-import { useState } from "react";
+import { Fragment, useState } from "react";
 import { type ApiFailure, ApiRequestError, api } from "@/components/api";
 import { FormAlert, buttonClass, inputClass } from "@/components/form";
 import { LINE_KINDS, type LineKind } from "@/db/tables/money";
+import { type DocumentFigures, figureRows } from "@/server/money/document";
 import type { PriceItem } from "@/server/money/price-list";
 import type { Quote } from "@/server/money/quotes";
-import { centsToDollarsText, documentTotals, dollarsToCents, formatCents, formatRate, lineAmountCents, toThousandths } from "@/server/money/totals";
+import { centsToDollarsText, documentTotals, dollarsToCents, formatCents, fromThousandths, agreedPriceCents, lineAmountCents, toThousandths } from "@/server/money/totals";
 import { KIND_WORDS } from "../../prices/words";
 
 const STATUS_WORDS: Record<Quote["status"], string> = {
@@ -48,23 +49,15 @@ const fromQuoteLine = (l: { kind: LineKind; description: string; quantity: numbe
   priceItemId: l.priceItemId,
 });
 
-function Totals({ subtotalCents, taxableCents, taxCents, totalCents, taxRate, depositCents }: { subtotalCents: number; taxableCents: number; taxCents: number; totalCents: number; taxRate: string; depositCents?: number }) {
+function Totals(figures: DocumentFigures) {
   return (
     <dl className="ml-auto grid max-w-sm grid-cols-[1fr_auto] gap-x-4 gap-y-1 tabular-nums">
-      <dt>Subtotal</dt>
-      <dd className="text-right">{formatCents(subtotalCents)}</dd>
-      <dt>
-        Sales tax {taxRate} on {formatCents(taxableCents)}
-      </dt>
-      <dd className="text-right">{formatCents(taxCents)}</dd>
-      <dt className="font-bold">Total</dt>
-      <dd className="text-right font-bold">{formatCents(totalCents)}</dd>
-      {depositCents !== undefined && depositCents > 0 && (
-        <>
-          <dt>Deposit on approval</dt>
-          <dd className="text-right">{formatCents(depositCents)}</dd>
-        </>
-      )}
+      {figureRows(figures).map((row) => (
+        <Fragment key={row.label}>
+          <dt className={row.strong ? "font-bold" : undefined}>{row.label}</dt>
+          <dd className={`text-right ${row.strong ? "font-bold" : ""}`}>{row.value}</dd>
+        </Fragment>
+      ))}
     </dl>
   );
 }
@@ -189,7 +182,7 @@ function LineEditor({ lines, setLines, priceItems, taxMillipercent, fields }: { 
           </label>
         )}
       </div>
-      <Totals {...totals} taxRate={formatRate(taxMillipercent)} />
+      <Totals {...totals} taxRatePercent={fromThousandths(taxMillipercent)} />
     </div>
   );
 }
@@ -217,7 +210,7 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
   const [quotes, setQuotes] = useState(initialQuotes);
   const draft = quotes.find((q) => q.status === "draft") ?? null;
   const approved = quotes.find((q) => q.kind === "quote" && q.status === "approved") ?? null;
-  const [editing, setEditing] = useState<{ quoteId: number | null; updatedAt?: string; kind: Quote["kind"] } | null>(draft ? { quoteId: draft.id, updatedAt: draft.updatedAt, kind: draft.kind } : null);
+  const [editing, setEditing] = useState<{ quoteId: number | null; updatedAt?: string; kind: Quote["kind"]; replacesId?: number } | null>(draft ? { quoteId: draft.id, updatedAt: draft.updatedAt, kind: draft.kind } : null);
   const [lines, setLines] = useState<DraftLine[]>(draft ? draft.lines.map(fromQuoteLine) : []);
   const [notice, setNotice] = useState<string | null>(null);
   const [unpriced, setUnpriced] = useState<string[]>([]);
@@ -233,7 +226,8 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
     setNotice(null);
     setUnpriced([]);
     action.setFailure(null);
-    setEditing({ quoteId: null, kind });
+    // A change order started from an earlier one replaces it; a new one is separate added work.
+    setEditing({ quoteId: null, kind, ...(from && kind === "change_order" ? { replacesId: from.id } : {}) });
     setLines(from ? from.lines.map(fromQuoteLine) : []);
   }
 
@@ -268,7 +262,7 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
     if (!body) return null;
     const got = editing.quoteId
       ? await action.run<{ quote: Quote }>(`/api/quotes/${editing.quoteId}`, "PUT", { lines: body, updatedAt: editing.updatedAt })
-      : await action.run<{ quote: Quote }>(`/api/jobs/${jobId}/quotes`, "POST", { lines: body, kind: editing.kind });
+      : await action.run<{ quote: Quote }>(`/api/jobs/${jobId}/quotes`, "POST", { lines: body, kind: editing.kind, ...(editing.replacesId ? { replacesId: editing.replacesId } : {}) });
     if (!got) return null;
     put(got.quote);
     setEditing({ quoteId: got.quote.id, updatedAt: got.quote.updatedAt, kind: got.quote.kind });
@@ -289,10 +283,25 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
   }
 
   const newKind: Quote["kind"] = approved ? "change_order" : "quote";
-  const latestOfKind = quotes.find((q) => q.kind === newKind && q.status !== "draft");
+  // A new version is offered of what is still open: the waiting or declined quote, or a waiting or declined change order.
+  const latestOfKind = quotes.find((q) => q.kind === newKind && (q.status === "sent" || q.status === "declined"));
+  const agreed = quotes.filter((q) => q.status === "approved");
+  const agreedChanges = agreed.filter((q) => q.kind === "change_order").length;
 
   return (
     <div className="space-y-4">
+      {approved && (
+        <p className="flex flex-wrap items-baseline justify-between gap-x-4 rounded-md bg-bay-50 px-3 py-2" data-testid="job-price">
+          <span>
+            <span className="font-bold">Job price</span>
+            <span className="block text-sm text-ink-soft">
+              Quote version {approved.version}
+              {agreedChanges ? ` and ${agreedChanges === 1 ? "1 approved change order" : `${agreedChanges} approved change orders`}` : ""}, tax included
+            </span>
+          </span>
+          <span className="text-lg font-bold tabular-nums">{formatCents(agreedPriceCents(quotes))}</span>
+        </p>
+      )}
       {notice && (
         <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">
           ✓ {notice}
@@ -381,7 +390,12 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
               <summary className="inline-flex min-h-11 cursor-pointer items-center font-semibold">{q.lines.length === 1 ? "1 line" : `${q.lines.length} lines`}</summary>
               <QuoteLines quote={q} />
             </details>
-            <Totals {...q} taxRate={`${q.taxRatePercent} %`} depositCents={q.kind === "quote" ? q.depositCents : undefined} />
+            <Totals {...q} depositCents={q.kind === "quote" ? q.depositCents : undefined} />
+            <p>
+              <a className="inline-flex min-h-11 items-center font-semibold text-bay-700 underline" href={`/api/quotes/${q.id}/pdf`} download>
+                Download PDF<span className="sr-only"> of {q.kind === "quote" ? "quote" : "change order"} version {q.version}</span>
+              </a>
+            </p>
           </article>
         ))}
     </div>

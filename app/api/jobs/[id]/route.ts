@@ -3,6 +3,7 @@ import { requireStaff } from "@/server/auth/session";
 import { notFound } from "@/server/http/errors";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
 import { patchJob } from "@/server/jobs/mutations";
+import { predictJob } from "@/server/jobs/prediction-queries";
 import { findJob, stageEvents } from "@/server/jobs/queries";
 import { jobPatchSchema } from "@/server/jobs/schemas";
 
@@ -13,7 +14,8 @@ export async function GET(req: Request, ctx: { params: Promise<{ id: string }> }
     const db = getDb();
     const job = await findJob(db, id);
     if (!job) throw notFound("That job");
-    return json({ job, events: await stageEvents(db, id) });
+    const [events, prediction] = await Promise.all([stageEvents(db, id), predictJob(db, job)]);
+    return json({ job, events, prediction });
   });
 }
 
