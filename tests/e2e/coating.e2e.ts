@@ -237,6 +237,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
       const tank = `Tank ${suffix}-${i}`;
       const part = (await post(`/api/jobs/${job.id}/parts`, { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" }, 201)).part;
       await post(`/api/parts/${part.id}/leak-tests`, { method: "both", testPressurePsig: 4, gaugeFullScalePsi: 10, gaugeCalibratedOn: calibratedOn, holdMinutes: 20, startPressurePsig: 4, endPressurePsig: 4, startTempF: 70, endTempF: 70, seams: [{ location: "Sump to shell", result: "pass" }], tester: "Tobin Reyes" }, 201);
+      await readyForWork(desk.request, job.id);
       await post(`/api/jobs/${job.id}/moves`, { toStage: "pressure_test", version: await version(desk.request, job.id) });
       made.push({ ...job, tank });
     }
