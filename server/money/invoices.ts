@@ -1,7 +1,10 @@
 import "server-only";
 import { z } from "zod";
+import type { Transaction } from "kysely";
 import type { DB } from "@/db";
+import type { Database } from "@/db/schema";
 import { recordAudit, type AuditActor } from "@/server/audit/record";
+import { queueInvoiceMessage } from "@/server/email/outbox";
 import { ApiError } from "@/server/http/errors";
 import { loadJobMoney } from "./job-money";
 import { balanceDueCents } from "./state";
@@ -20,7 +23,7 @@ async function nextInvoiceNumber(trx: DB, at: string): Promise<string> {
  * approved quote and approved change orders, less what was received. None when nothing was
  * approved; the live one when it already has one (a job moved back and forward again keeps it).
  */
-export async function issueInvoice(trx: DB, jobId: number, at: string, by: string | null): Promise<number | null> {
+export async function issueInvoice(trx: Transaction<Database>, jobId: number, at: string, by: string | null): Promise<number | null> {
   const live = await trx.selectFrom("invoice").select("id").where("job_id", "=", jobId).where("status", "!=", "void").executeTakeFirst();
   if (live) return live.id;
   const m = (await loadJobMoney(trx, [jobId])).get(jobId)!;
@@ -28,9 +31,11 @@ export async function issueInvoice(trx: DB, jobId: number, at: string, by: strin
   const settled = balanceDueCents(m) <= 0;
   const row = await trx
     .insertInto("invoice")
-    .values({ job_id: jobId, number: await nextInvoiceNumber(trx, at), status: settled ? (m.onAccountCents > 0 ? "on_account" : "paid") : "open", total_cents: m.priceCents, created_by: by, created_at: at, void_reason: null, voided_at: null })
+    .values({ job_id: jobId, number: await nextInvoiceNumber(trx, at), status: settled ? (m.onAccountCents > 0 ? "on_account" : "paid") : "open", total_cents: m.priceCents, created_by: by, created_at: at, sent_at: at, void_reason: null, voided_at: null })
     .returning("id")
     .executeTakeFirstOrThrow();
+  // E-mailed at once to the contacts who get e-mail updates, with its PDF and the way to pay.
+  await queueInvoiceMessage(trx, { jobId, invoiceId: row.id, requestedBy: by ?? "", at });
   return row.id;
 }
 
