@@ -52,7 +52,7 @@ export default function ReportChart({ rows, xKey, xLabel, yLabel, series, summar
           <BarChart data={rows} layout="vertical" margin={{ top: 8, right: 16, bottom: 24, left: 4 }}>
             <CartesianGrid strokeDasharray="3 3" stroke="#d5d9d6" />
             <XAxis type="number" allowDecimals={!integers} tick={{ fill: "#16252b", fontSize: 13 }} label={{ value: yLabel, position: "insideBottom", offset: -14, fill: "#44545b", fontSize: 13 }} />
-            <YAxis type="category" dataKey={xKey} width={112} interval={0} tick={{ fill: "#16252b", fontSize: 12 }} tickFormatter={shortName(18)} />
+            <YAxis type="category" dataKey={xKey} width={112} interval={0} tick={{ fill: "#16252b", fontSize: 12 }} tickFormatter={shortName(30)} />
             <Tooltip />
             <Legend verticalAlign="top" itemSorter={null} wrapperStyle={{ paddingBottom: 8 }} />
             {series.map((s) => (
