@@ -14,6 +14,7 @@ import * as m0013 from "./0013_money";
 import * as m0014 from "./0014_d_shaped_tanks";
 import * as m0015 from "./0015_payments";
 import * as m0016 from "./0016_email_attachments";
+import * as m0019 from "./0019_report_indexes";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
@@ -32,6 +33,7 @@ export const migrations: Record<string, Migration> = {
   "0014_d_shaped_tanks": m0014,
   "0015_payments": m0015,
   "0016_email_attachments": m0016,
+  "0019_report_indexes": m0019,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

@@ -52,7 +52,7 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
     const insEmail = sqlite.prepare(
       "insert into email_message (outbox_id, job_id, from_address, to_addresses, subject, html, text, created_at) values (?, ?, 'shop@bench.example', '[\"fleet@customer.example\"]', ?, ?, ?, ?)",
     );
-    const history = (jobId: number, scope: string, steps: string[], tech: string) => {
+    const history = (jobId: number, scope: string, steps: string[], tech: string, iso: string) => {
       if (scope === "fabrication") {
         const tank = Number(insPart.run(jobId, "Hydraulic reservoir", "reservoir", "round", 1, iso, iso).lastInsertRowid);
         insPart.run(jobId, "Pump bracket", "bracket", "other", 0, iso, iso);
@@ -76,15 +76,16 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
     const KIT: [string, string, number, number][] = [["pto", "10-bolt PTO", 1, 118_500], ["pump", "Gear pump 3.2 cu in/rev", 1, 64_900], ["valve", "Relief valve", 1, 18_950], ["hose", "Pressure hose 3/4 in", 2, 9_475], ["fitting", "Breakaway coupler pair", 2, 7_820], ["control", "Dash air switch", 1, 6_240]];
     const SUPPLIERS = ["Bench Fluid Power", "Bench Drive Supply", "Bench Hose and Fitting"];
     let poSeq = 0;
-    const bought = (jobId: number, stage: string, tech: string, jobIndex: number) => {
+    const bought = (jobId: number, stage: string, tech: string, jobIndex: number, lastAt: Date) => {
+      const iso = lastAt.toISOString();
       const past = ["install", "wire", "ready", "delivered"].includes(stage);
-      const day = new Date(now.getTime() - (jobIndex % 60) * 86_400_000).toISOString().slice(0, 10);
+      const day = new Date(lastAt.getTime() - 3 * 86_400_000).toISOString().slice(0, 10);
       const poId = past || jobIndex % 3 === 0 ? Number(insPo.run(formatWorkOrder("PO", 2026, ++poSeq), SUPPLIERS[jobIndex % 3], day, day, staff[1].id, iso).lastInsertRowid) : null;
       KIT.forEach(([kind, description, quantity, cost], k) => {
         const state = past ? (stage === "install" ? "received" : "installed") : poId ? "ordered" : "needed";
         insBought.run(jobId, kind, description, quantity, SUPPLIERS[(jobIndex + k) % 3], cost, state, poId, poId ? day : null, past ? quantity : 0, iso, iso);
       });
-      const start = new Date(now.getTime() - (jobIndex % 90) * 86_400_000 - 5 * 3_600_000);
+      const start = new Date(lastAt.getTime() - 5 * 3_600_000);
       for (let h = 0; h < 2; h++) {
         const from = new Date(start.getTime() + h * 3 * 3_600_000);
         insClock.run(tech, jobId, stage === "delivered" ? "install" : stage, from.toISOString(), new Date(from.getTime() + 2 * 3_600_000).toISOString());
@@ -99,15 +100,20 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
       const stage = j < opts.onBoard ? boardStages[j % boardStages.length] : "delivered";
       const position = positions.get(stage) ?? 0;
       positions.set(stage, position + 1);
-      const due = new Date(now.getTime() + ((j % 30) - 10) * 86_400_000).toISOString().slice(0, 10);
-      const jobId = Number(
-        insJob.run(formatWorkOrder("WO", 2026, j + 1), truck.customer, truck.id, scope, stage, position, due, techs[j % techs.length], iso, iso).lastInsertRowid,
-      );
+      // A shop's history is spread in time: the jobs on the board moved within the last three
+      // weeks; delivered jobs went out one every four working hours, newest first, so a larger
+      // history reaches further back instead of crowding the last 90 days (an invented pace).
       const steps = route.slice(0, route.indexOf(stage) + 1);
-      steps.forEach((s, i) => insEvent.run(jobId, i === 0 ? null : steps[i - 1], s, techs[j % techs.length], iso));
+      const lastAt = j < opts.onBoard ? new Date(now.getTime() - (j % 15) * 86_400_000 - (j % 7) * 3_600_000) : new Date(now.getTime() - 86_400_000 - (j - opts.onBoard) * 4 * 3_600_000);
+      const stepAt = (i: number) => new Date(lastAt.getTime() - (steps.length - 1 - i) * 36 * 3_600_000).toISOString();
+      const due = j < opts.onBoard ? new Date(now.getTime() + ((j % 30) - 10) * 86_400_000).toISOString().slice(0, 10) : new Date(lastAt.getTime() + ((j % 9) - 4) * 86_400_000).toISOString().slice(0, 10);
+      const jobId = Number(
+        insJob.run(formatWorkOrder("WO", 2026, j + 1), truck.customer, truck.id, scope, stage, position, due, techs[j % techs.length], stepAt(0), lastAt.toISOString()).lastInsertRowid,
+      );
+      steps.forEach((s, i) => insEvent.run(jobId, i === 0 ? null : steps[i - 1], s, techs[j % techs.length], stepAt(i)));
       if (opts.history) {
-        history(jobId, scope, steps, techs[j % techs.length]);
-        bought(jobId, stage, techs[j % techs.length], j);
+        history(jobId, scope, steps, techs[j % techs.length], lastAt.toISOString());
+        bought(jobId, stage, techs[j % techs.length], j, lastAt);
       }
     }
     sqlite.prepare("update shop set next_work_order = ?").run(opts.jobs + 1);

@@ -369,6 +369,12 @@ async function main() {
         search: { p95Ms: Math.round(se.p95), ratioTo5k: ratio(se.p95, search.p95) },
         ...(boardCold100k ? { boardBuiltFromDatabase: { p95Ms: Math.round(boardCold100k.p95Ms * 10) / 10, ratioTo5k: ratio(boardCold100k.p95Ms, boardCold.p95Ms) } } : {}),
       };
+      // Every report, built right after a write, against the same on the 5,000-job shop.
+      const reports100k = reportsCold(big.dbPath);
+      for (const [name, r] of Object.entries(reports100k)) {
+        const small = desk.builtAfterAWrite[name];
+        if (small) big100k[`${name}BuiltAfterAWrite`] = { p95Ms: r.p95Ms, ratioTo5k: ratio(r.p95Ms, small.p95Ms) };
+      }
     } finally {
       bigServer.stop();
     }

@@ -39,6 +39,8 @@ export interface JobListFilter {
   stage?: Stage;
   customerId?: number;
   truckId?: number;
+  /** A staff id, or "none" for jobs nobody is assigned to. */
+  techId?: string;
   q?: string;
   sort?: "newest" | "due" | "customer" | "stage";
   limit?: number;
@@ -70,11 +72,13 @@ export async function listJobs(db: DB, filter: JobListFilter = {}) {
     .select([
       "job.id", "job.work_order as workOrder", "job.stage", "job.scope", "job.description", "job.due_on as dueOn", "job.priority",
       "job.updated_at as updatedAt", "customer.id as customerId", "customer.name as customerName", "truck.id as truckId",
-      "truck.unit_number as unitNumber", "staff.name as techName",
+      "truck.unit_number as unitNumber", "truck.vin", "job.created_at as createdAt", "staff.name as techName",
     ]);
   if (filter.stage) query = query.where("job.stage", "=", filter.stage);
   if (filter.customerId) query = query.where("job.customer_id", "=", filter.customerId);
   if (filter.truckId) query = query.where("job.truck_id", "=", filter.truckId);
+  if (filter.techId === "none") query = query.where("job.assigned_tech_id", "is", null);
+  else if (filter.techId) query = query.where("job.assigned_tech_id", "=", filter.techId);
   if (filter.due && filter.today) {
     query = query.where("job.stage", "in", BOARD_STAGES).where("job.due_on", "is not", null);
     query = filter.due === "late" ? query.where("job.due_on", "<", filter.today) : query.where("job.due_on", ">=", filter.today).where("job.due_on", "<=", filter.dueSoonUntil ?? filter.today);

@@ -51,6 +51,21 @@ export const boardFilterSchema = z.object({
   q: z.string().trim().max(60).optional(),
 });
 
+/**
+ * The Jobs list's filters as they stand in its URL (and the board's customer and tech), read the
+ * same way by the page and by the CSV export: `due` is `late` or `soon`, `email` is `failed`.
+ */
+export const jobListParamsSchema = z.object({
+  stage: stageSchema.optional(),
+  q: z.string().trim().max(60, "Keep the search under 60 characters.").optional(),
+  sort: z.enum(["newest", "due", "customer", "stage"], { message: "sort is newest, due, customer or stage." }).optional(),
+  due: z.enum(["late", "soon"], { message: "due is late or soon." }).optional(),
+  email: z.enum(["failed"], { message: "email is failed (jobs with a customer e-mail that failed to send)." }).optional(),
+  customer: z.coerce.number({ message: "customer is a customer's id." }).int("customer is a customer's id.").positive("customer is a customer's id.").optional(),
+  tech: z.union([z.literal("none"), z.string().uuid()], { message: "tech is a staff id, or none for jobs nobody is assigned to." }).optional(),
+});
+export type JobListParams = z.infer<typeof jobListParamsSchema>;
+
 export type NewJobInput = z.infer<typeof newJobSchema>;
 export type JobPatch = z.infer<typeof jobPatchSchema>;
 export type MoveInput = z.infer<typeof moveSchema>;

@@ -287,7 +287,7 @@ const TEST_FAILED = "failed its last leak test; rework it and record a passing t
 const TEST_INVALID = "has an invalid last leak test (outside the shop's procedure); test it again before it is coated.";
 
 /** Sends parts out on a coating run. Every part is checked; each refusal names its place in the list. */
-export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingRunInput, now = new Date()): Promise<CoatingRunView> {
+export async function createCoatingRun(db: DB, actor: StaffUser, input: Omit<CoatingRunInput, "moveJobIds"> & { moveJobIds?: number[] }, now = new Date()): Promise<CoatingRunView> {
   const id = await db.transaction().execute(async (trx) => {
     const { today } = await todayIn(trx, now);
     const problems: Record<string, string> = {};
@@ -300,7 +300,7 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
       .selectFrom("part as p")
       .innerJoin("job as j", "j.id", "p.job_id")
       .select([
-        "p.id", "p.name", "p.needs_coating", "p.needs_leak_test", "p.rework_count", "j.work_order", "j.stage",
+        "p.id", "p.name", "p.needs_coating", "p.needs_leak_test", "p.rework_count", "j.id as job_id", "j.work_order", "j.stage",
         currentLeakResult.as("last_result"),
       ])
       .where("p.id", "in", input.partIds)
@@ -317,6 +317,10 @@ export async function createCoatingRun(db: DB, actor: StaffUser, input: CoatingR
       else if (part.needs_leak_test === 1 && part.last_result !== "pass") {
         problems[field] = `${part.name} (${part.work_order}) ${part.last_result === "fail" ? TEST_FAILED : part.last_result === "invalid" ? TEST_INVALID : part.rework_count > 0 ? TEST_FIRST : TEST_NONE}`;
       }
+    });
+    const jobsOnRun = new Set(parts.map((p) => p.job_id));
+    (input.moveJobIds ?? []).forEach((jobId, index) => {
+      if (!jobsOnRun.has(jobId)) problems[`moveJobIds.${index}`] = "That job has no part on this run, so it does not move with it.";
     });
     if (Object.keys(problems).length) throw fieldErrors(problems);
 
@@ -361,6 +365,18 @@ export async function patchCoatingRun(db: DB, actor: StaffUser, runId: number, p
     }
     if (patch.inspection && !(patch.receivedOn ?? run.received_on)) {
       problems.inspection = "Mark the run received before recording its receiving inspection.";
+    }
+    if (patch.moveJobIds?.length) {
+      const onRun = await trx
+        .selectFrom("coating_run_part as c")
+        .innerJoin("part as p", "p.id", "c.part_id")
+        .select("p.job_id")
+        .where("c.run_id", "=", runId)
+        .execute();
+      const jobsOnRun = new Set(onRun.map((r) => r.job_id));
+      patch.moveJobIds.forEach((jobId, index) => {
+        if (!jobsOnRun.has(jobId)) problems[`moveJobIds.${index}`] = "That job has no part on this run, so it does not move with it.";
+      });
     }
     if (Object.keys(problems).length) throw fieldErrors(problems);
 

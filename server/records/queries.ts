@@ -395,7 +395,7 @@ export type CoatingRunListStatus = "current" | "open" | "all";
  * Coating runs with their vendor, parts and jobs. "open" is every run still at the coater, overdue
  * first; "current" adds runs back but not yet inspected and those back within the last 30 days.
  */
-export async function listCoatingRuns(db: DB, filter: { status?: CoatingRunListStatus; runId?: number } = {}, now = new Date()): Promise<CoatingRunView[]> {
+export async function listCoatingRuns(db: DB, filter: { status?: CoatingRunListStatus; runId?: number; limit?: number } = {}, now = new Date()): Promise<CoatingRunView[]> {
   const clock = await shopClock(db, now);
   const today = shopToday(clock);
   let query = db
@@ -413,7 +413,7 @@ export async function listCoatingRuns(db: DB, filter: { status?: CoatingRunListS
     const since = formatCalendarDate(subDays(parseCalendarDate(today), 30));
     query = query.where((eb) => eb.or([eb("r.received_on", "is", null), eb("r.inspected_at", "is", null), eb("r.received_on", ">=", since)]));
   }
-  const runs = await query.orderBy("r.id", "desc").limit(500).execute();
+  const runs = await query.orderBy("r.id", "desc").limit(filter.limit ?? 500).execute();
   if (runs.length === 0) return [];
   const runParts = (ids: number[]) =>
     db

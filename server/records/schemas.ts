@@ -124,6 +124,11 @@ export type CoatingFinish = z.infer<typeof coatingFinishSchema>;
 const recordId = (message: string) =>
   z.number({ error: message }).int({ error: message }).positive({ error: message });
 
+const moveJobIdsSchema = z
+  .array(recordId("Choose a job to move."), { error: "List the jobs to move as job ids." })
+  .max(200, { error: "At most 200 jobs move with one run." })
+  .default([]);
+
 export const coatingRunSchema = z
   .object({
     vendorId: recordId("Choose the coater."),
@@ -135,6 +140,9 @@ export const coatingRunSchema = z
       .array(recordId("Choose a part."), { error: "Choose the parts on this run." })
       .min(1, { error: "A coating run carries at least one part." })
       .max(200, { error: "A coating run carries at most 200 parts." }),
+    // Jobs the office ticked to move with the run (into Outside coating on sending, into Install
+    // with the receiving inspection); each goes through the same move as a drag on the board.
+    moveJobIds: moveJobIdsSchema,
   })
   .superRefine((run, ctx) => {
     if (run.promisedOn < run.sentOn) {
@@ -399,10 +407,15 @@ export const coatingRunPatchSchema = z
       receivedOn: isoDate("the date the parts came back").optional(),
       promisedOn: isoDate("the date the coater promised").optional(),
       inspection: receivingInspectionSchema.optional(),
+      moveJobIds: moveJobIdsSchema.optional(),
     },
-    { error: strictError("Only the received date, the promised date and the receiving inspection can be changed.") },
+    { error: strictError("Only the received date, the promised date and the receiving inspection can be changed (and the jobs to move to Install with the inspection).") },
   )
-  .refine((patch) => Object.keys(patch).length > 0, { error: "Send the received date, the promised date or the inspection." });
+  .refine((patch) => Object.keys(patch).some((k) => k !== "moveJobIds"), { error: "Send the received date, the promised date or the inspection." })
+  .refine((patch) => !patch.moveJobIds?.length || patch.inspection, {
+    path: ["moveJobIds"],
+    error: "Jobs move to Install with the receiving inspection: record it in the same save.",
+  });
 export type CoatingRunPatch = z.infer<typeof coatingRunPatchSchema>;
 
 // Past half a psi over a hold at 1.5–5 psig a tank is plainly leaking (common practice, no published source).

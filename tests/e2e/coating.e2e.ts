@@ -170,7 +170,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     await send.getByRole("checkbox", { name: tankA }).check();
     await send.getByRole("checkbox", { name: tankB }).check();
     await send.getByRole("button", { name: "Send 2 parts out" }).click();
-    const sent = send.getByRole("status");
+    const sent = desk.locator("[data-run-outcome]");
     await sent.waitFor();
     const runId = Number(/Run (\d+) is out to Bright Bend Finishing with 2 parts/.exec((await sent.textContent())!)![1]);
     const run = desk.locator(`#run-${runId}`);
@@ -193,19 +193,77 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     expect(await desk.locator(`[id="${readingsHelp}"]`).textContent()).toBe("⚠ Readings 1–3 (64, 71, 76): A film-thickness reading is 0.1 to 40 mils; check the unit (mils, not µm).");
     await inspection.getByLabel("Dry film thickness readings (mils)", { exact: true }).fill("2.4, 2.7, 3.0");
     await inspection.getByLabel("Passed", { exact: true }).check();
+    // Both jobs are offered for Install, ticked; job A is left for the job page's own control.
+    const offerA = inspection.getByRole("checkbox", { name: new RegExp(`^Move ${jobA.workOrder} `) });
+    const offerB = inspection.getByRole("checkbox", { name: new RegExp(`^Move ${jobB.workOrder} `) });
+    expect([await offerA.isChecked(), await offerB.isChecked()]).toEqual([true, true]);
+    await offerA.uncheck();
     await inspection.getByRole("button", { name: "Record the inspection" }).click();
     await desk.locator(`#recent #run-${runId}`).getByText("Back and inspected").waitFor();
+    const inspected = desk.locator("[data-run-outcome]");
+    await inspected.getByText(`Receiving inspection of run ${runId} recorded.`).waitFor();
+    expect(await inspected.textContent()).toContain(`${jobB.workOrder} moved to Install.`);
+    expect(await inspected.textContent()).not.toContain(jobA.workOrder);
+    expect((await json(await desk.request.get(`${baseUrl()}/api/jobs/${jobB.id}`))).job.stage).toBe("install");
+    expect((await json(await desk.request.get(`${baseUrl()}/api/jobs/${jobA.id}`))).job.stage).toBe("coating");
     expect(await desk.locator(`#run-${runId}`).textContent()).toMatch(/film 2\.4–3 mils over 3 readings, adhesion passed/);
     await shot(desk, "coating-desk-inspected");
 
-    // Both cards are free to move: one through the job page's control, one as the board would.
+    // Job A is free to move too, through the job page's control.
     await desk.goto(`${baseUrl()}/jobs/${jobA.id}`);
     expect(await desk.locator(`li[data-part="${tankA}"]`).textContent()).toMatch(/back .* and inspected/);
     await shot(desk, "job-records-desk");
     await desk.getByRole("combobox", { name: /^Move to/ }).selectOption("install");
     await desk.getByRole("button", { name: "Move to Install" }).click();
     await desk.getByText("Moved to Install.").waitFor();
-    await json(await desk.request.post(`${baseUrl()}/api/jobs/${jobB.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "install", version: await version(desk.request, jobB.id) } }));
+    await office.close();
+  });
+
+  it("sending a run moves its jobs into Outside coating, and says which could not move and why", async () => {
+    const suffix = Date.now().toString(36).slice(-4).toUpperCase();
+    const office = await browser.newContext(DESK);
+    const desk = await signIn(office, "office");
+    const post = async (path: string, data: unknown, status = 200) => json(await desk.request.post(`${baseUrl()}${path}`, { headers: { origin: baseUrl() }, data }), status);
+    const jobs = (await json<{ jobs: { customerName: string; customerId: number; truckId: number }[] }>(await desk.request.get(`${baseUrl()}/api/jobs`))).jobs;
+    const truck = jobs.find((j) => j.customerName === "Tamsin Flats Recovery")!;
+    // Two new jobs in Pressure test, each with a tested tank that goes out for coating; the second
+    // also has a step box that is leak-tested but not coated, and has no passing test yet.
+    const made = [];
+    for (const i of [0, 1]) {
+      const job = (await post("/api/jobs", { customerId: truck.customerId, truckId: truck.truckId, scope: "fabrication", description: `Recovery wet kit ${suffix}-${i}` }, 201)).job as { id: number; workOrder: string };
+      const tank = `Tank ${suffix}-${i}`;
+      const part = (await post(`/api/jobs/${job.id}/parts`, { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" }, 201)).part;
+      await post(`/api/parts/${part.id}/leak-tests`, { method: "both", testPressurePsig: 4, gaugeFullScalePsi: 10, gaugeCalibratedOn: calibratedOn, holdMinutes: 20, startPressurePsig: 4, endPressurePsig: 4, startTempF: 70, endTempF: 70, seams: [{ location: "Sump to shell", result: "pass" }], tester: "Tobin Reyes" }, 201);
+      await post(`/api/jobs/${job.id}/moves`, { toStage: "pressure_test", version: await version(desk.request, job.id) });
+      made.push({ ...job, tank });
+    }
+    const [ready, held] = made;
+    await post(`/api/jobs/${held.id}/parts`, { name: `Step box ${suffix}`, kind: "box", material: "aluminum", needsLeakTest: true, needsCoating: false, shape: "box" }, 201);
+
+    await desk.goto(`${baseUrl()}/coating`);
+    const send = desk.getByRole("form", { name: "Send parts out for coating" });
+    await send.getByLabel("Coater", { exact: true }).selectOption({ label: "Bright Bend Finishing (usually 5 business days)" });
+    await send.getByLabel("Color", { exact: true }).fill("Gloss black");
+    await send.getByRole("checkbox", { name: ready.tank }).check();
+    await send.getByRole("checkbox", { name: held.tank }).check();
+    // Every coated part of both jobs is on this run: each job is offered, ticked.
+    for (const job of made) expect(await send.getByRole("checkbox", { name: new RegExp(`^Move ${job.workOrder} `) }).isChecked()).toBe(true);
+    await shot(desk, "coating-send-moves-desk");
+    await send.getByRole("button", { name: "Send 2 parts out" }).click();
+    const outcome = desk.locator("[data-run-outcome]");
+    await outcome.waitFor();
+    const said = (await outcome.textContent())!;
+    expect(said).toMatch(/Run \d+ is out to Bright Bend Finishing with 2 parts\./);
+    expect(said).toContain(`${ready.workOrder} moved to Outside coating.`);
+    expect(said).toContain(`${held.workOrder} not moved (still in Pressure test). Needs before it can move to Outside coating:`);
+    expect(said).toContain(`Step box ${suffix}: record a passing leak test.`);
+    await desk.locator("#out article", { hasText: ready.tank }).waitFor();
+    await shot(desk, "coating-sent-moves-desk");
+    expect((await json(await desk.request.get(`${baseUrl()}/api/jobs/${ready.id}`))).job.stage).toBe("coating");
+    expect((await json(await desk.request.get(`${baseUrl()}/api/jobs/${held.id}`))).job.stage).toBe("pressure_test");
+    // The moved card's timeline shows the move like any other, with the run named.
+    const events = (await json(await desk.request.get(`${baseUrl()}/api/jobs/${ready.id}`))).events as { toStage: string; note: string }[];
+    expect(events[0]).toEqual(expect.objectContaining({ toStage: "coating", note: expect.stringMatching(/^Parts went out on coating run \d+\.$/) }));
     await office.close();
   });
 

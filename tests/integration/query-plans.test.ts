@@ -18,6 +18,10 @@ import { listTechs } from "@/server/staff/queries";
 import { listStatusLinks } from "@/server/status/links";
 import { readStatusPage } from "@/server/status/queries";
 import { generateShop } from "@/scripts/bench-shop";
+import { jobCostsReport } from "@/server/labour/report";
+import { loadPartsDesk } from "@/server/parts/desk";
+import { loadOverview } from "@/server/reports/overview";
+import { coatersReport, reportCalendar, stageTimesReport, throughputReport, workloadReport } from "@/server/reports/queries";
 import { useFreshDatabase } from "../support/db";
 
 /*
@@ -27,7 +31,7 @@ import { useFreshDatabase } from "../support/db";
  * table. A scan is allowed only when it walks rows already in the order asked for and stops at a
  * LIMIT (the newest 50 jobs) without a text filter.
  */
-const BIG_TABLES = ["job", "stage_event", "part", "leak_test", "coating_run_part", "photo", "outbox", "email_message", "status_link", "customer", "truck", "contact", "kit_spec", "session"];
+const BIG_TABLES = ["job", "stage_event", "clock_entry", "bought_part", "bought_part_receipt", "purchase_order", "coating_run", "quote", "quote_line", "part", "leak_test", "coating_run_part", "photo", "outbox", "email_message", "status_link", "customer", "truck", "contact", "kit_spec", "session"];
 
 const { db: appDb } = useFreshDatabase();
 const seen: { sql: string; parameters: readonly unknown[]; path: string }[] = [];
@@ -97,6 +101,25 @@ describe("the hot paths use indexes on a shop with a long history", () => {
     await check("status page", () => readStatusPage(db, "A".repeat(43)));
     const version = (sqlite.prepare("select version from job where id = ?").get(job.id) as { version: number }).version;
     await check("move", () => moveJob(db as never, owner, job.id, { toStage: "queued", version } as never));
+    expect(problems, problems.join("\n")).toEqual([]);
+  });
+
+  it("the office's desk (overview, every report, job cost, parts desk, search) reads no big table in full", async () => {
+    const cal = await reportCalendar(db);
+    const period = { from: "2026-01-01", to: "2026-03-31" };
+    const problems: string[] = [];
+    const check = async (name: string, work: () => Promise<unknown>) => {
+      const r = await run(name, work);
+      expect(r.statements, name).toBeGreaterThan(0);
+      problems.push(...r.problems);
+    };
+    await check("overview", () => loadOverview(db));
+    await check("stage times", () => stageTimesReport(db, period, cal));
+    await check("throughput", () => throughputReport(db, period, cal));
+    await check("coaters", () => coatersReport(db, period, cal));
+    await check("workload", () => workloadReport(db, period, cal));
+    await check("job cost", () => jobCostsReport(db, period, cal));
+    await check("parts desk", () => loadPartsDesk(db));
     expect(problems, problems.join("\n")).toEqual([]);
   });
 });

@@ -6,6 +6,9 @@ import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from 
 import { IconStop } from "@/components/icons";
 import { collapseListErrors, fieldErrorSummary } from "@/server/records/form-errors";
 import type { CoatingCandidate, VendorView } from "@/server/records/queries";
+import type { RunJobMove, RunMoveOffer } from "@/server/records/run-moves";
+import { stageIndex } from "@/server/jobs/stages";
+import { MoveJobChoices, useRunOutcome } from "./run-moves";
 import { GLOSS_LEVELS, glossLabels } from "@/server/records/schemas";
 import { addBusinessDaysTo } from "@/server/records/turnaround";
 
@@ -21,7 +24,8 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
   const [sentOn, setSentOn] = useState(today);
   const [promisedOn, setPromisedOn] = useState<string | null>(null);
   const [chosen, setChosen] = useState<number[]>([]);
-  const [done, setDone] = useState<string | null>(null);
+  const [keepInPlace, setKeepInPlace] = useState<number[]>([]);
+  const showOutcome = useRunOutcome();
   // Each run sent starts the next one blank: the last customer's color is not the next one's.
   const [runsSent, setRunsSent] = useState(0);
   const vendor = vendors.find((v) => String(v.id) === vendorId);
@@ -29,7 +33,17 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
   const suggested = vendor && ISO_DATE.test(sentOn) ? addBusinessDaysTo(sentOn, vendor.usualTurnaroundDays) : "";
   const promised = promisedOn ?? suggested;
 
-  const form = useApiForm<{ run: { id: number; vendorName: string; parts: unknown[] } }>(
+  // A job moves with the run when every part of it still waiting for coating goes out on it
+  // (parts already back from a run since their last rework count as gone out).
+  const movable = [...new Map(candidates.map((c) => [c.jobId, c])).values()].filter(
+    (job) =>
+      stageIndex(job.jobStage) < stageIndex("coating") &&
+      candidates.some((c) => c.jobId === job.jobId && chosen.includes(c.id)) &&
+      candidates.filter((c) => c.jobId === job.jobId && c.lastRunId === null).every((c) => chosen.includes(c.id)),
+  );
+  const moveJobIds = movable.map((j) => j.jobId).filter((id) => !keepInPlace.includes(id));
+
+  const form = useApiForm<{ run: { id: number; vendorName: string; parts: unknown[] }; moves: RunJobMove[] }>(
     (v) => ({
       path: "/api/coating-runs",
       body: {
@@ -38,11 +52,13 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
         sentOn,
         promisedOn: promised,
         partIds: chosen,
+        moveJobIds,
       },
     }),
-    ({ run }) => {
-      setDone(`Run ${run.id} is out to ${run.vendorName} with ${run.parts.length} ${run.parts.length === 1 ? "part" : "parts"}.`);
+    ({ run, moves }) => {
+      showOutcome({ headline: `Run ${run.id} is out to ${run.vendorName} with ${run.parts.length} ${run.parts.length === 1 ? "part" : "parts"}.`, moves });
       setChosen([]);
+      setKeepInPlace([]);
       setRunsSent((n) => n + 1);
       setPromisedOn(null);
       router.refresh();
@@ -106,11 +122,6 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
   return (
     <form key={runsSent} onSubmit={form.onSubmit} noValidate className="space-y-3" aria-label="Send parts out for coating">
       <FormAlert failure={form.failure} />
-      {done && (
-        <p role="status" className="rounded-md bg-ok-100 px-3 py-2 text-sm font-medium text-ok-700">
-          ✓ {done}
-        </p>
-      )}
       <Field label="Coater" name="vendorId" errors={form.fields.vendorId}>
         {(p) => (
           <select {...p} value={vendorId} onChange={(e) => setVendorId(e.target.value)} className={inputClass}>
@@ -154,6 +165,12 @@ export function SendRunForm({ vendors, candidates, today }: { vendors: VendorVie
           </details>
         )}
       </fieldset>
+      <MoveJobChoices
+        jobs={movable.map((c) => ({ jobId: c.jobId, workOrder: c.workOrder, customerName: c.customerName, unitNumber: c.unitNumber }))}
+        toStage="coating"
+        skipped={keepInPlace}
+        onToggle={(jobId, move) => setKeepInPlace((ids) => (move ? ids.filter((id) => id !== jobId) : [...ids, jobId]))}
+      />
       <button type="submit" className={`${buttonClass.primary} w-full`} disabled={form.pending || chosen.length === 0}>
         {form.pending ? "Sending…" : chosen.length ? `Send ${chosen.length} ${chosen.length === 1 ? "part" : "parts"} out` : "Choose the parts to send"}
       </button>
@@ -195,11 +212,13 @@ const INSPECTION_NAMES: Record<string, string> = {
 };
 
 /** The receiving inspection: film thickness in mils, adhesion, defects. */
-export function InspectionForm({ runId }: { runId: number }) {
+export function InspectionForm({ runId, offers = [] }: { runId: number; offers?: RunMoveOffer[] }) {
   const router = useRouter();
   const id = useId();
   const [readings, setReadings] = useState("");
-  const form = useApiForm(
+  const [keepInPlace, setKeepInPlace] = useState<number[]>([]);
+  const showOutcome = useRunOutcome();
+  const form = useApiForm<{ moves: RunJobMove[] }>(
     (v) => {
       const values = readings
         .split(/[\s,;]+/)
@@ -208,10 +227,16 @@ export function InspectionForm({ runId }: { runId: number }) {
       return {
         path: `/api/coating-runs/${runId}`,
         method: "PATCH",
-        body: { inspection: { dftReadingsMils: values, adhesionOk: v.adhesion === "ok" ? true : v.adhesion === "failed" ? false : undefined, defects: str(v.defects) } },
+        body: {
+          inspection: { dftReadingsMils: values, adhesionOk: v.adhesion === "ok" ? true : v.adhesion === "failed" ? false : undefined, defects: str(v.defects) },
+          moveJobIds: offers.map((o) => o.jobId).filter((jobId) => !keepInPlace.includes(jobId)),
+        },
       };
     },
-    () => router.refresh(),
+    ({ moves }) => {
+      showOutcome({ headline: `Receiving inspection of run ${runId} recorded.`, moves });
+      router.refresh();
+    },
   );
   const sent = readings.split(/[\s,;]+/).filter(Boolean);
   // Three readings in µm get one line naming all three, not the same message three times.
@@ -255,6 +280,12 @@ export function InspectionForm({ runId }: { runId: number }) {
       >
         {(p) => <textarea {...p} rows={2} className={inputClass} />}
       </Field>
+      <MoveJobChoices
+        jobs={offers}
+        toStage="install"
+        skipped={keepInPlace}
+        onToggle={(jobId, move) => setKeepInPlace((ids) => (move ? ids.filter((i) => i !== jobId) : [...ids, jobId]))}
+      />
       <button type="submit" className={buttonClass.primary} disabled={form.pending}>
         {form.pending ? "Saving…" : "Record the inspection"}
       </button>

@@ -9,7 +9,9 @@ import { type CoatingRunView, coatingCandidates, listCoatingRuns, recordsSetting
 import { formatShopTime } from "@/server/records/calendar";
 import { glossLabels } from "@/server/records/schemas";
 import { VENDOR_RECORD_WINDOW_DAYS, businessDaysBetween, shopToday } from "@/server/records/turnaround";
+import { type RunMoveOffer, installOffers } from "@/server/records/run-moves";
 import { InspectionForm, ReceiveForm, SendRunForm, VendorForm } from "./coating-forms";
+import { RunOutcomeProvider } from "./run-moves";
 
 export const metadata = { title: "Coating" };
 
@@ -46,7 +48,7 @@ function RunStatus({ run, today }: { run: CoatingRunView; today: string }) {
   );
 }
 
-function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string; timeZone: string }) {
+function RunCard({ run, today, timeZone, offers }: { run: CoatingRunView; today: string; timeZone: string; offers: Map<number, RunMoveOffer[]> }) {
   const dft = run.inspection?.dftReadingsMils ?? [];
   return (
     <article id={`run-${run.id}`} aria-label={`Coating run ${run.id}, ${run.vendorName}`} className={`scroll-mt-4 rounded-lg border bg-panel p-3 ${run.overdue ? "border-2 border-stop-700" : "border-line"}`}>
@@ -102,7 +104,7 @@ function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string;
       )}
       {run.receivedOn && !run.inspection && (
         <div className="mt-3 border-t border-line pt-3">
-          <InspectionForm runId={run.id} />
+          <InspectionForm runId={run.id} offers={offers.get(run.id)} />
         </div>
       )}
       {run.inspection && !run.inspection.adhesionOk && (
@@ -112,7 +114,7 @@ function RunCard({ run, today, timeZone }: { run: CoatingRunView; today: string;
           </p>
           <details className="mt-1">
             <summary className="flex min-h-11 cursor-pointer items-center font-semibold text-bay-800">Record a new inspection</summary>
-            <InspectionForm runId={run.id} />
+            <InspectionForm runId={run.id} offers={offers.get(run.id)} />
           </details>
         </div>
       )}
@@ -137,9 +139,11 @@ export default async function CoatingPage() {
   const recent = runs.filter((r) => r.inspection);
   const office = user.role !== "tech";
   const waiting = candidates.filter((c) => c.lastRunId === null).length;
+  const offers = await installOffers(db, runs.filter((r) => r.receivedOn && (!r.inspection || !r.inspection.adhesionOk)));
 
   return (
     <div className="space-y-4">
+      <RunOutcomeProvider>
       <header className="space-y-1">
         <h1 className="text-2xl font-bold">Outside coating</h1>
         <p className="flex flex-wrap gap-x-4 gap-y-1" role="status">
@@ -154,6 +158,14 @@ export default async function CoatingPage() {
           </span>
           <span className="text-ink-soft">Today is {day(today)} (shop time); turnaround counts business days, weekends excluded.</span>
         </p>
+        {office && (
+          <p>
+            <a href="/api/coating-runs/export.csv" download className="inline-flex min-h-11 items-center text-sm font-semibold text-bay-800 underline">
+              Download CSV
+            </a>{" "}
+            <span className="text-sm text-ink-soft">(every coating run)</span>
+          </p>
+        )}
       </header>
 
       {/* On a phone "Send parts out" comes first (the job done most often here), the runs after it and the
@@ -175,7 +187,7 @@ export default async function CoatingPage() {
             {out.length === 0 ? <p className="text-ink-soft">Nothing is out at a coater.</p> : (
               <div className="space-y-3">
                 {out.map((run) => (
-                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} />
+                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} offers={offers} />
                 ))}
               </div>
             )}
@@ -184,7 +196,7 @@ export default async function CoatingPage() {
             <Section title={`Back: inspection to record (${awaiting.length})`} id="back">
               <div className="space-y-3">
                 {awaiting.map((run) => (
-                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} />
+                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} offers={offers} />
                 ))}
               </div>
             </Section>
@@ -234,7 +246,7 @@ export default async function CoatingPage() {
             <Section title="Back in the last 30 days" id="recent">
               <div className="space-y-3">
                 {recent.map((run) => (
-                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} />
+                  <RunCard key={run.id} run={run} today={today} timeZone={settings.timeZone} offers={offers} />
                 ))}
               </div>
             </Section>
@@ -278,6 +290,7 @@ export default async function CoatingPage() {
           </Section>
         </div>
       </div>
+      </RunOutcomeProvider>
     </div>
   );
 }

@@ -3,13 +3,13 @@ import { FirstSteps } from "@/components/first-steps";
 import { JobList, type JobSortKey } from "@/components/job-list";
 import { buttonClass, inputClass } from "@/components/styles";
 import { getDb } from "@/db";
-import { STAGES, type Stage } from "@/db/schema";
+import { STAGES } from "@/db/schema";
 import { requirePageStaff } from "@/server/auth/session";
 import { listJobs, shopBeginnings } from "@/server/jobs/queries";
 import { STAGE_LABELS } from "@/server/jobs/stages";
 import { shopToday } from "@/server/records/turnaround";
 import { DUE_SOON_DAYS } from "@/server/reports/overview";
-import { addCalendarDays } from "@/server/shop/business-days";
+import { jobListFilter, jobsCsvHref, readJobListParams } from "@/server/jobs/list-filter";
 import { shopSettings } from "@/server/shop/queries";
 
 export const metadata = { title: "Jobs" };
@@ -21,36 +21,25 @@ const PAGE = 50;
 export default async function JobsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requirePageStaff();
   const sp = await searchParams;
-  const stage = STAGES.includes(sp.stage as Stage) ? (sp.stage as Stage) : undefined;
-  const sort = sp.sort && sp.sort in SORTS ? (sp.sort as JobSortKey) : "newest";
-  const q = (sp.q ?? "").slice(0, 60);
+  const params = readJobListParams(sp);
+  const { stage, due, email } = params;
+  const sort: JobSortKey = params.sort ?? "newest";
+  const q = params.q ?? "";
   const page = /^[1-9]\d{0,4}$/.test(sp.page ?? "") ? Number(sp.page) : 1;
-  const due = sp.due === "late" || sp.due === "soon" ? sp.due : undefined;
-  const email = sp.email === "failed" ? "failed" : undefined;
   const db = getDb();
   const shop = due ? await shopSettings(db) : null;
   const today = shop ? shopToday({ now: new Date(), timeZone: shop.timeZone }) : undefined;
   // One row more than a page tells whether there is a next page, without counting every job.
-  const found = await listJobs(db, {
-    stage,
-    q: q || undefined,
-    sort,
-    limit: PAGE + 1,
-    offset: (page - 1) * PAGE,
-    due,
-    today,
-    dueSoonUntil: today ? addCalendarDays(today, DUE_SOON_DAYS) : undefined,
-    emailFailed: email === "failed",
-  });
+  const found = await listJobs(db, { ...jobListFilter(params, today), sort, limit: PAGE + 1, offset: (page - 1) * PAGE });
   const rows = found.slice(0, PAGE);
   const hasNext = found.length > PAGE;
   const paged = page > 1 || hasNext;
-  const filtered = Boolean(stage || q || due || email);
+  const filtered = Boolean(stage || q || due || email || params.customer || params.tech);
   const beginnings = rows.length === 0 && !filtered && page === 1 ? await shopBeginnings(db) : null;
   const emptyShop = beginnings !== null && beginnings.jobs === 0;
   const href = (over: Record<string, string | undefined>) => {
-    const params = new URLSearchParams(Object.entries({ stage, sort, q: q || undefined, due, email, ...over }).filter(([, v]) => v) as [string, string][]);
-    return `/jobs?${params}`;
+    const query = new URLSearchParams(Object.entries({ ...params, sort, ...over }).filter(([, v]) => v).map(([k, v]) => [k, String(v)]));
+    return `/jobs?${query}`;
   };
 
   return (
@@ -70,6 +59,8 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
           <form role="search" className="flex flex-wrap items-end gap-2" action="/jobs">
             {due && <input type="hidden" name="due" value={due} />}
             {email && <input type="hidden" name="email" value={email} />}
+            {params.customer && <input type="hidden" name="customer" value={params.customer} />}
+            {params.tech && <input type="hidden" name="tech" value={params.tech} />}
             <label className="min-w-56 flex-1 text-sm font-semibold">
               Search
               <input name="q" type="search" defaultValue={q} placeholder="Work order, unit, customer or description" className={`${inputClass} mt-1`} />
@@ -93,6 +84,7 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
             </label>
             <button className={buttonClass.secondary}>Show</button>
           </form>
+          <div className="flex flex-wrap items-center justify-between gap-x-4">
           <p role="status" className="text-sm text-ink-soft">
             {paged && rows.length > 0
               ? `Jobs ${(page - 1) * PAGE + 1}–${(page - 1) * PAGE + rows.length}`
@@ -102,6 +94,13 @@ export default async function JobsPage({ searchParams }: { searchParams: Promise
             {email ? " with a customer e-mail that failed to send" : ""}
             {q ? ` matching \u201c${q}\u201d` : ""}, {SORTS[sort].toLowerCase()}.
           </p>
+          {user.role !== "tech" && (
+            // Every page of the list as it is filtered here, for a spreadsheet.
+            <a href={jobsCsvHref({ ...params, sort })} download className="inline-flex min-h-11 items-center text-sm font-semibold text-bay-800 underline">
+              Download CSV
+            </a>
+          )}
+          </div>
           <JobList
             rows={rows}
             caption="Jobs"

@@ -2,8 +2,8 @@ import { z } from "zod";
 import { getDb } from "@/db";
 import { requireStaff } from "@/server/auth/session";
 import { json, readJson, respond } from "@/server/http/respond";
-import { createCoatingRun } from "@/server/records/mutations";
 import { listCoatingRuns } from "@/server/records/queries";
+import { sendCoatingRun } from "@/server/records/run-moves";
 import { coatingRunSchema } from "@/server/records/schemas";
 
 const listFilter = z.object({
@@ -18,11 +18,11 @@ export async function GET(req: Request) {
   });
 }
 
-/** The office sends parts out to a coater. */
+/** The office sends parts out to a coater, and may move the ticked jobs into Outside coating with them. */
 export async function POST(req: Request) {
   return respond(async () => {
     const actor = await requireStaff(req, ["owner", "office"]);
     const input = await readJson(req, coatingRunSchema);
-    return json({ run: await createCoatingRun(getDb(), actor, input) }, { status: 201 });
+    return json(await sendCoatingRun(getDb(), actor, input), { status: 201 });
   });
 }

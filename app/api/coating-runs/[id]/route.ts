@@ -2,8 +2,8 @@ import { getDb } from "@/db";
 import { requireStaff } from "@/server/auth/session";
 import { notFound } from "@/server/http/errors";
 import { json, parseId, readJson, respond } from "@/server/http/respond";
-import { patchCoatingRun } from "@/server/records/mutations";
 import { findCoatingRun } from "@/server/records/queries";
+import { updateCoatingRun } from "@/server/records/run-moves";
 import { coatingRunPatchSchema } from "@/server/records/schemas";
 
 type Ctx = { params: Promise<{ id: string }> };
@@ -21,12 +21,13 @@ export async function GET(req: Request, ctx: Ctx) {
 /**
  * Whoever unloads the parts marks the run received and records the receiving inspection (a tech
  * with the film gauge, or the office); only the office and owner change the coater's promised date.
+ * With the inspection, the jobs ticked move into Install (each through the board's move).
  */
 export async function PATCH(req: Request, ctx: Ctx) {
   return respond(async () => {
     const actor = await requireStaff(req);
     const id = parseId((await ctx.params).id, "Coating run");
     const patch = await readJson(req, coatingRunPatchSchema);
-    return json({ run: await patchCoatingRun(getDb(), actor, id, patch) });
+    return json(await updateCoatingRun(getDb(), actor, id, patch));
   });
 }
