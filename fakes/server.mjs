@@ -336,6 +336,17 @@ function validateEmail(body) {
       }
     }
   }
+  if (body.attachments != null) {
+    if (!Array.isArray(body.attachments)) fail("Invalid `attachments` field: it must be a list.");
+    for (const a of body.attachments) {
+      if (a === null || typeof a !== "object") fail("Invalid `attachments` field: each attachment is an object.");
+      const hasContent = typeof a.content === "string" && a.content !== "";
+      const hasPath = typeof a.path === "string" && a.path !== "";
+      if (!hasContent && !hasPath) fail("Invalid `attachments` field: each attachment needs `content` (base64) or `path`.");
+      if (hasContent && !/^[A-Za-z0-9+/]+={0,2}$/.test(a.content)) fail("Invalid `attachments` field: `content` must be base64.");
+      if (hasContent && (typeof a.filename !== "string" || !a.filename.trim())) fail("Invalid `attachments` field: an attachment sent as `content` needs a `filename`.");
+    }
+  }
   return {
     from: body.from,
     to,

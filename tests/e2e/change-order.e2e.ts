@@ -1,3 +1,4 @@
+import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
 import type { APIRequestContext, Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
@@ -42,6 +43,12 @@ async function mailFor(workOrder: string, startsWith: string): Promise<Mail> {
 
 /** Dollars written by hand from cents, independent of the app's own formatting: 211184 → "$2,111.84". */
 const dollars = (cents: number) => `$${(cents / 100).toLocaleString("en-US", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
+
+/** Serious and critical accessibility findings on the page as it stands. */
+async function axeFindings(page: Page) {
+  const results = await new AxeBuilder({ page }).analyze();
+  return results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").flatMap((v) => v.nodes.map((n) => `${v.id} at ${n.target.join(" ")}`));
+}
 
 const noHorizontalScroll = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth);
 
@@ -138,6 +145,7 @@ describe.skipIf(!enabled)("from quote to approved change order", () => {
     await phone.reload();
     const changeCard = phone.getByRole("article", { name: "Change order version 2" });
     expect(await changeCard.textContent()).toContain(dollars(change.totalCents));
+    expect(await axeFindings(phone)).toEqual([]);
     await changeCard.getByLabel("Your full name").fill("Dana Reyes");
     await changeCard.getByRole("checkbox").check();
     await changeCard.getByRole("button", { name: `Approve ${dollars(change.totalCents)}` }).click();
@@ -150,6 +158,7 @@ describe.skipIf(!enabled)("from quote to approved change order", () => {
 
     await office.reload();
     await expect.poll(() => section.getByTestId("job-price").textContent()).toContain(both);
+    expect(await axeFindings(office)).toEqual([]);
     await shot(office, "job-price-desk");
     await officeContext.close();
 

@@ -189,6 +189,20 @@ describe("e-mail (resend API)", () => {
     expect(await getJson<unknown[]>(`${fake.url}/__fake/emails`)).toHaveLength(0);
   });
 
+  it("keeps attachments the SDK sends (bytes base64, name, type) and refuses one without content or name", async () => {
+    const bytes = Buffer.from("%PDF-1.3 quote");
+    const { error } = await resend().emails.send({ from: OFFICE, to: "fleet@long-haul.example", subject: "Quote", text: "Attached.", attachments: [{ filename: "WO-26-0001-quote-v1.pdf", contentType: "application/pdf", content: bytes }] });
+    expect(error).toBeNull();
+    const [stored] = await getJson<(EmailRecord & { attachments: { filename: string; content: string; content_type: string }[] })[]>(`${fake.url}/__fake/emails`);
+    expect(stored.attachments).toEqual([{ filename: "WO-26-0001-quote-v1.pdf", content: bytes.toString("base64"), content_type: "application/pdf" }]);
+
+    const noContent = await resend().emails.send({ from: OFFICE, to: "fleet@long-haul.example", subject: "Quote", text: "Attached.", attachments: [{ filename: "quote.pdf" }] });
+    expect(noContent.error).toMatchObject({ statusCode: 422, name: "validation_error" });
+    const noName = await resend().emails.send({ from: OFFICE, to: "fleet@long-haul.example", subject: "Quote", text: "Attached.", attachments: [{ content: bytes }] });
+    expect(noName.error).toMatchObject({ statusCode: 422, name: "validation_error" });
+    expect(await getJson<unknown[]>(`${fake.url}/__fake/emails`)).toHaveLength(1);
+  });
+
   it("sends a batch, and refuses a whole strict batch when one message is invalid", async () => {
     const ok = await resend().batch.send([
       { from: OFFICE, to: "a@cold-creek.example", subject: "One", text: "1" },

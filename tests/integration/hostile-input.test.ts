@@ -65,7 +65,7 @@ const hostileString = fc.oneof(
 );
 const hostileNumber = fc.oneof(fc.constantFrom(...NUMBERS), fc.integer(), fc.double());
 const leaf = fc.oneof(hostileString, hostileNumber, fc.boolean(), fc.constant(null));
-const FIELD_NAMES = ["name", "email", "role", "password", "version", "toStage", "stage", "dueOn", "customerId", "truckId", "scope", "description", "notes", "kind", "vin", "unitNumber", "jobId", "partIds", "sentOn", "promisedOn", "receivedOn", "caption", "customerVisible", "active", "enabled", "inputs", "checks", "reason", "override", "id", "quantity", "costCents", "supplier", "orderedOn", "expectedOn", "installed", "labourRateCents", "startedAt", "endedAt", "moveJobIds"];
+const FIELD_NAMES = ["name", "email", "role", "password", "version", "toStage", "stage", "dueOn", "customerId", "truckId", "scope", "description", "notes", "kind", "vin", "unitNumber", "jobId", "partIds", "sentOn", "promisedOn", "receivedOn", "caption", "customerVisible", "active", "enabled", "inputs", "checks", "reason", "override", "id", "quantity", "costCents", "supplier", "orderedOn", "expectedOn", "installed", "labourRateCents", "startedAt", "endedAt", "lines", "replacesId", "quoteId", "decision", "acceptTerms", "moveJobIds"];
 const hostileObject = fc.dictionary(fc.oneof(fc.constantFrom(...FIELD_NAMES), fc.string({ maxLength: 8 })), fc.oneof(leaf, fc.array(leaf, { maxLength: 4 }), fc.dictionary(fc.constantFrom(...FIELD_NAMES), leaf, { maxKeys: 4 })), { maxKeys: 8 });
 
 /** Raw bodies: text a JSON encoder would never write. */

@@ -344,6 +344,13 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
             )}
           </div>
           <p className="text-sm text-ink-soft">Once sent, a version is never changed: a new version replaces it, and the customer can approve only the newest.</p>
+          {editing.quoteId && (
+            <p>
+              <a className="inline-flex min-h-11 items-center font-semibold text-bay-700 underline" href={`/api/quotes/${editing.quoteId}/pdf`} download>
+                Download the saved draft as PDF
+              </a>
+            </p>
+          )}
         </div>
       ) : (
         <div className="flex flex-wrap gap-2">
