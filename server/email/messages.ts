@@ -4,6 +4,8 @@ import type { DB } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
 import { ApiError } from "@/server/http/errors";
 import { parsePayload } from "./dispatcher";
+import { queueQuoteMessage } from "./outbox";
+import { parseQuotePayload } from "./payload";
 import { recipientsFor } from "./recipients";
 
 export type DeliveryState = "sent" | "waiting" | "retrying" | "failed" | "skipped";
@@ -65,6 +67,7 @@ export async function resendMessage(db: DB, actor: StaffUser, outboxId: string) 
   const original = await db.selectFrom("outbox").select(["id", "job_id", "kind", "payload", "replaced_at"]).where("id", "=", outboxId).executeTakeFirst();
   if (!original) throw new ApiError("not_found", "That message was not found.");
   if (original.kind === "link_issued") throw new ApiError("conflict", "A status link e-mail is not sent again: issue a new link and choose to e-mail it to the contacts.");
+  if (original.kind === "quote_sent") return resendQuoteMessage(db, actor, original);
   const payload = parsePayload(original.payload);
   if (original.kind !== "stage_changed" || !payload) throw new ApiError("conflict", "That message cannot be sent again.");
   if (original.replaced_at) throw new ApiError("conflict", "A later move replaced this message, so it is not sent again: it no longer says where the job is. Send the newest message again instead.");
@@ -86,6 +89,24 @@ export async function resendMessage(db: DB, actor: StaffUser, outboxId: string) 
   };
   await db.insertInto("outbox").values(row).execute();
   return (await listMessages(db, original.job_id)).find((m) => m.id === row.id)!;
+}
+
+/**
+ * A quote's e-mail sent again (the customer lost it, or the service refused it): a new row, so a new
+ * key, with the PDF drawn again. Only while that version is the one the customer can see: a version
+ * replaced by a newer one is not sent again.
+ */
+async function resendQuoteMessage(db: DB, actor: StaffUser, original: { id: string; job_id: number; payload: string }) {
+  const payload = parseQuotePayload(original.payload);
+  if (!payload) throw new ApiError("conflict", "That message cannot be sent again.");
+  const quote = await db.selectFrom("quote").select(["status", "version"]).where("id", "=", payload.quoteId).where("job_id", "=", original.job_id).executeTakeFirst();
+  if (!quote || quote.status === "draft") throw new ApiError("conflict", "The quote this e-mail was for no longer exists.");
+  if (quote.status === "superseded") throw new ApiError("conflict", `Version ${quote.version} was replaced by a newer version; send the newest one's e-mail again instead.`);
+  const { emailOff, to } = await recipientsFor(db, original.job_id);
+  if (emailOff) throw new ApiError("conflict", "E-mail is off for this job: switch it on under E-mail settings, then send again.");
+  if (to.length === 0) throw new ApiError("conflict", "Nobody on this job gets e-mail updates: choose a contact with an e-mail address first.");
+  const id = await db.transaction().execute((trx) => queueQuoteMessage(trx, { jobId: original.job_id, quoteId: payload.quoteId, requestedBy: actor.name, at: new Date().toISOString() }));
+  return (await listMessages(db, original.job_id)).find((m) => m.id === id)!;
 }
 
 /**

@@ -40,6 +40,7 @@ const PAGES: PageCase[] = [
   { name: "jobs-past-due", path: "/jobs?due=late&sort=due" },
   { name: "job-new", path: "/jobs/new" },
   { name: "job", path: async (p) => `/jobs/${(await firstJob(p)).id}` },
+  { name: "shop-sheet", path: async (p) => `/jobs/${(await firstJob(p)).id}/sheet` },
   { name: "customers", path: "/customers" },
   { name: "customer-new", path: "/customers/new" },
   { name: "customer", path: async (p) => `/customers/${(await firstJob(p)).customerId}` },

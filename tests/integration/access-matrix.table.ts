@@ -74,6 +74,7 @@ export const ACCESS_MATRIX: Row[] = [
   officePage("PAGE /customers/new"),
   staffPage("PAGE /jobs"),
   staffPage("PAGE /jobs/[id]"),
+  staffPage("PAGE /jobs/[id]/sheet"),
   officePage("PAGE /jobs/new"),
   ownerPage("PAGE /staff"),
   ownerPage("PAGE /audit"),

@@ -6,6 +6,7 @@ import * as customerPdf from "@/app/(public)/status/[token]/quote/[quoteId]/pdf/
 import * as jobQuotes from "@/app/api/jobs/[id]/quotes/route";
 import * as staffPdf from "@/app/api/quotes/[id]/pdf/route";
 import * as sendRoute from "@/app/api/quotes/[id]/send/route";
+import * as resendRoute from "@/app/api/messages/[id]/resend/route";
 import { type Fakes, startFakes } from "@/fakes/server.mjs";
 import { dispatchDueOutbox } from "@/server/email/dispatcher";
 import { type EmailSender, resendSender } from "@/server/email/sender";
@@ -131,6 +132,26 @@ describe("the quote e-mail", () => {
     expect(sent).toHaveLength(1);
     expect(Buffer.from(sent[0].attachments![0].content, "base64").equals(Buffer.from(stored.content))).toBe(true);
     expect(sent[0].idempotencyKey).toBe(outboxId);
+  });
+
+  it("a refused e-mail can be sent again from the job's messages, with its PDF, until a newer version replaces it", async () => {
+    const { cookie, create, send } = await setUp();
+    const first = (await readBody(await send((await create()).id))).outboxId as string;
+    await fetch(`${fake.url}/__fake/fail-emails`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ count: 1, status: 422 }) });
+    expect((await dispatchDueOutbox(db(), new Date(), sender)).failed).toBe(1);
+    const again = await resendRoute.POST(request(`/api/messages/${first}/resend`, { cookie, body: {} }), params({ id: first }));
+    expect(again.status).toBe(201);
+    const { message } = await readBody(again);
+    expect(message.kind).toBe("quote_sent");
+    expect((await dispatchDueOutbox(db(), new Date(), sender)).sent).toBe(1);
+    const [mail] = await mails();
+    expect(mail.idempotencyKey).toBe(message.id);
+    expect(mail.attachments?.[0].filename).toMatch(/-quote-v1\.pdf$/);
+
+    await send((await create()).id);
+    const refused = await resendRoute.POST(request(`/api/messages/${first}/resend`, { cookie, body: {} }), params({ id: first }));
+    expect(refused.status).toBe(409);
+    expect((await readBody(refused)).error.message).toMatch(/replaced by a newer version/);
   });
 
   it("with nobody getting e-mail updates the quote is still sent and its e-mail is skipped with the reason", async () => {

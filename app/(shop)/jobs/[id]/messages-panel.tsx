@@ -341,7 +341,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
                 )}
                 {(m.state === "failed" || m.state === "skipped") && m.reason && <p className={`text-sm ${m.state === "failed" ? "text-stop-700" : "text-ink-soft"}`}>{m.reason}</p>}
                 {m.state === "sent" && m.reason && <p className="text-sm text-ink-soft">{m.reason}</p>}
-                {office && m.kind === "stage_changed" && !m.replaced && m.state !== "waiting" && m.state !== "retrying" && (
+                {office && (m.kind === "stage_changed" || m.kind === "quote_sent") && !m.replaced && m.state !== "waiting" && m.state !== "retrying" && (
                   <button type="button" className={buttonClass.secondary} disabled={busy === m.id} onClick={() => act(m.id, "resend")}>
                     {busy === m.id ? "Sending…" : "Send again"}
                   </button>

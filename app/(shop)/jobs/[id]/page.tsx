@@ -3,7 +3,6 @@ import { showStoredDate } from "@/server/http/calendar-date";
 import Link from "next/link";
 import { Suspense } from "react";
 import { notFound } from "next/navigation";
-import { PrintButton } from "@/components/print-button";
 import { Section, SectionLoading } from "@/components/section";
 import { StageBadge } from "@/components/stage-badge";
 import { getDb } from "@/db";
@@ -58,7 +57,9 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
             <span className="text-ink-soft">Unit {job.unitNumber} · VIN {job.vin} · {job.truckYear} {job.truckDescription}</span>
           </p>
         </div>
-        <PrintButton />
+        <Link href={`/jobs/${job.id}/sheet`} className="no-print inline-flex min-h-11 items-center rounded-md border border-line bg-panel px-3 font-semibold hover:bg-bay-50">
+          Print shop sheet
+        </Link>
       </div>
 
       {/* On a phone the move comes first (the bench's most common action); on a desk it sits top right. */}
