@@ -168,6 +168,10 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     await expect.poll(() => money.getByTestId("money-words").textContent()).toContain("Balance due $516.37");
     expect(await money.getByTestId("invoice").textContent()).toMatch(/Invoice INV-\d{2}-\d{4} · open/);
     await shot(office, "money-invoice-open-desk");
+    // The invoice went to the customer by e-mail with its PDF and the way to pay.
+    await expect.poll(async () => ((await (await fetch(`${inject("fakesUrl")}/__fake/emails`)).json()) as { subject: string; attachments: { filename: string }[] | null }[]).find((m) => m.subject.startsWith("Invoice INV-") && m.subject.includes(job.workOrder))?.attachments?.[0]?.filename, { timeout: 20_000 }).toMatch(new RegExp(`^${job.workOrder}-invoice-INV-\\d{2}-\\d{4}\\.pdf$`));
+    await office.reload();
+    await office.locator("#messages").getByText("Invoice with its PDF").first().waitFor();
     await phone.goto(link.url.replace(/^https?:\/\/[^/]+/, baseUrl()));
     const payBalance = phone.getByRole("button", { name: "Pay the balance $516.37" });
     await payBalance.click();
