@@ -43,6 +43,9 @@ export function PaySection({ token, payment, returned }: { token: string; paymen
     }
   }
 
+  // A quote that asked no deposit and no invoice yet: nothing to say about paying.
+  if (!payment.invoice && !payment.deposit && !returned) return null;
+
   const payButton = (purpose: "deposit" | "invoice", cents: number, words: string) =>
     payment.online ? (
       <button type="button" className={`${buttonClass.primary} mt-3 w-full`} disabled={pending} onClick={() => void pay(purpose)}>
