@@ -11,7 +11,7 @@ export interface NavItem {
 }
 
 /**
- * The main menu. From 1280 px up it is one row beside the mark; below that a Menu button opens
+ * The main menu. From 1280 px up it is one row (beside the mark from 1440 px); below that a Menu button opens
  * the whole list (each item a full-width 44 px row), so nothing hides off the side of a phone.
  */
 export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
@@ -63,7 +63,7 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
                     href={item.href}
                     aria-current={active ? "page" : undefined}
                     onClick={() => setOpen(false)}
-                    className={`flex min-h-11 items-center whitespace-nowrap rounded-md px-3 font-semibold xl:px-2 2xl:px-3 ${active ? "bg-bay-700 text-white" : "text-bay-900 hover:bg-bay-100"}`}
+                    className={`flex min-h-11 items-center whitespace-nowrap rounded-md px-3 font-semibold xl:px-1.5 2xl:px-3 ${active ? "bg-bay-700 text-white" : "text-bay-900 hover:bg-bay-100"}`}
                   >
                     {item.label}
                   </Link>
@@ -81,7 +81,16 @@ export function ShellNav({ items, who }: { items: NavItem[]; who: string }) {
             data-testid="signed-in-as"
             title="Your account: password and signed-in devices"
           >
-            {who}
+            {/* On the desk's one-row menu the name and role stack on two lines rather than wrap anywhere. */}
+            <span className="xl:flex xl:flex-col xl:leading-tight">
+              <span className="whitespace-nowrap">{who.split(" · ")[0]}</span>
+              {who.includes(" · ") && (
+                <span className="whitespace-nowrap">
+                  <span className="xl:hidden"> · </span>
+                  <span className="xl:text-xs">{who.split(" · ").slice(1).join(" · ")}</span>
+                </span>
+              )}
+            </span>
             <span className="sr-only">: your account</span>
           </Link>
           <SignOutButton />
@@ -96,7 +105,7 @@ export function SignOutButton() {
   return (
     <button
       type="button"
-      className="min-h-11 rounded-md px-3 font-semibold text-bay-900 hover:bg-bay-100"
+      className="min-h-11 whitespace-nowrap rounded-md px-3 font-semibold text-bay-900 hover:bg-bay-100"
       onClick={async () => {
         await api("/api/session", { method: "DELETE" }).catch(() => undefined);
         router.replace("/sign-in");

@@ -159,7 +159,7 @@ export interface OutboxTable {
   id: string;
   job_id: number;
   /** `stage_changed`: the job reached a stage; `link_issued`: the office e-mails a new status link; `quote_sent`: a quote or change order went to the customer. */
-  kind: "stage_changed" | "link_issued" | "quote_sent";
+  kind: "stage_changed" | "link_issued" | "quote_sent" | "invoice_sent";
   payload: string;
   status: "pending" | "sent" | "failed" | "skipped";
   attempts: number;

@@ -6,6 +6,7 @@ import { formatWorkOrder } from "@/server/jobs/work-order";
 import { withCheckDigit } from "@/server/vehicles/vin";
 import type { DB } from "./index";
 import { seedMoney } from "./seed-money";
+import { seedPayments } from "./seed-payments";
 import { seedBoughtParts } from "./seed-bought-parts";
 import { seedLabour } from "./seed-labour";
 import { seedRecords } from "./seed-records";
@@ -127,6 +128,7 @@ export async function seedDemo(db: DB, password = process.env.DEMO_PASSWORD || D
     await trx.updateTable("shop").set({ next_work_order: seq }).where("id", "=", 1).execute();
     await seedRecords(trx, today);
     await seedMoney(trx, today);
+    await seedPayments(trx, today);
     await seedBoughtParts(trx, today);
     await seedLabour(trx, today);
   });

@@ -11,8 +11,9 @@ import { REPLACED_BY_LATER_MOVE } from "./outbox";
 import { quoteDocument, quotePdfName } from "@/server/money/quote-pdf";
 import { renderMoneyPdf } from "@/server/money/pdf";
 import { fromThousandths } from "@/server/money/totals";
-import { type LinkIssuedPayload, type QuoteSentPayload, type StageChangedPayload, parseLinkPayload, parsePayload, parseQuotePayload } from "./payload";
-import { renderLinkEmail, renderQuoteEmail, renderStageEmail, withStatusLink } from "./render";
+import { invoiceDocument, invoicePdfName } from "@/server/money/invoice-pdf";
+import { type InvoiceSentPayload, type LinkIssuedPayload, type QuoteSentPayload, type StageChangedPayload, parseInvoicePayload, parseLinkPayload, parsePayload, parseQuotePayload } from "./payload";
+import { renderInvoiceEmail, renderLinkEmail, renderQuoteEmail, renderStageEmail, withStatusLink } from "./render";
 import type { EmailSender, SendResult } from "./sender";
 import { notifySettings } from "./settings";
 
@@ -122,7 +123,11 @@ function sameAddresses(a: string[], b: string[]) {
 
 export const NEW_LINK_TURNED_OFF = "The office turned off this status link before the e-mail went out; issue a new link to send one.";
 
-type Work = { kind: "stage_changed"; payload: StageChangedPayload } | { kind: "link_issued"; payload: LinkIssuedPayload } | { kind: "quote_sent"; payload: QuoteSentPayload };
+type Work =
+  | { kind: "stage_changed"; payload: StageChangedPayload }
+  | { kind: "link_issued"; payload: LinkIssuedPayload }
+  | { kind: "quote_sent"; payload: QuoteSentPayload }
+  | { kind: "invoice_sent"; payload: InvoiceSentPayload };
 
 /** A file made for a message before its first rendering (outside any transaction) and stored with it. */
 interface NewAttachment {
@@ -145,6 +150,10 @@ function readWork(row: ClaimedRow): Work | null {
   if (row.kind === "quote_sent") {
     const payload = parseQuotePayload(row.payload);
     return payload ? { kind: "quote_sent", payload } : null;
+  }
+  if (row.kind === "invoice_sent") {
+    const payload = parseInvoicePayload(row.payload);
+    return payload ? { kind: "invoice_sent", payload } : null;
   }
   return null;
 }
@@ -208,6 +217,8 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachme
       if (!quote || quote.status === "draft") return { skip: "The quote this e-mail was for no longer exists." };
       if (quote.status === "superseded" && !stored) return { skip: QUOTE_REPLACED };
     }
+    const invoice = work.kind === "invoice_sent" ? await invoiceDocument(trx, work.payload.invoiceId) : null;
+    if (work.kind === "invoice_sent" && (!invoice || invoice.status === "void")) return { skip: "The invoice this e-mail was for was voided before it went out." };
     if (to.length === 0) return { skip: "Nobody on this job gets e-mail updates: choose a contact with an e-mail address." };
 
     const link =
@@ -252,6 +263,8 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachme
                 depositCents: quote.deposit_cents,
               },
             })
+          : work.kind === "invoice_sent" && invoice
+            ? renderInvoiceEmail({ ...common, pdfName: invoicePdfName(invoice.workOrder, invoice.number), invoice: { number: invoice.number, figures: invoice.doc } })
           : work.kind === "stage_changed"
             ? renderStageEmail({ ...common, from: work.payload.from, to: work.payload.to, readyBy: job.due_on })
             : null;
@@ -312,6 +325,11 @@ async function deliver(db: DB, row: ClaimedRow, now: Date, sender: EmailSender):
     const already = await db.selectFrom("email_attachment").select("position").where("outbox_id", "=", row.id).executeTakeFirst();
     const found = already ? null : await quoteDocument(db, work.payload.quoteId);
     if (found) attachment = { filename: quotePdfName(found.workOrder, found.meta.kind, found.meta.version), contentType: "application/pdf", content: await renderMoneyPdf(found.doc) };
+  }
+  if (work.kind === "invoice_sent") {
+    const already = await db.selectFrom("email_attachment").select("position").where("outbox_id", "=", row.id).executeTakeFirst();
+    const found = already ? null : await invoiceDocument(db, work.payload.invoiceId);
+    if (found && found.status !== "void") attachment = { filename: invoicePdfName(found.workOrder, found.number), contentType: "application/pdf", content: await renderMoneyPdf(found.doc) };
   }
   const prepared = await prepare(db, row, work, at, attachment);
   if ("skip" in prepared) {

@@ -126,3 +126,24 @@ export async function queueQuoteMessage(trx: Trx, input: { jobId: number; quoteI
     .execute();
   return id;
 }
+
+/** The invoice's e-mail, in the transaction that made the invoice; it goes out at once (no quiet period). */
+export async function queueInvoiceMessage(trx: Trx, input: { jobId: number; invoiceId: number; requestedBy: string; at: string }): Promise<string> {
+  const id = randomUUID();
+  await trx
+    .insertInto("outbox")
+    .values({
+      id,
+      job_id: input.jobId,
+      kind: "invoice_sent",
+      payload: JSON.stringify({ invoiceId: input.invoiceId, requestedBy: input.requestedBy }),
+      status: "pending",
+      attempts: 0,
+      next_attempt_at: input.at,
+      last_error: null,
+      created_at: input.at,
+      sent_at: null,
+    })
+    .execute();
+  return id;
+}

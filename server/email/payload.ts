@@ -21,6 +21,22 @@ export interface QuoteSentPayload {
   requestedBy: string;
 }
 
+/** An invoice made when the job reached Ready for pickup: the e-mail carries its PDF and the way to pay. */
+export interface InvoiceSentPayload {
+  invoiceId: number;
+  requestedBy: string;
+}
+
+export function parseInvoicePayload(raw: string): InvoiceSentPayload | null {
+  try {
+    const p = JSON.parse(raw) as Partial<InvoiceSentPayload>;
+    if (typeof p.invoiceId !== "number" || !Number.isInteger(p.invoiceId) || typeof p.requestedBy !== "string") return null;
+    return { invoiceId: p.invoiceId, requestedBy: p.requestedBy };
+  } catch {
+    return null;
+  }
+}
+
 export function parseQuotePayload(raw: string): QuoteSentPayload | null {
   try {
     const p = JSON.parse(raw) as Partial<QuoteSentPayload>;

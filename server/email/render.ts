@@ -1,6 +1,6 @@
 import { format, parseISO } from "date-fns";
 import type { Stage } from "@/db/schema";
-import { type FigureRow, figureRows } from "@/server/money/document";
+import { type DocumentFigures, type FigureRow, figureRows } from "@/server/money/document";
 import { formatCents } from "@/server/money/totals";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened, whereItIsNow } from "@/server/status/words";
 
@@ -179,6 +179,30 @@ export function renderStageEmail(input: StageEmailInput): RenderedEmail {
     lines: [whatHappened(input.from, input.to, input.route), whatComesNext(input.to, input.route, input.linkDays)],
     strong: readyLine,
     ...linkWords(input.photosShared),
+  });
+}
+
+export interface InvoiceEmailInput extends CommonEmailInput {
+  invoice: { number: string; figures: DocumentFigures };
+  pdfName: string;
+}
+
+/** The invoice when the job is ready for pickup: the figures, the PDF, and where to pay the balance. */
+export function renderInvoiceEmail(input: InvoiceEmailInput): RenderedEmail {
+  const due = input.invoice.figures.balanceCents ?? 0;
+  return frame(input, {
+    subject: `Invoice ${input.invoice.number} · balance ${formatCents(due)} · ${jobLine(input.job)}`,
+    heading: `Invoice ${input.invoice.number}`,
+    lines: [
+      "Your truck is ready for pickup. Here is the invoice for the approved work, with the deposit and anything paid since taken off.",
+      `The invoice is attached as a PDF (${input.pdfName}).`,
+      due > 0 ? "You can pay the balance by card on your truck's status page, or by check or at the counter when you collect it." : "Nothing is owed: thank you.",
+    ],
+    strong: null,
+    figures: figureRows(input.invoice.figures),
+    linkIntro: due > 0 ? "See the invoice and pay the balance here:" : "See the invoice here:",
+    button: due > 0 ? `Pay ${formatCents(due)}` : "See the invoice",
+    linkSuffix: "",
   });
 }
 

@@ -8,6 +8,7 @@ import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
 import { loadGateRecords } from "./gate-records";
 import { nextGateState } from "./gates";
+import { moneyWords } from "@/server/money/state";
 import { likelyMissesDue } from "./prediction";
 import { predictionContext, predictionOf } from "./prediction-queries";
 import type { BoardFilter } from "./schemas";
@@ -33,6 +34,8 @@ export interface BoardCard {
   coating: { overdue: boolean; vendorName: string; promisedOn: string } | null;
   /** Bought-in parts not yet received, by description ("waiting on 2 parts"). */
   waitingParts: string[];
+  /** The money state in words ("Quote sent", "Deposit paid", "Balance due $1,234.00"), or null before any quote. */
+  money: string | null;
   /** The likely ready date when it falls after the due date ("likely late"), from the shop's stage-time history; null otherwise. */
   likelyLate: { likelyOn: string; lateOn: string } | null;
 }
@@ -120,6 +123,7 @@ export async function loadBoard(db: DB, filter: BoardFilter, now = new Date()): 
       gate: gate ? { stage: gate.gate, label: STAGE_LABELS[gate.gate], unmet: gate.unmet } : null,
       coating: coatingFlag,
       waitingParts: (jobRecords.waitingBoughtParts ?? []).map((p) => p.description),
+      money: jobRecords.money ? moneyWords(jobRecords.money) : null,
       likelyLate: prediction?.kind === "estimate" && likelyMissesDue(prediction, r.due_on) ? { likelyOn: prediction.likelyOn, lateOn: prediction.lateOn } : null,
     };
   });

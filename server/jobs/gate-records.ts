@@ -1,5 +1,6 @@
 import "server-only";
 import type { DB } from "@/db";
+import { loadJobMoney } from "@/server/money/job-money";
 import { waitingBoughtParts } from "@/server/parts/queries";
 import { partStatuses, signOffStates } from "@/server/records/queries";
 import type { GateRecords } from "./gates";
@@ -43,6 +44,10 @@ export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promis
         adhesionFailed: inspected && part.adhesion_ok === 0,
       });
     }
+  }
+  for (const [jobId, money] of await loadJobMoney(db, jobIds)) {
+    const job = records.get(jobId);
+    if (job) job.money = money;
   }
   for (const [jobId, signOff] of signOffs) {
     const job = records.get(jobId);

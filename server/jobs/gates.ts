@@ -1,4 +1,5 @@
 import type { JobScope, Stage } from "@/db/schema";
+import { type JobMoney, moneyBeforeDeliveryUnmet, moneyBeforeWorkUnmet } from "@/server/money/state";
 import { type BoughtWaiting, waitingWords } from "@/server/parts/rules";
 import { STAGE_LABELS, stageIndex, stagesFor } from "./stages";
 
@@ -14,16 +15,25 @@ export interface GateRecords {
   signOff: { complete: boolean; missing: string[] } | null;
   /** Bought-in parts not yet received in full (absent: none listed). */
   waitingBoughtParts?: BoughtWaiting[];
+  /** Where the job stands with its money (absent: the money checks do not apply). */
+  money?: JobMoney;
 }
 
 export const NO_RECORDS: GateRecords = { partCount: 0, leakTestParts: [], coatedParts: [], signOff: null };
 
-export type GatedStage = "coating" | "install" | "ready";
-export const GATED_STAGES: readonly GatedStage[] = ["coating", "install", "ready"];
+export type GatedStage = "fabricate" | "coating" | "install" | "ready" | "delivered";
+export const GATED_STAGES: readonly GatedStage[] = ["fabricate", "coating", "install", "ready", "delivered"];
 
-/** Unmet conditions of one gate, in plain words a tech can act on. */
-export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
+/**
+ * Unmet conditions of one gate, in plain words a tech can act on. Money before work sits on the
+ * first working stage of the job's route: Fabricate, or Install for install-only work.
+ */
+export function gateUnmet(gate: GatedStage, records: GateRecords, scope: JobScope = "fabrication"): string[] {
   switch (gate) {
+    case "fabricate":
+      return records.money ? moneyBeforeWorkUnmet(records.money) : [];
+    case "delivered":
+      return records.money ? moneyBeforeDeliveryUnmet(records.money) : [];
     case "coating":
       // The coating gate sits only on the fabrication route, so a job here must have parts to show for it.
       if (records.partCount === 0) return ["No fabricated parts are recorded on this job yet: add them under Parts (or make the job install only)."];
@@ -37,7 +47,11 @@ export function gateUnmet(gate: GatedStage, records: GateRecords): string[] {
               : `${p.name}: record a passing leak test${p.reworked ? " (none since its last rework)" : ""}.`,
         );
     case "install":
-      return [...coatingUnmet(records), ...(records.waitingBoughtParts ?? []).map((p) => waitingWords(p))];
+      return [
+        ...(scope === "install_only" && records.money ? moneyBeforeWorkUnmet(records.money) : []),
+        ...coatingUnmet(records),
+        ...(records.waitingBoughtParts ?? []).map((p) => waitingWords(p)),
+      ];
     case "ready":
       if (!records.signOff) return ["Wiring & run-test sign-off: not started."];
       return records.signOff.complete ? [] : records.signOff.missing.map((m) => `Sign-off: ${m}`);
@@ -90,8 +104,9 @@ export function checkMove(from: Stage, to: Stage, scope: JobScope, records: Gate
 }
 
 function gatesUpTo(to: Stage, route: Stage[], records: GateRecords): string[] {
+  const scope: JobScope = route.includes("fabricate") ? "fabrication" : "install_only";
   return GATED_STAGES.filter((g) => route.includes(g) && stageIndex(g) <= stageIndex(to)).flatMap((g) =>
-    gateUnmet(g, records).map((m) => `Into ${STAGE_LABELS[g]}: ${m}`),
+    gateUnmet(g, records, scope).map((m) => `Into ${STAGE_LABELS[g]}: ${m}`),
   );
 }
 
@@ -101,7 +116,9 @@ function gatesUpTo(to: Stage, route: Stage[], records: GateRecords): string[] {
  */
 export function nextGateState(stage: Stage, scope: JobScope, records: GateRecords): { gate: GatedStage; unmet: string[] } | null {
   const route = stagesFor(scope);
-  const next = GATED_STAGES.find((g) => route.includes(g) && stageIndex(g) > stageIndex(stage));
+  // Fabricate and Delivered ask only about money: with the shop's money checks off they ask nothing.
+  const moneyOn = records.money?.checksOn === true;
+  const next = GATED_STAGES.find((g) => route.includes(g) && stageIndex(g) > stageIndex(stage) && (moneyOn || (g !== "fabricate" && g !== "delivered")));
   if (!next) return null;
   return { gate: next, unmet: gatesUpTo(next, route, records) };
 }

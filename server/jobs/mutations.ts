@@ -6,6 +6,7 @@ import type { StaffUser } from "@/server/auth/session";
 import { recordAudit } from "@/server/audit/record";
 import { queueStageMessage } from "@/server/email/outbox";
 import { ApiError } from "@/server/http/errors";
+import { issueInvoice } from "@/server/money/invoices";
 import { loadGateRecords } from "./gate-records";
 import { checkMove, GATED_STAGES, NO_RECORDS } from "./gates";
 import { findJob } from "./queries";
@@ -194,6 +195,8 @@ export async function moveJob(db: DB, actor: StaffUser, id: number, move: MoveIn
       .executeTakeFirstOrThrow();
     // The customer hears about stage changes only, after the quiet period (server/email/outbox.ts).
     await queueStageMessage(trx, { jobId: id, from: job.stage, to: move.toStage, at });
+    // Reaching Ready for pickup (or past it) makes the job's invoice; the office sends it from the job page.
+    if (stageIndex(move.toStage) >= stageIndex("ready") && stageIndex(job.stage) < stageIndex("ready")) await issueInvoice(trx, id, at, actor.id);
     if (overrideReason) await auditOverride(trx, actor, id, job.stage, move.toStage, check.unmet, overrideReason, at);
     return event.id;
   });

@@ -3,6 +3,7 @@ import Database from "better-sqlite3";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+import { readyForWork } from "./money-helpers";
 
 const enabled = Boolean(baseUrl());
 
@@ -72,6 +73,8 @@ async function wireJobWithoutSignOff(browser: Browser): Promise<string> {
   const created = await post("/api/jobs", { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `Dash indicator rewire ${Date.now().toString(36)}` });
   expect(created.status(), await created.text()).toBe(201);
   let job = (await created.json()).job as { id: number; workOrder: string; version: number };
+  // Money is not the subject: an approved quote and its deposit let it into Install.
+  await readyForWork(page.request, job.id);
   for (const toStage of ["install", "wire"]) {
     const moved = await post(`/api/jobs/${job.id}/moves`, { toStage, version: job.version });
     expect(moved.status(), await moved.text()).toBe(200);
@@ -283,8 +286,16 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     await page.getByRole("button", { name: "Clear filters" }).click();
     await filterButton.click();
 
-    const card = page.locator('ul[data-stage="queued"] > li[data-card]:has(option[value="fabricate"])').first();
-    const wo = (await card.getAttribute("data-card"))!;
+    // A queued job of its own whose quote is approved and deposit paid, so Fabricate has what it needs.
+    const officeContext = await browser.newContext(DESK);
+    const officePage = await signIn(officeContext, "office");
+    const anyJob = (await (await officePage.request.get(`${baseUrl()}/api/jobs`)).json()).jobs[0] as { customerId: number; truckId: number };
+    const created = (await (await officePage.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "fabrication", description: "Hose tray for the phone move" } })).json()).job as { id: number; workOrder: string };
+    await readyForWork(officePage.request, created.id);
+    await officeContext.close();
+    await page.reload();
+    const wo = created.workOrder;
+    const card = page.locator(`ul[data-stage="queued"] > li[data-card="${wo}"]`);
     await card.locator("select").selectOption("fabricate");
     await card.getByRole("button", { name: `Move ${wo} to Fabricate` }).click();
     await waitForCard(page, wo, "fabricate");

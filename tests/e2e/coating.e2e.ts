@@ -1,6 +1,7 @@
 import type { APIRequestContext, Browser, Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+import { readyForWork } from "./money-helpers";
 
 const enabled = Boolean(baseUrl());
 // A gauge calibrated two months ago: inside the yearly recalibration whatever day the suite runs.
@@ -80,6 +81,8 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
         (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: t.customerId, truckId: t.truckId, scope: "fabrication", description: `Wet kit ${suffix}-${i}` } }), 201)).job as { id: number; workOrder: string },
       ),
     );
+    // Money is not the subject: each has an approved quote and its deposit in.
+    for (const job of [jobA, jobB]) await readyForWork(desk.request, job.id);
     const tankA = `Round reservoir ${suffix}-A`;
     const tankB = `Round reservoir ${suffix}-B`;
 
@@ -245,6 +248,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
       const tank = `Tank ${suffix}-${i}`;
       const part = (await post(`/api/jobs/${job.id}/parts`, { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" }, 201)).part;
       await post(`/api/parts/${part.id}/leak-tests`, { method: "both", testPressurePsig: 4, gaugeFullScalePsi: 10, gaugeCalibratedOn: calibratedOn, holdMinutes: 20, startPressurePsig: 4, endPressurePsig: 4, startTempF: 70, endTempF: 70, seams: [{ location: "Sump to shell", result: "pass" }], tester: "Tobin Reyes" }, 201);
+      await readyForWork(desk.request, job.id);
       await post(`/api/jobs/${job.id}/moves`, { toStage: "pressure_test", version: await version(desk.request, job.id) });
       made.push({ ...job, tank });
     }
@@ -324,6 +328,7 @@ describe.skipIf(!enabled)("outside coating in Chromium", () => {
     const job = (await json(await desk.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: truck.customerId, truckId: truck.truckId, scope: "fabrication", description: `Spare tank ${Date.now().toString(36)}` } }), 201)).job as { id: number; workOrder: string };
     const tank = `Round reservoir ${job.workOrder}`;
     await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/parts`, { headers: { origin: baseUrl() }, data: { name: tank, kind: "reservoir", material: "aluminum", needsLeakTest: true, needsCoating: true, shape: "round" } }), 201);
+    await readyForWork(desk.request, job.id);
     await json(await desk.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage: "fabricate", version: await version(desk.request, job.id) } }));
 
     // The fabricator opens the job at the bench while it is still in Fabricate…

@@ -2,6 +2,7 @@ import Database from "better-sqlite3";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+import { readyForWork } from "./money-helpers";
 
 const enabled = Boolean(baseUrl());
 
@@ -91,6 +92,8 @@ describe.skipIf(!enabled)("customer e-mail and the status page follow the job's 
       const res = await office.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers: { origin: baseUrl() }, data: { toStage, version: current.version } });
       expect(res.status(), await res.text()).toBe(200);
     };
+    // Money is not the subject: the customer approved a quote on this link and the deposit is in.
+    await readyForWork(office.request, job.id, url);
     const movedAt = new Date().toISOString();
     await move("fabricate");
     await move("pressure_test");

@@ -133,6 +133,13 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     await desk.getByText("Now in Queued.").waitFor();
     await shot(desk, "empty-shop-job-queued-desk");
 
+    // This shop has no price list yet and takes no deposits: the owner turns the money checks off on Prices.
+    await desk.goto(`${url()}/prices`);
+    await desk.getByRole("checkbox", { name: /Money checks before work and delivery/ }).uncheck();
+    await desk.getByText("Saved: off.").waitFor();
+    await desk.goto(`${url()}${jobPath}`);
+    await desk.getByText("Now in Queued.").waitFor();
+
     // Fabricate: the tank goes on the job.
     await moveTo(desk, "Fabricate");
     await desk.getByRole("button", { name: "+ Add a part" }).click();

@@ -1,5 +1,5 @@
 import type { APIRequestContext, Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
 
 const enabled = Boolean(baseUrl());
@@ -100,5 +100,94 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     expect(await phone.getByText(`Quote version 1: approved by Dana Reyes`).count()).toBe(1);
     await shot(phone, "quote-customer-approved-phone");
     await customer.close();
+  });
+
+  it("from quote to paid: the customer approves and pays the deposit on a phone, the card says so and moves into Fabricate, and at Ready the invoice is paid the same way", { timeout: 120_000 }, async () => {
+    const suffix = Date.now().toString(36).slice(-4).toUpperCase();
+    const headers = { origin: baseUrl() };
+    const officeContext = await browser.newContext(DESK);
+    const office = await signIn(officeContext, "office");
+    const api = office.request;
+    const anyJob = (await json<{ jobs: { customerId: number; truckId: number }[] }>(await api.get(`${baseUrl()}/api/jobs`))).jobs[0];
+    const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "fabrication", description: `Hose tray and bracket ${suffix}` } }), 201)).job as { id: number; workOrder: string };
+    const link = (await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/status-links`, { headers }), 201)).link as { url: string };
+    // $800.00 of labour (no tax) and a $215.00 part taxed at the demo's 8.25 %: 17.7375 → $17.74;
+    // total $1,032.74; half of it, $516.37, is the deposit.
+    const lines = [
+      { kind: "labour", description: "Fabricate and mount", quantity: 6.4, unitPriceCents: 12_500, taxable: false },
+      { kind: "part", description: "Breakaway coupler set", quantity: 1, unitPriceCents: 21_500, taxable: true },
+    ];
+    await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/quotes`, { headers, data: { lines } }), 201);
+
+    // The office sends it from the job page.
+    await office.goto(`${baseUrl()}/jobs/${job.id}`);
+    const quoteSection = office.locator("#quote");
+    await quoteSection.getByRole("button", { name: "Send to the customer" }).click();
+    await expect.poll(() => quoteSection.getByRole("status").textContent()).toContain("Version 1 sent");
+    await expect.poll(async () => (await (await api.get(`${baseUrl()}/api/board`)).json()).cards.find((c: { id: number }) => c.id === job.id)?.money).toBe("Quote sent");
+
+    // The truck owner, on a phone with no sign-in, approves and pays the deposit on the service's page.
+    const customer = await browser.newContext(PHONE);
+    const phone = await customer.newPage();
+    await phone.goto(link.url.replace(/^https?:\/\/[^/]+/, baseUrl()));
+    const card = phone.getByRole("article", { name: "Quote version 1" });
+    await card.getByLabel("Your full name").fill("Dana Reyes");
+    await card.getByRole("checkbox").check();
+    await card.getByRole("button", { name: "Approve $1,032.74" }).click();
+    const payDeposit = phone.getByRole("button", { name: "Pay the deposit $516.37" });
+    await payDeposit.waitFor();
+    await shot(phone, "money-deposit-due-phone");
+    await payDeposit.click();
+    await phone.waitForURL((u) => u.href.startsWith(inject("fakesUrl")));
+    await phone.getByRole("button", { name: "Pay 516.37 USD" }).waitFor();
+    await shot(phone, "money-hosted-checkout-phone");
+    await phone.getByRole("button", { name: "Pay 516.37 USD" }).click();
+    await phone.waitForURL((u) => u.href.startsWith(baseUrl()) && u.searchParams.get("paid") === "deposit");
+    await phone.getByText("Deposit paid: $516.37").waitFor({ timeout: 30_000 });
+    await shot(phone, "money-deposit-paid-phone");
+
+    // The card says so, and the job moves into Fabricate from its "Move to…" list.
+    await office.goto(`${baseUrl()}/board`);
+    const boardCard = office.locator(`li[data-card="${job.workOrder}"]`);
+    await expect.poll(() => boardCard.locator("[data-money]").textContent()).toBe("Deposit paid");
+    await boardCard.locator("select").selectOption("fabricate");
+    await boardCard.getByRole("button", { name: `Move ${job.workOrder} to Fabricate` }).click();
+    await office.locator(`ul[data-stage="fabricate"] > li[data-card="${job.workOrder}"]`).waitFor();
+    await shot(office, "money-board-deposit-paid-desk");
+
+    // The shop's records are not the subject here: the owner takes it on to Ready for pickup with a reason.
+    const ownerContext = await browser.newContext(DESK);
+    const owner = await signIn(ownerContext, "owner");
+    const current = (await json(await owner.request.get(`${baseUrl()}/api/jobs/${job.id}`))).job as { version: number };
+    await json(await owner.request.post(`${baseUrl()}/api/jobs/${job.id}/moves`, { headers, data: { toStage: "ready", version: current.version, override: { reason: "Records kept on paper for this small job" } } }));
+    await ownerContext.close();
+
+    // At Ready the invoice is out; the customer pays the balance the same way.
+    await office.goto(`${baseUrl()}/jobs/${job.id}`);
+    const money = office.locator("#money");
+    await expect.poll(() => money.getByTestId("money-words").textContent()).toContain("Balance due $516.37");
+    expect(await money.getByTestId("invoice").textContent()).toMatch(/Invoice INV-\d{2}-\d{4} · open/);
+    await shot(office, "money-invoice-open-desk");
+    // The invoice went to the customer by e-mail with its PDF and the way to pay.
+    await expect.poll(async () => ((await (await fetch(`${inject("fakesUrl")}/__fake/emails`)).json()) as { subject: string; attachments: { filename: string }[] | null }[]).find((m) => m.subject.startsWith("Invoice INV-") && m.subject.includes(job.workOrder))?.attachments?.[0]?.filename, { timeout: 20_000 }).toMatch(new RegExp(`^${job.workOrder}-invoice-INV-\\d{2}-\\d{4}\\.pdf$`));
+    await office.reload();
+    await office.locator("#messages").getByText("Invoice with its PDF").first().waitFor();
+    await phone.goto(link.url.replace(/^https?:\/\/[^/]+/, baseUrl()));
+    const payBalance = phone.getByRole("button", { name: "Pay the balance $516.37" });
+    await payBalance.click();
+    await phone.waitForURL((u) => u.href.startsWith(inject("fakesUrl")));
+    await phone.getByRole("button", { name: "Pay 516.37 USD" }).click();
+    await phone.waitForURL((u) => u.href.startsWith(baseUrl()) && u.searchParams.get("paid") === "invoice");
+    await phone.getByText("Paid in full. Thank you.").waitFor({ timeout: 30_000 });
+    await shot(phone, "money-invoice-paid-phone");
+    await office.reload();
+    await expect.poll(() => money.getByTestId("money-words").textContent()).toContain("Paid in full");
+    expect(await money.getByRole("list", { name: "Payments" }).textContent()).toMatch(/Card, paid online · deposit.*\$516\.37.*Card, paid online · invoice.*\$516\.37/);
+    // Nothing of a card was ever on the shop's side: the fake's page asks for none, and the app stores only amounts.
+    const fakePayments = await (await fetch(`${inject("fakesUrl")}/__fake/payments`)).json();
+    const delivered = fakePayments.deliveries.filter((d: { status: number }) => d.status === 200);
+    expect(delivered.length).toBeGreaterThanOrEqual(2);
+    await customer.close();
+    await officeContext.close();
   });
 });

@@ -2,6 +2,7 @@ import type { APIRequestContext, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+import { readyForWork } from "./money-helpers";
 
 const enabled = Boolean(baseUrl());
 
@@ -15,6 +16,8 @@ async function newJob(page: Page, what: string) {
   const jobs = (await json<{ jobs: { customerName: string; customerId: number; truckId: number }[] }>(await page.request.get(`${baseUrl()}/api/jobs`))).jobs;
   const truck = jobs.find((j) => j.customerName === "Dell Okafor")!;
   const made = await json(await page.request.post(`${baseUrl()}/api/jobs`, { headers: { origin: baseUrl() }, data: { customerId: truck.customerId, truckId: truck.truckId, scope: "install_only", description: `${what} ${Date.now().toString(36)}` } }), 201);
+  // Money is not the subject: an approved quote and its deposit, so Install asks only for what these tests look at.
+  await readyForWork(page.request, made.job.id);
   return made.job as { id: number; workOrder: string };
 }
 

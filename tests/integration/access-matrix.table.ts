@@ -205,6 +205,8 @@ export const ACCESS_MATRIX: Row[] = [
   ownerOnly("PATCH /api/price-items/[id]"),
   officeUp("GET /api/shop-settings/money"),
   ownerOnly("PUT /api/shop-settings/money"),
+  // Money checks before work and delivery: the owner's setting.
+  ownerOnly("PUT /api/shop-settings/money-checks"),
   officeUp("GET /api/jobs/[id]/quotes"),
   officeUp("POST /api/jobs/[id]/quotes"),
   officeUp("GET /api/jobs/[id]/quotes/kit-lines"),
@@ -212,4 +214,9 @@ export const ACCESS_MATRIX: Row[] = [
   officeUp("PUT /api/quotes/[id]"),
   officeUp("POST /api/quotes/[id]/send"),
   officeUp("GET /api/quotes/[id]/pdf"),
+  // Payments taken at the counter and invoices: office and owner (on account is the owner's, inside);
+  // voiding an invoice is the owner's.
+  officeUp("POST /api/jobs/[id]/payments"),
+  officeUp("POST /api/jobs/[id]/invoice"),
+  ownerOnly("POST /api/invoices/[id]/void"),
 ];

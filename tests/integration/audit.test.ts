@@ -1,5 +1,5 @@
 import { sql } from "kysely";
-import { beforeEach, describe, expect, it, vi } from "vitest";
+import { beforeEach, describe, expect, it, vi, beforeAll } from "vitest";
 import * as audit from "@/app/api/audit/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as jobLinks from "@/app/api/jobs/[id]/status-links/route";
@@ -17,8 +17,11 @@ import * as linkItem from "@/app/api/status-links/[id]/route";
 import { useFreshDatabase } from "../support/db";
 import { TEST_PASSWORD, ensureShop, makeJob, makeStaff } from "../support/factories";
 import { type Call, params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 // Behind one proxy that writes X-Forwarded-For, as a shop with HTTPS in front of the app runs it.
 process.env.TRUST_PROXY_HOPS = "1";
 

@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, beforeAll } from "vitest";
 import * as board from "@/app/api/board/route";
 import * as receipts from "@/app/api/bought-parts/[id]/receipts/route";
 import * as boughtItem from "@/app/api/bought-parts/[id]/route";
@@ -12,8 +12,11 @@ import { shopToday } from "@/server/records/turnaround";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 
 async function as(role: Role) {
   await ensureShop(db());

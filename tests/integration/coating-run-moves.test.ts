@@ -9,8 +9,11 @@ import { shopToday } from "@/server/records/turnaround";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 let office = "";
 let officeId = "";
 let vendorId = 0;

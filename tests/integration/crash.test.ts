@@ -2,12 +2,15 @@ import { type ChildProcess, spawn } from "node:child_process";
 import { join } from "node:path";
 import { createInterface } from "node:readline";
 import SQLite from "better-sqlite3";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, beforeAll } from "vitest";
 import { closeDb } from "@/db";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 
 interface Answered {
   jobId: number;

@@ -21,8 +21,11 @@ import { openStatusLink } from "@/server/status/queries";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeCustomer, makeJob, makeStaff, makeTruck } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 const dataDir = mkdtempSync(path.join(tmpdir(), "baywright-email-fakes-"));
 let fake: Fakes;
 let sender: EmailSender;

@@ -23,6 +23,7 @@ import { openStatusLink } from "@/server/status/queries";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeCustomer, makeJob, makeStaff, makeTruck } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 /*
  * A move's customer e-mail waits a quiet period, so a slip of the hand and its correction tell
@@ -30,6 +31,8 @@ import { params, readBody, request, sessionCookieFor } from "../support/http";
  */
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 const dataDir = mkdtempSync(path.join(tmpdir(), "baywright-quiet-fakes-"));
 let fake: Fakes;
 let sender: EmailSender;

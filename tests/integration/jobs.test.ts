@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, beforeAll } from "vitest";
 import * as board from "@/app/api/board/route";
 import * as jobItem from "@/app/api/jobs/[id]/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
@@ -7,8 +7,11 @@ import type { Role } from "@/db/schema";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeCustomer, makeJob, makeStaff, makeTruck } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 
 async function as(role: Role) {
   const staff = await makeStaff(db(), role);

@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, beforeAll } from "vitest";
 import * as board from "@/app/api/board/route";
 import * as coatingRunItem from "@/app/api/coating-runs/[id]/route";
 import * as coatingRuns from "@/app/api/coating-runs/route";
@@ -15,9 +15,12 @@ import { shopToday } from "@/server/records/turnaround";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 // Who may change what a gate asks for, and the records the gates must not be fooled by.
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 
 async function as(role: Role) {
   const staff = await makeStaff(db(), role);

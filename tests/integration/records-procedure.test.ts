@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, beforeAll } from "vitest";
 import * as coatingRuns from "@/app/api/coating-runs/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as parts from "@/app/api/jobs/[id]/parts/route";
@@ -12,8 +12,11 @@ import { shopToday } from "@/server/records/turnaround";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 
 async function as(role: Role) {
   const staff = await makeStaff(db(), role);

@@ -15,7 +15,7 @@ describe("the demo shop's records", () => {
     const records = await loadGateRecords(db(), jobs.map((j) => j.id));
     for (const job of jobs) {
       const passed = GATED_STAGES.filter((g) => stagesFor(job.scope).includes(g) && stageIndex(g) <= stageIndex(job.stage));
-      for (const gate of passed) expect(gateUnmet(gate, records.get(job.id)!), `${job.work_order} in ${job.stage}, gate ${gate}`).toEqual([]);
+      for (const gate of passed) expect(gateUnmet(gate, records.get(job.id)!, job.scope), `${job.work_order} in ${job.stage}, gate ${gate}`).toEqual([]);
     }
 
     const inCoating = jobs.filter((j) => j.stage === "coating");

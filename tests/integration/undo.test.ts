@@ -1,12 +1,15 @@
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, beforeAll } from "vitest";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as undo from "@/app/api/jobs/[id]/undo/route";
 import type { Role, Stage } from "@/db/schema";
 import { useFreshDatabase } from "../support/db";
 import { makeJob, makeStaff } from "../support/factories";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
+import { moneyChecksOff } from "../support/money";
 
 const { db } = useFreshDatabase();
+// Money is not the subject here: the shop's money checks are off (payments-gates.test.ts holds them).
+beforeAll(() => moneyChecksOff(db()));
 
 async function as(role: Role) {
   const staff = await makeStaff(db(), role);

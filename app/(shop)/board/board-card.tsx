@@ -112,6 +112,14 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
             </dd>
           </div>
         )}
+        {card.money && (
+          <div>
+            <dt className="sr-only">Money</dt>
+            <dd className={/due|declined/i.test(card.money) ? "text-warn-700" : "text-ink-soft"} data-money>
+              {card.money}
+            </dd>
+          </div>
+        )}
         {card.scope === "install_only" && (
           <div>
             <dt className="sr-only">Work</dt>

@@ -1,10 +1,12 @@
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import { requirePageStaff } from "@/server/auth/session";
+import { moneyChecksOn } from "@/server/money/job-money";
 import { listPriceItems } from "@/server/money/price-list";
 import { depositWords, moneySettings } from "@/server/money/settings";
 import { formatCents, formatRate } from "@/server/money/totals";
 import { KIT_USE_WORDS, KIND_WORDS } from "./words";
+import { MoneyChecksForm } from "./money-checks-form";
 import { MoneySettingsForm, PriceList } from "./prices-forms";
 
 export const metadata = { title: "Prices" };
@@ -13,7 +15,7 @@ export default async function PricesPage() {
   const user = await requirePageStaff(["office", "owner"]);
   const db = getDb();
   const isOwner = user.role === "owner";
-  const [settings, items] = await Promise.all([moneySettings(db), listPriceItems(db, { includeInactive: isOwner })]);
+  const [settings, items, checksOn] = await Promise.all([moneySettings(db), listPriceItems(db, { includeInactive: isOwner }), moneyChecksOn(db)]);
   return (
     <section className="max-w-5xl space-y-4">
       <div>
@@ -34,6 +36,15 @@ export default async function PricesPage() {
             <dt className="font-semibold">Terms</dt>
             <dd className="whitespace-pre-line">{settings.quoteTerms || "None written yet."}</dd>
           </dl>
+        )}
+      </Section>
+      <Section title="Money checks" id="money-checks">
+        {isOwner ? (
+          <MoneyChecksForm initial={checksOn} />
+        ) : (
+          <p>
+            Money checks before work and delivery: <strong>{checksOn ? "on" : "off"}</strong>. {checksOn ? "A job needs an approved quote and its deposit before work starts, and its invoice settled or on account before Delivered." : "Jobs move without them."}
+          </p>
         )}
       </Section>
       <Section title="Price list" id="price-list">

@@ -30,27 +30,31 @@ const tdClass = "border-b border-line px-2 py-2";
 const numClass = `${tdClass} text-right tabular-nums`;
 
 function Table({ caption, head, rows }: { caption: string; head: string[]; rows: (string | number)[][] }) {
+  // Up to five columns fit a phone with their headings wrapped; a wider table scrolls sideways and says so.
+  const wide = head.length > 5;
   return (
-    // A wide table scrolls sideways on a phone; the region takes focus so a keyboard can scroll it.
-    <div role="region" aria-label={`${caption} (table)`} tabIndex={0} className="overflow-x-auto rounded-lg border border-line bg-panel">
-      <table className="w-full min-w-[32rem] border-collapse text-sm" data-testid="report-table">
-        <caption className="sr-only">{caption}</caption>
-        <thead>
-          <tr>
-            {head.map((h, i) => (
-              <th key={h} scope="col" className={`${thClass} ${i > 0 ? "text-right" : ""}`}>{h}</th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r, i) => (
-            <tr key={i}>
-              {r.map((cell, j) => (j === 0 ? <th key={j} scope="row" className={`${tdClass} text-left font-normal`}>{cell}</th> : <td key={j} className={numClass}>{cell}</td>))}
+    <>
+      {wide && <p className="mb-1 text-sm text-ink-soft sm:hidden">{head.length} columns: slide the table sideways to see them all.</p>}
+      <div role="region" aria-label={`${caption} (table)`} tabIndex={0} className="overflow-x-auto rounded-lg border border-line bg-panel">
+        <table className={`w-full border-collapse text-sm ${wide ? "min-w-[32rem]" : ""}`} data-testid="report-table">
+          <caption className="sr-only">{caption}</caption>
+          <thead>
+            <tr>
+              {head.map((h, i) => (
+                <th key={h} scope="col" className={`${thClass} ${i > 0 ? "text-right" : ""}`}>{h}</th>
+              ))}
             </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+          </thead>
+          <tbody>
+            {rows.map((r, i) => (
+              <tr key={i}>
+                {r.map((cell, j) => (j === 0 ? <th key={j} scope="row" className={`${tdClass} text-left font-normal`}>{cell}</th> : <td key={j} className={numClass}>{cell}</td>))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </>
   );
 }
 

@@ -5,6 +5,8 @@ import { getDb } from "@/db";
 import { repliesRead } from "@/server/email/env";
 import { noteLinkOpened, readStatusPage } from "@/server/status/queries";
 import { customerQuotes } from "@/server/money/customer-quote";
+import { customerPayment } from "@/server/money/customer-payment";
+import { PaySection } from "./pay-section";
 import { QuoteAnswer } from "./quote-answer";
 import { StatusView } from "./status-view";
 
@@ -26,12 +28,21 @@ export async function generateMetadata({ params }: { params: Promise<{ token: st
   };
 }
 
-export default async function StatusPage({ params }: { params: Promise<{ token: string }> }) {
+export default async function StatusPage({ params, searchParams }: { params: Promise<{ token: string }>; searchParams?: Promise<{ paid?: string; checkout?: string }> }) {
   const { token } = await params;
+  const back = (await searchParams) ?? {};
+  const returned = back.paid === "deposit" || back.paid === "invoice" ? back.paid : back.checkout === "cancelled" ? "cancelled" : null;
   const { link, view } = await loadStatus(token);
   // Unknown, turned off and expired links all end here: the not-found page says so and gives the shop's phone.
   if (link.state !== "active" || !view) notFound();
   noteLinkOpened(getDb(), link);
   const quotes = await customerQuotes(getDb(), link.jobId);
-  return <StatusView view={view} token={token} repliesRead={repliesRead()} price={quotes.length ? <QuoteAnswer token={token} initialQuotes={quotes} /> : null} />;
+  const payment = await customerPayment(getDb(), link.jobId);
+  const price = quotes.length ? (
+    <>
+      <QuoteAnswer token={token} initialQuotes={quotes} />
+      {payment && <PaySection token={token} payment={payment} returned={returned} />}
+    </>
+  ) : null;
+  return <StatusView view={view} token={token} repliesRead={repliesRead()} price={price} />;
 }

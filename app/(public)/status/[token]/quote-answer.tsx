@@ -1,5 +1,6 @@
 "use client";
 
+import { useRouter } from "next/navigation";
 import { Fragment, useState } from "react";
 import { type ApiFailure, ApiRequestError, api } from "@/components/api";
 import { buttonClass, inputClass } from "@/components/styles";
@@ -147,6 +148,7 @@ function Waiting({ token, quote, onAnswered }: { token: string; quote: CustomerQ
  * plus approved change orders), then each version waiting for an answer, then the answered ones.
  */
 export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQuotes: CustomerQuote[] }) {
+  const router = useRouter();
   const [quotes, setQuotes] = useState(initialQuotes);
   const [done, setDone] = useState<string | null>(null);
   if (!quotes.length) return null;
@@ -184,6 +186,8 @@ export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQu
           onAnswered={(next, words) => {
             setQuotes(next);
             setDone(words);
+            // An approval may bring a deposit to pay: the page's server part says so.
+            router.refresh();
           }}
         />
       ))}

@@ -307,7 +307,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
               <li key={m.id} className="space-y-1 p-3">
                 <div className="flex flex-wrap items-center justify-between gap-2">
                   <p className="font-semibold">
-                    {m.kind === "link_issued" ? "New status link" : m.kind === "quote_sent" ? (m.subject?.startsWith("Change order") ? "Change order with its PDF" : "Quote with its PDF") : m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
+                    {m.kind === "link_issued" ? "New status link" : m.kind === "quote_sent" ? (m.subject?.startsWith("Change order") ? "Change order with its PDF" : "Quote with its PDF") : m.kind === "invoice_sent" ? "Invoice with its PDF" : m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
                     {m.resendOf && <span className="font-normal text-ink-soft"> · sent again</span>}
                   </p>
                   <span className={`rounded-full px-2.5 py-0.5 text-sm font-semibold ${s.tone}`}>

@@ -20,6 +20,7 @@ import { KitSpecSection } from "./kit-spec-section";
 import { LikelyReady } from "./likely-ready";
 import { MessagesSection } from "./messages-section";
 import { PhotosSection } from "./photos-section";
+import { MoneySection } from "./money-section";
 import { QuoteSection } from "./quote-section";
 import { RecordsSection } from "./records-section";
 
@@ -114,6 +115,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               <Suspense fallback={<SectionLoading title="Quote" />}>
                 <QuoteSection job={job} user={user} />
               </Suspense>
+              <div className="mt-4">
+                <Suspense fallback={<SectionLoading title="Money" />}>
+                  <MoneySection job={job} user={user} />
+                </Suspense>
+              </div>
             </div>
           )}
           <div className="no-print space-y-4">

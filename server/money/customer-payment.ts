@@ -1,0 +1,25 @@
+import "server-only";
+import type { DB } from "@/db";
+import { paymentsConfigured } from "@/server/payments/service";
+import { jobInvoices } from "./invoices";
+import { loadJobMoney } from "./job-money";
+import { amountOwed } from "./payments";
+
+/** What the truck owner's page says about paying: what is owed now, and what was paid. */
+export interface CustomerPayment {
+  /** The shop takes card payments online. */
+  online: boolean;
+  deposit: { askedCents: number; paidCents: number; owedCents: number } | null;
+  invoice: { number: string; status: "open" | "paid" | "on_account"; totalCents: number; receivedCents: number; balanceCents: number } | null;
+}
+
+export async function customerPayment(db: DB, jobId: number): Promise<CustomerPayment | null> {
+  const m = (await loadJobMoney(db, [jobId])).get(jobId)!;
+  if (m.quoteStatus !== "approved") return null;
+  const [inv] = await jobInvoices(db, jobId);
+  return {
+    online: paymentsConfigured(),
+    deposit: m.depositAskedCents > 0 ? { askedCents: m.depositAskedCents, paidCents: m.depositReceivedCents, owedCents: amountOwed(m, "deposit") } : null,
+    invoice: inv && inv.status !== "void" ? { number: inv.number, status: inv.status, totalCents: inv.totalCents, receivedCents: inv.depositsCents + inv.paidCents, balanceCents: Math.max(0, inv.balanceCents) } : null,
+  };
+}
