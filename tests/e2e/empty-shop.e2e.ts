@@ -220,7 +220,8 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     await send.getByRole("checkbox", { name: new RegExp(`^${tank}`) }).check();
     await send.getByLabel("Color", { exact: true }).fill("Safety yellow");
     await send.getByRole("button", { name: "Send 1 part out" }).click();
-    await send.getByRole("status").filter({ hasText: /out to Tillbrook Powder Works with 1 part/ }).waitFor();
+    // The run's outcome stands above the forms, as the page refreshes under it.
+    await desk.locator("[data-run-outcome]").filter({ hasText: /out to Tillbrook Powder Works with 1 part/ }).waitFor();
     // The next run starts blank: this customer's color is not the next one's.
     expect(await send.getByLabel("Color", { exact: true }).inputValue()).toBe("");
     const receive = desk.getByRole("form", { name: /^Mark run \d+ received$/ });
@@ -230,11 +231,13 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     await inspection.getByText("Passed", { exact: true }).click();
     await inspection.getByRole("button", { name: "Record the inspection" }).click();
     await inspection.waitFor({ state: "detached" });
+    // Passed the inspection with nothing else missing: the run offered Install, ticked, and moved it.
+    await desk.locator("[data-run-outcome]").filter({ hasText: `${workOrder} moved to Install.` }).waitFor();
     await shot(desk, "empty-shop-coating-back-desk");
 
-    // Install, then wiring: the tech signs off the run test on the phone.
+    // Then wiring: the tech signs off the run test on the phone.
     await desk.goto(`${url()}${jobPath}`);
-    await moveTo(desk, "Install");
+    await desk.getByText("Now in Install.").waitFor();
     await moveTo(desk, "Wire & verify");
     await phone.reload();
     const signOff = phone.getByRole("form", { name: "Wiring and run-test sign-off" });

@@ -1,6 +1,24 @@
+import Database from "better-sqlite3";
 import type { APIRequestContext, Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
+
+
+/** A customer with a contact who gets e-mail updates, and one of their trucks (read only: the test adds its own job). */
+function customerWithEmail() {
+  const sqlite = new Database(inject("databasePath"), { readonly: true, fileMustExist: true });
+  try {
+    return sqlite
+      .prepare(
+        `select customer.id as customerId, truck.id as truckId from customer join truck on truck.customer_id = customer.id
+         where exists (select 1 from contact where contact.customer_id = customer.id and contact.receives_email = 1 and contact.email != '')
+         order by customer.id limit 1`,
+      )
+      .get() as { customerId: number; truckId: number };
+  } finally {
+    sqlite.close();
+  }
+}
 
 const enabled = Boolean(baseUrl());
 
@@ -34,7 +52,8 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     const page = await signIn(context, "office");
     const api = page.request;
     const headers = { origin: baseUrl() };
-    const anyJob = (await json<{ jobs: { customerId: number; truckId: number }[] }>(await api.get(`${baseUrl()}/api/jobs`))).jobs[0];
+    // A customer whose contact gets e-mail updates (the newest job may belong to one with none).
+    const anyJob = customerWithEmail();
     const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "fabrication", description: `Wet kit quote ${suffix}` } }), 201)).job as { id: number };
     await json(await api.put(`${baseUrl()}/api/jobs/${job.id}/kit-spec`, { headers, data: { inputs: KIT } }));
 
@@ -72,7 +91,8 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     const page = await signIn(context, "office");
     const api = page.request;
     const headers = { origin: baseUrl() };
-    const anyJob = (await json<{ jobs: { customerId: number; truckId: number }[] }>(await api.get(`${baseUrl()}/api/jobs`))).jobs[0];
+    // A customer whose contact gets e-mail updates (the newest job may belong to one with none).
+    const anyJob = customerWithEmail();
     const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "install_only", description: `PTO switch ${suffix}` } }), 201)).job as { id: number };
     const link = (await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/status-links`, { headers }), 201)).link as { url: string };
     const lines = [
@@ -108,7 +128,8 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     const officeContext = await browser.newContext(DESK);
     const office = await signIn(officeContext, "office");
     const api = office.request;
-    const anyJob = (await json<{ jobs: { customerId: number; truckId: number }[] }>(await api.get(`${baseUrl()}/api/jobs`))).jobs[0];
+    // A customer whose contact gets e-mail updates (the newest job may belong to one with none).
+    const anyJob = customerWithEmail();
     const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "fabrication", description: `Hose tray and bracket ${suffix}` } }), 201)).job as { id: number; workOrder: string };
     const link = (await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/status-links`, { headers }), 201)).link as { url: string };
     // $800.00 of labour (no tax) and a $215.00 part taxed at the demo's 8.25 %: 17.7375 → $17.74;
