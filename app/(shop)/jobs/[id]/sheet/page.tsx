@@ -76,7 +76,8 @@ export default async function ShopSheetPage({ params }: { params: Promise<{ id: 
   ]);
   const jobUrl = `${appOrigin()}/jobs/${job.id}`;
   // Drawn on the server as SVG: prints sharp at any size and needs no script on the page.
-  const qr = await QRCode.toString(jobUrl, { type: "svg", errorCorrectionLevel: "M", margin: 0 });
+  // Drawn as SVG on the server and shown as an image, so no markup is injected into the page.
+  const qr = `data:image/svg+xml;base64,${Buffer.from(await QRCode.toString(jobUrl, { type: "svg", errorCorrectionLevel: "M", margin: 0 })).toString("base64")}`;
   const route = stagesFor(job.scope).filter((s) => s !== "delivered");
   const checks = signOff?.fields.checks ?? {};
   const truckWords = [job.truckYear, truck.make, truck.model, job.truckDescription].filter(Boolean).join(" ");
@@ -103,7 +104,7 @@ export default async function ShopSheetPage({ params }: { params: Promise<{ id: 
           <p className="text-xs text-ink-soft">Stages: {route.map((s) => STAGE_LABELS[s]).join(" → ")}</p>
         </div>
         <figure className="shrink-0 text-center">
-          <div className="h-24 w-24 [&>svg]:h-full [&>svg]:w-full" role="img" aria-label={`QR code of the job's page, ${jobUrl}`} dangerouslySetInnerHTML={{ __html: qr }} />
+          <img className="h-24 w-24" src={qr} alt={`QR code of the job's page, ${jobUrl}`} />
           <figcaption className="mt-1 max-w-24 text-[9px] leading-tight break-all text-ink-soft">{jobUrl}</figcaption>
         </figure>
       </div>
