@@ -285,8 +285,9 @@ async function partsOnly() {
 }
 
 async function main() {
-  // Every mode starts the production server, so every mode needs a build.
-  if (!existsSync(".next/BUILD_ID")) {
+  // Every mode starts the production server, so every mode builds first: a build left from older
+  // sources would measure old code. BENCH_SKIP_BUILD=1 reuses the build (only right after one).
+  if (process.env.BENCH_SKIP_BUILD !== "1" || !existsSync(".next/BUILD_ID")) {
     console.log("Building first…");
     const b = spawnSync("npx", ["next", "build"], { stdio: "inherit" });
     if (b.status !== 0) process.exit(1);
