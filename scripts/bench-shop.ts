@@ -91,6 +91,27 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
         insClock.run(tech, jobId, stage === "delivered" ? "install" : stage, from.toISOString(), new Date(from.getTime() + 2 * 3_600_000).toISOString());
       }
     };
+    // Money as the shop's rules ask for it (money checks on): every job has its approved quote and
+    // the deposit paid, so a move into Fabricate passes as it would in the shop; a job at Ready has
+    // its open invoice, and a delivered one its invoice paid in full.
+    const insQuote = sqlite.prepare(
+      `insert into quote (job_id, version, kind, status, tax_millipercent, subtotal_cents, taxable_cents, tax_cents, total_cents, deposit_cents, created_by, created_at, updated_at, sent_at, sent_by, decided_at, decided_name, terms_accepted)
+       values (?, 1, 'quote', 'approved', 8250, 1000000, 1000000, 82500, 1082500, 541250, ?, ?, ?, ?, ?, ?, 'Bench Buyer', 1)`,
+    );
+    const insQuoteLine = sqlite.prepare("insert into quote_line (quote_id, position, kind, description, quantity_milli, unit_price_cents, taxable, amount_cents) values (?, 1, 'part', 'Wet kit, fitted', 1000, 1000000, 1, 1000000)");
+    const insPayment = sqlite.prepare("insert into payment (job_id, purpose, method, amount_cents, reference, recorded_by, at) values (?, ?, 'check', ?, 'Bench check', ?, ?)");
+    const insInvoice = sqlite.prepare("insert into invoice (job_id, number, status, total_cents, created_by, created_at, sent_at) values (?, ?, ?, 1082500, ?, ?, ?)");
+    let invoiceSeq = 0;
+    const money = (jobId: number, stage: string, firstAt: string, lastAt: string) => {
+      const office = staff[1].id;
+      const quoteId = Number(insQuote.run(jobId, office, firstAt, firstAt, firstAt, office, firstAt).lastInsertRowid);
+      insQuoteLine.run(quoteId);
+      insPayment.run(jobId, "deposit", 541250, office, firstAt);
+      if (stage === "ready" || stage === "delivered") {
+        insInvoice.run(jobId, formatWorkOrder("INV", 2026, ++invoiceSeq), stage === "delivered" ? "paid" : "open", office, lastAt, lastAt);
+        if (stage === "delivered") insPayment.run(jobId, "invoice", 541250, office, lastAt);
+      }
+    };
     const positions = new Map<string, number>();
     for (let j = 0; j < opts.jobs; j++) {
       const truck = trucks[j % trucks.length];
@@ -111,6 +132,7 @@ export async function generateShop(sqlite: SQLite.Database, opts: { jobs: number
         insJob.run(formatWorkOrder("WO", 2026, j + 1), truck.customer, truck.id, scope, stage, position, due, techs[j % techs.length], stepAt(0), lastAt.toISOString()).lastInsertRowid,
       );
       steps.forEach((s, i) => insEvent.run(jobId, i === 0 ? null : steps[i - 1], s, techs[j % techs.length], stepAt(i)));
+      money(jobId, stage, stepAt(0), lastAt.toISOString());
       if (opts.history) {
         history(jobId, scope, steps, techs[j % techs.length], lastAt.toISOString());
         bought(jobId, stage, techs[j % techs.length], j, lastAt);

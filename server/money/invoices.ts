@@ -1,6 +1,6 @@
 import "server-only";
+import { sql, type Transaction } from "kysely";
 import { z } from "zod";
-import type { Transaction } from "kysely";
 import type { DB } from "@/db";
 import type { Database } from "@/db/schema";
 import { recordAudit, type AuditActor } from "@/server/audit/record";
@@ -13,7 +13,8 @@ import { formatCents, fromThousandths } from "./totals";
 /** The next invoice number of the year the invoice is made in: INV-26-0001, INV-26-0002… */
 async function nextInvoiceNumber(trx: DB, at: string): Promise<string> {
   const prefix = `INV-${at.slice(2, 4)}-`;
-  const last = await trx.selectFrom("invoice").select("number").where("number", "like", `${prefix}%`).orderBy("number", "desc").limit(1).executeTakeFirst();
+  // Longest first: past 9999 in a year the numbers grow a digit, and "…-10000" sorts before "…-9999".
+  const last = await trx.selectFrom("invoice").select("number").where("number", "like", `${prefix}%`).orderBy(sql`length(number)`, "desc").orderBy("number", "desc").limit(1).executeTakeFirst();
   const n = last ? Number(last.number.slice(prefix.length)) + 1 : 1;
   return `${prefix}${String(n).padStart(4, "0")}`;
 }

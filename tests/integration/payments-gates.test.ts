@@ -148,4 +148,17 @@ describe("the invoice and Delivered", () => {
     expect((await db().selectFrom("invoice").select("status").where("id", "=", second.id).executeTakeFirstOrThrow()).status).toBe("paid");
     expect(await deliveredNeeds()).toEqual([]);
   });
+
+  it("numbers on past 9999 in a year instead of reusing a number", async () => {
+    const p = await people();
+    const before = await makeJob(db(), { stage: "delivered" });
+    const yy = new Date().toISOString().slice(2, 4);
+    for (const [n, status] of [["9999", "paid"], ["10000", "void"]] as const) {
+      await db().insertInto("invoice").values({ job_id: before.id, number: `INV-${yy}-${n}`, status, total_cents: 100, created_by: p.office.id, created_at: new Date().toISOString(), sent_at: null, void_reason: null, voided_at: null }).execute();
+    }
+    const job = await makeJob(db(), { stage: "wire" });
+    await giveJobMoney(db(), job.id, "deposit-paid", p.office.id);
+    expect((await move(p.ownerCookie, job.id, "ready", "Signed off on paper today")).status).toBe(200);
+    expect((await db().selectFrom("invoice").select("number").where("job_id", "=", job.id).executeTakeFirstOrThrow()).number).toBe(`INV-${yy}-10001`);
+  });
 });
