@@ -85,65 +85,30 @@ export async function queueStageMessage(trx: Trx, move: { jobId: number; from: S
   return { outboxId: id, dueAt };
 }
 
-/** The e-mail carrying a status link the office just issued; it goes at once (the office asked for it). */
-export async function queueLinkMessage(trx: Trx, input: { jobId: number; linkId: number; requestedBy: string; at: string }): Promise<string> {
+/**
+ * A message the office asked for goes at once (no quiet period): the outbox row is written in the
+ * transaction that made what it carries, so it is sent exactly when that commits.
+ */
+async function queueAtOnce(trx: Trx, input: { jobId: number; at: string }, kind: "link_issued" | "quote_sent" | "invoice_sent", payload: Record<string, unknown>): Promise<string> {
   const id = randomUUID();
   await trx
     .insertInto("outbox")
-    .values({
-      id,
-      job_id: input.jobId,
-      kind: "link_issued",
-      payload: JSON.stringify({ linkId: input.linkId, requestedBy: input.requestedBy }),
-      status: "pending",
-      attempts: 0,
-      next_attempt_at: input.at,
-      last_error: null,
-      created_at: input.at,
-      sent_at: null,
-    })
+    .values({ id, job_id: input.jobId, kind, payload: JSON.stringify(payload), status: "pending", attempts: 0, next_attempt_at: input.at, last_error: null, created_at: input.at, sent_at: null })
     .execute();
   return id;
 }
 
-/** The e-mail carrying a quote or change order the office just sent; it goes at once, no quiet period. */
-export async function queueQuoteMessage(trx: Trx, input: { jobId: number; quoteId: number; requestedBy: string; at: string }): Promise<string> {
-  const id = randomUUID();
-  await trx
-    .insertInto("outbox")
-    .values({
-      id,
-      job_id: input.jobId,
-      kind: "quote_sent",
-      payload: JSON.stringify({ quoteId: input.quoteId, requestedBy: input.requestedBy }),
-      status: "pending",
-      attempts: 0,
-      next_attempt_at: input.at,
-      last_error: null,
-      created_at: input.at,
-      sent_at: null,
-    })
-    .execute();
-  return id;
+/** The e-mail carrying a status link the office just issued. */
+export function queueLinkMessage(trx: Trx, input: { jobId: number; linkId: number; requestedBy: string; at: string }): Promise<string> {
+  return queueAtOnce(trx, input, "link_issued", { linkId: input.linkId, requestedBy: input.requestedBy });
 }
 
-/** The invoice's e-mail, in the transaction that made the invoice; it goes out at once (no quiet period). */
-export async function queueInvoiceMessage(trx: Trx, input: { jobId: number; invoiceId: number; requestedBy: string; at: string }): Promise<string> {
-  const id = randomUUID();
-  await trx
-    .insertInto("outbox")
-    .values({
-      id,
-      job_id: input.jobId,
-      kind: "invoice_sent",
-      payload: JSON.stringify({ invoiceId: input.invoiceId, requestedBy: input.requestedBy }),
-      status: "pending",
-      attempts: 0,
-      next_attempt_at: input.at,
-      last_error: null,
-      created_at: input.at,
-      sent_at: null,
-    })
-    .execute();
-  return id;
+/** The e-mail carrying a quote or change order the office just sent. */
+export function queueQuoteMessage(trx: Trx, input: { jobId: number; quoteId: number; requestedBy: string; at: string }): Promise<string> {
+  return queueAtOnce(trx, input, "quote_sent", { quoteId: input.quoteId, requestedBy: input.requestedBy });
+}
+
+/** The invoice's e-mail, in the transaction that made the invoice. */
+export function queueInvoiceMessage(trx: Trx, input: { jobId: number; invoiceId: number; requestedBy: string; at: string }): Promise<string> {
+  return queueAtOnce(trx, input, "invoice_sent", { invoiceId: input.invoiceId, requestedBy: input.requestedBy });
 }

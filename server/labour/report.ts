@@ -38,9 +38,9 @@ export interface JobCostRow {
  * A job with an approved quote is compared with it in total (quote lines carry no stage).
  */
 export function jobCostsReport(db: DB, period: Period, cal: ReportCalendar, now = new Date()) {
-  // A running clock's hours grow by the minute, so a kept answer lasts a minute at most.
-  const minute = Math.floor(now.getTime() / 60_000);
-  return cachedUntilWrite(db, `jobCostsReport|${period.from}|${period.to}|${minute}`, () => buildJobCostsReport(db, period, cal, now));
+  // A running clock's hours grow by the minute with nothing written: a kept answer a minute old is
+  // still served at once while a fresh one is built behind it.
+  return cachedUntilWrite(db, `jobCostsReport|${period.from}|${period.to}`, () => buildJobCostsReport(db, period, cal, now), { refreshAfterMs: 60_000 });
 }
 
 async function buildJobCostsReport(db: DB, period: Period, cal: ReportCalendar, now: Date) {

@@ -2,6 +2,7 @@ import "server-only";
 import { addDays, formatISO, startOfISOWeek } from "date-fns";
 import { sql } from "kysely";
 import type { DB } from "@/db";
+import { cachedUntilWrite } from "@/db/read-cache";
 import type { BoughtPartKind, BoughtPartState } from "@/db/tables/bought-parts";
 import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
@@ -47,12 +48,20 @@ function bySupplier(lines: DeskLine[]) {
 }
 
 /**
- * The shop's parts desk: what to order, what is on order (and overdue), what came this week, and
- * the newest purchase orders. Reads by state (indexed), so the shop's delivered history is not read.
+ * The shop's parts desk, kept until the shop writes anything (the reports' rule): the office opens
+ * it far more often than a part changes.
  */
 export async function loadPartsDesk(db: DB, now = new Date()): Promise<PartsDesk> {
   const shop = await shopSettings(db);
   const today = shopToday({ now, timeZone: shop.timeZone });
+  return cachedUntilWrite(db, `partsDesk|${today}`, () => buildPartsDesk(db, today, shop.timeZone));
+}
+
+/**
+ * The shop's parts desk: what to order, what is on order (and overdue), what came this week, and
+ * the newest purchase orders. Reads by state (indexed), so the shop's delivered history is not read.
+ */
+export async function buildPartsDesk(db: DB, today: string, timeZone: string): Promise<PartsDesk> {
   // The shop's week starts on Monday (ISO 8601 weeks).
   const weekStart = formatISO(startOfISOWeek(new Date(`${today}T12:00:00Z`)), { representation: "date" });
   const rows = await db
@@ -100,7 +109,7 @@ export async function loadPartsDesk(db: DB, now = new Date()): Promise<PartsDesk
     .limit(500)
     .execute();
   const receivedThisWeek = receipts
-    .filter((r) => shopToday({ now: new Date(r.received_at), timeZone: shop.timeZone }) >= weekStart)
+    .filter((r) => shopToday({ now: new Date(r.received_at), timeZone }) >= weekStart)
     .map((r) => ({ id: r.id, at: r.received_at, quantity: r.quantity, byName: r.received_by_name, description: r.description, workOrder: r.work_order, jobId: r.job_id }));
   const orders = await db
     .selectFrom("purchase_order as po")

@@ -93,6 +93,16 @@ export function orderTotal(lines: readonly { quantity: number; unitCostCents: nu
 }
 
 /** Counted plural: "1 part", "2 parts". */
+/**
+ * A long group on the parts desk shows its first lines and folds the rest behind "Show all"; a
+ * group only a few lines past the cut shows whole, so nobody opens a fold to find two lines.
+ */
+export const DESK_FIRST_LINES = 10;
+export const DESK_FOLD_FROM = 15;
+export function firstLinesOf<T>(lines: readonly T[]): readonly T[] {
+  return lines.length < DESK_FOLD_FROM ? lines : lines.slice(0, DESK_FIRST_LINES);
+}
+
 export function countOf(n: number, one: string, many = `${one}s`) {
   return `${n} ${n === 1 ? one : many}`;
 }

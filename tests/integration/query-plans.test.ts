@@ -19,7 +19,7 @@ import { listStatusLinks } from "@/server/status/links";
 import { readStatusPage } from "@/server/status/queries";
 import { generateShop } from "@/scripts/bench-shop";
 import { jobCostsReport } from "@/server/labour/report";
-import { loadPartsDesk } from "@/server/parts/desk";
+import { buildPartsDesk } from "@/server/parts/desk";
 import { loadOverview } from "@/server/reports/overview";
 import { coatersReport, reportCalendar, stageTimesReport, throughputReport, workloadReport } from "@/server/reports/queries";
 import { useFreshDatabase } from "../support/db";
@@ -119,7 +119,7 @@ describe("the hot paths use indexes on a shop with a long history", () => {
     await check("coaters", () => coatersReport(db, period, cal));
     await check("workload", () => workloadReport(db, period, cal));
     await check("job cost", () => jobCostsReport(db, period, cal));
-    await check("parts desk", () => loadPartsDesk(db));
+    await check("parts desk", () => buildPartsDesk(db, cal.today, "UTC"));
     expect(problems, problems.join("\n")).toEqual([]);
   });
 });

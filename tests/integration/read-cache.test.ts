@@ -59,4 +59,32 @@ describe("answers kept until the shop writes", () => {
     await expect(flaky()).rejects.toThrow("disk busy");
     expect(await flaky()).toBe("ok");
   });
+
+  it("serves an answer past its age at once and builds the fresh one behind it, but waits after a write", async () => {
+    await ensureShop(db());
+    let clock = 0;
+    let builds = 0;
+    let release: () => void = () => {};
+    const read = () => cachedUntilWrite(db(), "aged", async () => {
+      builds += 1;
+      const n = builds;
+      if (n === 2) await new Promise<void>((r) => (release = r));
+      return n;
+    }, { refreshAfterMs: 60_000, now: () => clock });
+    expect(await read()).toBe(1);
+    clock = 30_000;
+    expect(await read()).toBe(1);
+    expect(builds).toBe(1);
+    clock = 61_000;
+    // Past its age: the kept answer at once, one build started behind it.
+    expect(await read()).toBe(1);
+    expect(await read()).toBe(1);
+    expect(builds).toBe(2);
+    release();
+    await new Promise((r) => setTimeout(r, 0));
+    expect(await read()).toBe(2);
+    // After a write nobody is given the older answer.
+    await makeCustomer(db());
+    expect(await read()).toBe(3);
+  });
 });

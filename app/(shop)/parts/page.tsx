@@ -6,10 +6,10 @@ import { requirePageStaff } from "@/server/auth/session";
 import { showStoredDate } from "@/server/http/calendar-date";
 import { COST_ROLES } from "@/server/parts/mutations";
 import { type DeskLine, loadPartsDesk } from "@/server/parts/desk";
-import { BOUGHT_PART_KIND_LABELS, countOf } from "@/server/parts/rules";
+import { BOUGHT_PART_KIND_LABELS, countOf, DESK_FIRST_LINES, DESK_FOLD_FROM, firstLinesOf } from "@/server/parts/rules";
 import { formatShopTime } from "@/server/records/calendar";
 import { shopSettings } from "@/server/shop/queries";
-import { OrderGroup, ReceiveButton } from "./parts-forms";
+import { OrderGroup, type OrderLine, ReceiveButton } from "./parts-forms";
 
 export const metadata = { title: "Parts desk" };
 
@@ -24,7 +24,11 @@ function JobCell({ line }: { line: Pick<DeskLine, "jobId" | "workOrder" | "unitN
   );
 }
 
-const LINES_PER_SUPPLIER = 25;
+/** Only what the order form shows goes to the browser. */
+const ordering = (l: DeskLine): OrderLine => ({ id: l.id, jobId: l.jobId, workOrder: l.workOrder, unitNumber: l.unitNumber, kind: l.kind, description: l.description, partNumber: l.partNumber, quantity: l.quantity, costCents: l.costCents, lineCents: l.lineCents });
+
+/** Only what the receive form needs goes to the browser, not the whole line. */
+const receiving = (l: DeskLine) => ({ id: l.id, description: l.description, quantity: l.quantity, receivedQuantity: l.receivedQuantity, workOrder: l.workOrder });
 
 function MoreLines({ supplier, shown, total, anchor }: { supplier: string; shown: number; total: number; anchor: string }) {
   if (shown >= total) return null;
@@ -44,7 +48,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
   // the whole group (to order a supplier's lines on one purchase order).
   const opened = typeof raw.supplier === "string" ? raw.supplier : null;
   const allOverdue = raw.overdue === "all";
-  const shown = <T,>(supplier: string, lines: T[]) => (supplier === opened ? lines : lines.slice(0, LINES_PER_SUPPLIER));
+  const shown = <T,>(supplier: string, lines: readonly T[]) => (supplier === opened ? lines : firstLinesOf(lines));
   const db = getDb();
   const [desk, shop] = await Promise.all([loadPartsDesk(db), shopSettings(db)]);
   const toOrderCount = desk.toOrder.reduce((n, g) => n + g.lines.length, 0);
@@ -74,19 +78,19 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
       {desk.overdue.length > 0 && (
         <Section title="Overdue deliveries" id="overdue">
           <ul className="space-y-2">
-            {desk.overdue.slice(0, allOverdue ? undefined : LINES_PER_SUPPLIER).map((l) => (
+            {(allOverdue ? desk.overdue : firstLinesOf(desk.overdue)).map((l) => (
               <li key={l.id} className="flex flex-wrap items-center justify-between gap-2 rounded-md border-2 border-stop-700 p-2" data-overdue-line={l.description}>
                 <p>
                   <span className="font-bold text-stop-700"><IconWarn /> Overdue since {day(l.expectedOn!)}</span> · {l.quantity - l.receivedQuantity} × {l.description} from {l.supplier} on{" "}
                   <Link className="underline" href={`/purchase-orders/${l.purchaseOrder!.id}`}>{l.purchaseOrder!.number}</Link> for <JobCell line={l} />
                 </p>
-                <ReceiveButton line={l} />
+                <ReceiveButton line={receiving(l)} />
               </li>
             ))}
           </ul>
-          {!allOverdue && desk.overdue.length > LINES_PER_SUPPLIER && (
+          {!allOverdue && desk.overdue.length >= DESK_FOLD_FROM && (
             <p className="mt-1 text-sm text-ink-soft">
-              Showing the {LINES_PER_SUPPLIER} longest overdue of {desk.overdue.length.toLocaleString("en-US")}.{" "}
+              Showing the {DESK_FIRST_LINES} longest overdue of {desk.overdue.length.toLocaleString("en-US")}.{" "}
               <Link className="font-semibold underline" href="/parts?overdue=all#overdue">Show all {desk.overdue.length.toLocaleString("en-US")}</Link>
             </p>
           )}
@@ -101,7 +105,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
             <p className="text-sm text-ink-soft">Tick lines for one supplier and order them on one purchase order; lines of several jobs can share it.</p>
             {desk.toOrder.map((g) => (
               <div key={g.supplier || "none"}>
-                <OrderGroup supplier={g.supplier} lines={shown(g.supplier, g.lines)} today={desk.today} suppliers={desk.suppliers} />
+                <OrderGroup supplier={g.supplier} lines={shown(g.supplier, g.lines).map(ordering)} today={desk.today} suppliers={desk.suppliers} />
                 <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="to-order" />
               </div>
             ))}
@@ -132,7 +136,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
                           <td className="pr-2"><JobCell line={l} /></td>
                           <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
                           <td className="pr-2 whitespace-nowrap">{l.receivedQuantity} of {l.quantity}</td>
-                          <td className="py-1"><ReceiveButton line={l} /></td>
+                          <td className="py-1"><ReceiveButton line={receiving(l)} /></td>
                         </tr>
                       ))}
                     </tbody>

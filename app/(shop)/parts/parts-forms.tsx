@@ -7,8 +7,10 @@ import { formatCents } from "@/components/money";
 import type { DeskLine } from "@/server/parts/desk";
 import { BOUGHT_PART_KIND_LABELS, orderTotal } from "@/server/parts/rules";
 
+export type OrderLine = Pick<DeskLine, "id" | "jobId" | "workOrder" | "unitNumber" | "kind" | "description" | "partNumber" | "quantity" | "costCents" | "lineCents">;
+
 /** One supplier's lines to order: tick them, give the dates, and make one purchase order. */
-export function OrderGroup({ supplier, lines, today, suppliers }: { supplier: string; lines: DeskLine[]; today: string; suppliers: string[] }) {
+export function OrderGroup({ supplier, lines, today, suppliers }: { supplier: string; lines: OrderLine[]; today: string; suppliers: string[] }) {
   const router = useRouter();
   const listId = useId();
   const [picked, setPicked] = useState<Set<number>>(() => new Set(supplier ? lines.map((l) => l.id) : []));

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { fitFlags } from "@/server/parts/fit";
-import { applyReceipt, boughtPartState, orderTotal, waitingWords } from "@/server/parts/rules";
+import { applyReceipt, boughtPartState, firstLinesOf, orderTotal, waitingWords } from "@/server/parts/rules";
 
 const line = (quantity: number, receivedQuantity = 0, ordered = true) => ({ quantity, receivedQuantity, ordered, installed: false });
 
@@ -79,5 +79,19 @@ describe("fit checks", () => {
   it("asks for what it cannot check: the truck's transmission, the PTO's ratio", () => {
     expect(fitFlags(pto("18-speed manual", null), { transmission: "" }, spec).map((f) => f.code)).toEqual(["transmission_unknown", "ratio_missing"]);
     expect(fitFlags(pto("18-speed manual", 122), truck, null)).toEqual([]);
+  });
+});
+
+describe("the parts desk's folded groups", () => {
+  const lines = (n: number) => Array.from({ length: n }, (_, i) => i + 1);
+
+  it("shows a short group whole, even a few lines past the first ten", () => {
+    expect(firstLinesOf(lines(3))).toEqual([1, 2, 3]);
+    expect(firstLinesOf(lines(14))).toHaveLength(14);
+  });
+
+  it("shows the first ten of a long group, in the desk's order", () => {
+    expect(firstLinesOf(lines(15))).toEqual(lines(10));
+    expect(firstLinesOf(lines(600))).toEqual(lines(10));
   });
 });
