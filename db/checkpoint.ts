@@ -94,6 +94,9 @@ export function startCheckpointer(sqlite: SQLite.Database, path: string, everyMs
     async stop() {
       if (!running) return;
       const exited = new Promise<void>((resolve) => worker.once("exit", () => resolve()));
+      // Someone waits for it to end: an unreferenced worker would let a process with nothing else
+      // to do exit mid-await (Node's exit code 13) before the worker closed its connection.
+      worker.ref();
       worker.postMessage("stop");
       await exited;
     },

@@ -1,3 +1,7 @@
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import * as health from "@/app/api/health/route";
@@ -55,6 +59,29 @@ describe("the database", () => {
     expect(checkpointer.running).toBe(false);
     const read = async (name: string) => (await sql.raw<Record<string, unknown>>(`pragma ${name}`).execute(db())).rows[0];
     expect(await read("wal_autocheckpoint")).toEqual({ wal_autocheckpoint: 1000 });
+  });
+
+  it("lets a process with nothing else to do wait for the worker to stop (a script closing the database)", () => {
+    // Run in a child: an unreferenced worker used to let such a process exit mid-await (code 13).
+    const dir = mkdtempSync(join(tmpdir(), "baywright-stop-"));
+    try {
+      const script = `
+        import Database from "better-sqlite3";
+        import { startCheckpointer } from "./db/checkpoint.ts";
+        const path = ${JSON.stringify(join(dir, "t.db"))};
+        const sqlite = new Database(path);
+        sqlite.pragma("journal_mode = WAL");
+        sqlite.exec("create table t (n integer)");
+        for (let round = 0; round < 5; round++) {
+          const c = startCheckpointer(sqlite, path, 1000);
+          await c.stop();
+        }
+        console.log("stopped five times");`;
+      const out = spawnSync(process.execPath, ["--import", "tsx", "--input-type=module", "-e", script], { cwd: process.cwd(), encoding: "utf8", timeout: 60_000 });
+      expect({ status: out.status, stdout: out.stdout.trim() }, out.stderr).toEqual({ status: 0, stdout: "stopped five times" });
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it("reports healthy once migrated", async () => {
