@@ -103,6 +103,39 @@ export function firstLinesOf<T>(lines: readonly T[]): readonly T[] {
   return lines.length < DESK_FOLD_FROM ? lines : lines.slice(0, DESK_FIRST_LINES);
 }
 
+/**
+ * A section of the parts desk with more lines than a person reads at once (a busy shop's hundreds)
+ * shows one row per supplier, each opening that supplier's lines; a small shop sees every line.
+ */
+export const DESK_INLINE_LINES = 25;
+
+export interface SupplierSummary {
+  lines: number;
+  jobs: number;
+  /** Priced lines' amounts summed in cents; unpriced lines counted apart. */
+  amountCents: number;
+  unpriced: number;
+  /** The soonest expected date among the lines, and how many are past theirs. */
+  nextExpectedOn: string | null;
+  overdue: number;
+}
+
+export function supplierSummary(lines: readonly { jobId: number; lineCents: number | null; expectedOn: string | null; overdue: boolean }[]): SupplierSummary {
+  let amountCents = 0;
+  let unpriced = 0;
+  let overdue = 0;
+  let nextExpectedOn: string | null = null;
+  const jobs = new Set<number>();
+  for (const l of lines) {
+    jobs.add(l.jobId);
+    if (l.lineCents === null) unpriced++;
+    else amountCents += l.lineCents;
+    if (l.overdue) overdue++;
+    if (l.expectedOn !== null && (nextExpectedOn === null || l.expectedOn < nextExpectedOn)) nextExpectedOn = l.expectedOn;
+  }
+  return { lines: lines.length, jobs: jobs.size, amountCents, unpriced, nextExpectedOn, overdue };
+}
+
 export function countOf(n: number, one: string, many = `${one}s`) {
   return `${n} ${n === 1 ? one : many}`;
 }

@@ -85,7 +85,16 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     expect(refused.status()).toBe(422);
     expect((await refused.json()).error.details.unmet).toEqual([`Into Install: waiting on ${description}: not ordered yet; order it from the parts desk.`]);
 
-    await page.goto(`${baseUrl()}/parts`);
+    // A busy desk folds each section to a row per supplier; the office opens its supplier's lines.
+    const openSupplier = async (action: "Open to order" | "Open to receive") => {
+      await page.goto(`${baseUrl()}/parts`);
+      const open = page.getByRole("link", { name: `${action} from ${supplier}` });
+      if (await open.count()) {
+        await open.click();
+        await page.waitForURL(/\/parts\?supplier=/);
+      }
+    };
+    await openSupplier("Open to order");
     const group = page.locator(`form[data-order-group="${supplier}"]`);
     expect(await group.getByRole("checkbox", { name: `Order ${description} for ${job.workOrder}` }).isChecked()).toBe(true);
     await group.getByLabel("Expected on").fill(new Date(Date.now() + 5 * 86_400_000).toISOString().slice(0, 10));
@@ -96,7 +105,7 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     expect(poNumber).toMatch(/^PO-\d{2}-\d{4}$/);
     await shot(page, "purchase-order-desk");
 
-    await page.goto(`${baseUrl()}/parts`);
+    await openSupplier("Open to receive");
     const row = page.locator(`tr[data-on-order="${description}"]`, { hasText: job.workOrder });
     expect(await row.textContent()).toContain(poNumber);
     await shot(page, "parts-desk-desk");

@@ -18,7 +18,7 @@ export const metadata = { title: "Hours and job cost" };
 const hours = (h: number) => `${h.toFixed(2)} h`;
 const day = (iso: string) => showStoredDate(iso, "EEE d MMM yyyy");
 
-const JOBS_SHOWN = 50;
+const JOBS_SHOWN = 20;
 
 /** Hours by stage, each job's cost so far, and each person's hours per week, over a period. */
 export default async function JobCostsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {

@@ -6,7 +6,8 @@ import { requirePageStaff } from "@/server/auth/session";
 import { showStoredDate } from "@/server/http/calendar-date";
 import { COST_ROLES } from "@/server/parts/mutations";
 import { type DeskLine, loadPartsDesk } from "@/server/parts/desk";
-import { BOUGHT_PART_KIND_LABELS, countOf, DESK_FIRST_LINES, DESK_FOLD_FROM, firstLinesOf } from "@/server/parts/rules";
+import { BOUGHT_PART_KIND_LABELS, countOf, DESK_FIRST_LINES, DESK_FOLD_FROM, DESK_INLINE_LINES, firstLinesOf, supplierSummary } from "@/server/parts/rules";
+import { formatCents } from "@/components/money";
 import { formatShopTime } from "@/server/records/calendar";
 import { shopSettings } from "@/server/shop/queries";
 import { OrderGroup, type OrderLine, ReceiveButton } from "./parts-forms";
@@ -40,6 +41,76 @@ function MoreLines({ supplier, shown, total, anchor }: { supplier: string; shown
   );
 }
 
+/** One supplier's lines on order, soonest expected first, each with its Receive button. */
+function OnOrderTable({ lines }: { lines: readonly DeskLine[] }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full min-w-[720px] text-left text-sm">
+        <thead className="border-b border-line text-ink-soft">
+          <tr><th className="py-1 pr-2">Expected</th><th className="pr-2">Order</th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Received</th><th className="pr-2"><span className="sr-only">Receive</span></th></tr>
+        </thead>
+        <tbody>
+          {lines.map((l) => (
+            <tr key={l.id} className="border-b border-line/60 align-top" data-on-order={l.description}>
+              <td className={`py-1.5 pr-2 whitespace-nowrap ${l.overdue ? "font-bold text-stop-700" : ""}`}>
+                {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
+              </td>
+              <td className="pr-2 whitespace-nowrap">{l.purchaseOrder ? <Link className="underline" href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
+              <td className="pr-2"><JobCell line={l} /></td>
+              <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
+              <td className="pr-2 whitespace-nowrap">{l.receivedQuantity} of {l.quantity}</td>
+              <td className="py-1"><ReceiveButton line={receiving(l)} /></td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+/** A busy section folded to one row per supplier; each opens that supplier's lines. */
+function SupplierRows({ groups, anchor, kind }: { groups: { supplier: string; lines: DeskLine[] }[]; anchor: string; kind: "to-order" | "on-order" }) {
+  if (groups.length === 0) return null;
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full text-left text-sm" data-supplier-rows={kind}>
+        <thead className="border-b border-line text-ink-soft">
+          <tr>
+            <th className="py-1 pr-2">Supplier</th>
+            <th className="pr-2 text-right">Lines</th>
+            <th className="pr-2 text-right">Jobs</th>
+            <th className="pr-2 text-right">{kind === "to-order" ? "Amount" : "Next expected"}</th>
+            <th><span className="sr-only">Open</span></th>
+          </tr>
+        </thead>
+        <tbody>
+          {groups.map((g) => {
+            const sum = supplierSummary(g.lines);
+            const name = g.supplier || "Supplier not chosen yet";
+            return (
+              <tr key={g.supplier || "none"} className="border-b border-line/60">
+                <td className="py-1.5 pr-2 font-semibold">{name}</td>
+                <td className="pr-2 text-right tabular-nums">{sum.lines.toLocaleString("en-US")}</td>
+                <td className="pr-2 text-right tabular-nums">{sum.jobs.toLocaleString("en-US")}</td>
+                <td className={`pr-2 text-right tabular-nums ${sum.overdue ? "font-bold text-stop-700" : ""}`}>
+                  {kind === "to-order"
+                    ? <>{formatCents(sum.amountCents)}{sum.unpriced ? ` (+${sum.unpriced} not priced)` : ""}</>
+                    : <>{sum.nextExpectedOn ? day(sum.nextExpectedOn) : "No date given"}{sum.overdue ? ` · ${sum.overdue} overdue` : ""}</>}
+                </td>
+                <td className="py-1 text-right">
+                  <Link className="font-semibold underline" href={`/parts?supplier=${encodeURIComponent(g.supplier)}#${anchor}`}>
+                    {kind === "to-order" ? "Open to order" : "Open to receive"}<span className="sr-only"> from {name}</span>
+                  </Link>
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
 /** The shop's parts desk: what to order, what is on order and late, what came this week. */
 export default async function PartsDeskPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   await requirePageStaff(COST_ROLES);
@@ -48,17 +119,26 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
   // the whole group (to order a supplier's lines on one purchase order).
   const opened = typeof raw.supplier === "string" ? raw.supplier : null;
   const allOverdue = raw.overdue === "all";
+  const allReceived = raw.received === "all";
   const shown = <T,>(supplier: string, lines: readonly T[]) => (supplier === opened ? lines : firstLinesOf(lines));
   const db = getDb();
   const [desk, shop] = await Promise.all([loadPartsDesk(db), shopSettings(db)]);
   const toOrderCount = desk.toOrder.reduce((n, g) => n + g.lines.length, 0);
   const onOrderCount = desk.onOrder.reduce((n, g) => n + g.lines.length, 0);
+  // A section of a few lines shows them all; a busy one shows a row per supplier, and the supplier
+  // opened (?supplier=) shows its lines.
+  const inline = (supplier: string, sectionLines: number) => supplier === opened || sectionLines <= DESK_INLINE_LINES;
   return (
     <div className="space-y-4">
       <div>
         <h1 className="text-2xl font-bold">Parts desk</h1>
         <p className="text-ink-soft">Bought-in parts across the shop&apos;s jobs. A job moves to Install only when all of its parts are here.</p>
       </div>
+      {opened !== null && (
+        <p className="text-sm">
+          Showing every line from <strong>{opened || "no supplier yet"}</strong>. <Link className="font-semibold underline" href="/parts">Back to every supplier</Link>
+        </p>
+      )}
       <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4">
         {[
           ["To order", countOf(toOrderCount, "line"), "#to-order", toOrderCount > 0 ? "warn" : "plain"],
@@ -102,13 +182,18 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
           <p className="text-ink-soft"><IconCheck /> Nothing to order: every bought-in part listed on a job is ordered.</p>
         ) : (
           <div className="space-y-4">
-            <p className="text-sm text-ink-soft">Tick lines for one supplier and order them on one purchase order; lines of several jobs can share it.</p>
-            {desk.toOrder.map((g) => (
-              <div key={g.supplier || "none"}>
-                <OrderGroup supplier={g.supplier} lines={shown(g.supplier, g.lines).map(ordering)} today={desk.today} suppliers={desk.suppliers} />
-                <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="to-order" />
-              </div>
-            ))}
+            <p className="text-sm text-ink-soft">
+              {toOrderCount > DESK_INLINE_LINES && !opened ? "Open a supplier to tick its lines" : "Tick lines for one supplier"} and order them on one purchase order; lines of several jobs can share it.
+            </p>
+            {desk.toOrder.map((g) =>
+              inline(g.supplier, toOrderCount) ? (
+                <div key={g.supplier || "none"}>
+                  <OrderGroup supplier={g.supplier} lines={shown(g.supplier, g.lines).map(ordering)} today={desk.today} suppliers={desk.suppliers} />
+                  <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="to-order" />
+                </div>
+              ) : null,
+            )}
+            <SupplierRows groups={desk.toOrder.filter((g) => !inline(g.supplier, toOrderCount))} anchor="to-order" kind="to-order" />
           </div>
         )}
       </Section>
@@ -118,33 +203,16 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
           <p className="text-ink-soft">Nothing on order.</p>
         ) : (
           <div className="space-y-4">
-            {desk.onOrder.map((g) => (
-              <div key={g.supplier}>
-                <h3 className="font-bold">{g.supplier}</h3>
-                <div className="overflow-x-auto">
-                  <table className="w-full min-w-[720px] text-left text-sm">
-                    <thead className="border-b border-line text-ink-soft">
-                      <tr><th className="py-1 pr-2">Expected</th><th className="pr-2">Order</th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Received</th><th className="pr-2"><span className="sr-only">Receive</span></th></tr>
-                    </thead>
-                    <tbody>
-                      {shown(g.supplier, g.lines).map((l) => (
-                        <tr key={l.id} className="border-b border-line/60 align-top" data-on-order={l.description}>
-                          <td className={`py-1.5 pr-2 whitespace-nowrap ${l.overdue ? "font-bold text-stop-700" : ""}`}>
-                            {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
-                          </td>
-                          <td className="pr-2 whitespace-nowrap">{l.purchaseOrder ? <Link className="underline" href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
-                          <td className="pr-2"><JobCell line={l} /></td>
-                          <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
-                          <td className="pr-2 whitespace-nowrap">{l.receivedQuantity} of {l.quantity}</td>
-                          <td className="py-1"><ReceiveButton line={receiving(l)} /></td>
-                        </tr>
-                      ))}
-                    </tbody>
-                  </table>
+            {desk.onOrder.map((g) =>
+              inline(g.supplier, onOrderCount) ? (
+                <div key={g.supplier}>
+                  <h3 className="font-bold">{g.supplier}</h3>
+                  <OnOrderTable lines={shown(g.supplier, g.lines)} />
+                  <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="on-order" />
                 </div>
-                <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="on-order" />
-              </div>
-            ))}
+              ) : null,
+            )}
+            <SupplierRows groups={desk.onOrder.filter((g) => !inline(g.supplier, onOrderCount))} anchor="on-order" kind="on-order" />
           </div>
         )}
       </Section>
@@ -155,13 +223,18 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
             <p className="text-ink-soft">Nothing received yet this week.</p>
           ) : (
             <ul className="space-y-1 text-sm">
-              {desk.receivedThisWeek.map((r) => (
+              {(allReceived ? desk.receivedThisWeek : desk.receivedThisWeek.slice(0, DESK_FIRST_LINES)).map((r) => (
                 <li key={r.id}>
                   <span className="text-ink-soft">{formatShopTime(r.at, shop.timeZone, "EEE d MMM HH:mm")}</span> · {r.quantity} × {r.description} for{" "}
                   <Link className="underline" href={`/jobs/${r.jobId}#bought-parts`}>{r.workOrder}</Link> · {r.byName}
                 </li>
               ))}
             </ul>
+          )}
+          {!allReceived && desk.receivedThisWeek.length > DESK_FIRST_LINES && (
+            <p className="mt-1 text-sm text-ink-soft">
+              Showing the newest {DESK_FIRST_LINES}. <Link className="font-semibold underline" href="/parts?received=all#received">Show all {desk.receivedThisWeek.length.toLocaleString("en-US")}</Link>
+            </p>
           )}
         </Section>
         <Section title="Purchase orders" id="orders">

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { fitFlags } from "@/server/parts/fit";
-import { applyReceipt, boughtPartState, firstLinesOf, orderTotal, waitingWords } from "@/server/parts/rules";
+import { applyReceipt, boughtPartState, firstLinesOf, orderTotal, supplierSummary, waitingWords } from "@/server/parts/rules";
 
 const line = (quantity: number, receivedQuantity = 0, ordered = true) => ({ quantity, receivedQuantity, ordered, installed: false });
 
@@ -93,5 +93,19 @@ describe("the parts desk's folded groups", () => {
   it("shows the first ten of a long group, in the desk's order", () => {
     expect(firstLinesOf(lines(15))).toEqual(lines(10));
     expect(firstLinesOf(lines(600))).toEqual(lines(10));
+  });
+
+  it("sums a supplier's folded lines: jobs once each, unpriced lines apart, the soonest date and the late ones", () => {
+    const line = (jobId: number, lineCents: number | null, expectedOn: string | null, overdue = false) => ({ jobId, lineCents, expectedOn, overdue });
+    expect(supplierSummary([line(1, 118_500, "2026-12-09"), line(1, null, null), line(2, 2 * 9_475, "2026-11-30", true), line(3, 6_240, "2026-12-01", true)])).toEqual({
+      lines: 4,
+      jobs: 3,
+      // 1,185.00 + 189.50 + 62.40, worked by hand
+      amountCents: 143_690,
+      unpriced: 1,
+      nextExpectedOn: "2026-11-30",
+      overdue: 2,
+    });
+    expect(supplierSummary([])).toEqual({ lines: 0, jobs: 0, amountCents: 0, unpriced: 0, nextExpectedOn: null, overdue: 0 });
   });
 });
