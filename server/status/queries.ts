@@ -3,6 +3,7 @@ import { sql } from "kysely";
 import type { DB } from "@/db";
 import type { JobScope, Stage } from "@/db/schema";
 import { notifySettings } from "@/server/email/settings";
+import { ApiError } from "@/server/http/errors";
 import { predictJob } from "@/server/jobs/prediction-queries";
 import { stageIndex } from "@/server/jobs/stages";
 import { jobRoute } from "./route";
@@ -44,6 +45,17 @@ export async function openStatusLink(db: DB, rawToken: string, now = new Date())
   const state = linkState(link, { stage: link.stage, deliveredAt: delivered }, statusLinkDays, now);
   if (state !== "active") return { state, linkId: link.id };
   return { state, linkId: link.id, jobId: link.job_id, lastOpenedAt: link.last_opened_at };
+}
+
+/**
+ * The job of a working link, for the customer's own actions on it (approving a quote, paying, a
+ * PDF): a turned-off or expired link says so, an unknown one is "not found", as on the page.
+ */
+export async function jobOfWorkingLink(db: DB, rawToken: string): Promise<number> {
+  const link = await openStatusLink(db, rawToken);
+  if (link.state === "revoked" || link.state === "expired") throw new ApiError("not_found", "This status link no longer works. Ask the shop for a new one.");
+  if (link.state !== "active") throw new ApiError("not_found", "Not found.");
+  return link.jobId;
 }
 
 /**

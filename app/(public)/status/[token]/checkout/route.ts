@@ -1,9 +1,8 @@
 import { z } from "zod";
 import { getDb } from "@/db";
-import { ApiError } from "@/server/http/errors";
 import { json, readJson, respond } from "@/server/http/respond";
 import { startCheckout } from "@/server/money/payments";
-import { openStatusLink } from "@/server/status/queries";
+import { jobOfWorkingLink } from "@/server/status/queries";
 
 const checkoutSchema = z.strictObject({
   purpose: z.enum(["deposit", "invoice"], { error: "Choose to pay the deposit or the invoice." }),
@@ -17,10 +16,8 @@ export async function POST(req: Request, ctx: { params: Promise<{ token: string 
   return respond(async () => {
     const { token } = await ctx.params;
     const db = getDb();
-    const link = await openStatusLink(db, token);
-    if (link.state === "revoked" || link.state === "expired") throw new ApiError("not_found", "This status link no longer works. Ask the shop for a new one.");
-    if (link.state !== "active") throw new ApiError("not_found", "Not found.");
+    const jobId = await jobOfWorkingLink(db, token);
     const { purpose } = await readJson(req, checkoutSchema);
-    return json(await startCheckout(db, link.jobId, purpose, token));
+    return json(await startCheckout(db, jobId, purpose, token));
   });
 }

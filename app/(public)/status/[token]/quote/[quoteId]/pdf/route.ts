@@ -1,9 +1,8 @@
 import { getDb } from "@/db";
-import { ApiError } from "@/server/http/errors";
 import { parseId, respond } from "@/server/http/respond";
 import { customerQuotePdf } from "@/server/money/customer-quote";
 import { pdfResponse } from "@/server/money/quote-pdf";
-import { openStatusLink } from "@/server/status/queries";
+import { jobOfWorkingLink } from "@/server/status/queries";
 
 export const dynamic = "force-dynamic";
 
@@ -12,8 +11,6 @@ export async function GET(_req: Request, ctx: { params: Promise<{ token: string;
   return respond(async () => {
     const { token, quoteId } = await ctx.params;
     const db = getDb();
-    const link = await openStatusLink(db, token);
-    if (link.state !== "active") throw new ApiError("not_found", "This status link no longer works. Ask the shop for a new one.");
-    return pdfResponse(await customerQuotePdf(db, link.jobId, parseId(quoteId, "Quote")));
+    return pdfResponse(await customerQuotePdf(db, await jobOfWorkingLink(db, token), parseId(quoteId, "Quote")));
   });
 }
