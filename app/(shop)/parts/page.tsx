@@ -43,28 +43,28 @@ function MoreLines({ supplier, shown, total, anchor }: { supplier: string; shown
 
 /** One supplier's lines on order, soonest expected first, each with its Receive button. */
 function OnOrderTable({ lines }: { lines: readonly DeskLine[] }) {
+  // A table at the desk; on a phone each line stacks into a card with its labels, no sideways scroll.
+  const label = (text: string) => <span className="font-semibold text-ink-soft md:hidden">{text}: </span>;
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full min-w-[720px] text-left text-sm">
-        <thead className="border-b border-line text-ink-soft">
-          <tr><th className="py-1 pr-2">Expected</th><th className="pr-2">Order</th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Received</th><th className="pr-2"><span className="sr-only">Receive</span></th></tr>
-        </thead>
-        <tbody>
-          {lines.map((l) => (
-            <tr key={l.id} className="border-b border-line/60 align-top" data-on-order={l.description}>
-              <td className={`py-1.5 pr-2 whitespace-nowrap ${l.overdue ? "font-bold text-stop-700" : ""}`}>
-                {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
-              </td>
-              <td className="pr-2 whitespace-nowrap">{l.purchaseOrder ? <Link className="underline" href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
-              <td className="pr-2"><JobCell line={l} /></td>
-              <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
-              <td className="pr-2 whitespace-nowrap">{l.receivedQuantity} of {l.quantity}</td>
-              <td className="py-1"><ReceiveButton line={receiving(l)} /></td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <table className="w-full text-left text-sm">
+      <thead className="border-b border-line text-ink-soft max-md:sr-only">
+        <tr><th className="py-1 pr-2">Expected</th><th className="pr-2">Order</th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Received</th><th className="pr-2"><span className="sr-only">Receive</span></th></tr>
+      </thead>
+      <tbody>
+        {lines.map((l) => (
+          <tr key={l.id} className="border-b border-line/60 align-middle max-md:block max-md:py-2 md:[&>td]:py-1.5" data-on-order={l.description}>
+            <td className={`pr-2 whitespace-nowrap max-md:block max-md:py-0.5 ${l.overdue ? "font-bold text-stop-700" : ""}`}>
+              {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
+            </td>
+            <td className="pr-2 whitespace-nowrap max-md:block max-md:py-0.5">{label("Order")}{l.purchaseOrder ? <Link className="underline" href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
+            <td className="pr-2 max-md:block max-md:py-0.5">{label("Job")}<JobCell line={l} /></td>
+            <td className="pr-2 max-md:block max-md:py-0.5">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
+            <td className="pr-2 whitespace-nowrap max-md:block max-md:py-0.5">{label("Received")}{l.receivedQuantity} of {l.quantity}</td>
+            <td className="max-md:block max-md:pt-1"><ReceiveButton line={receiving(l)} /></td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }
 
