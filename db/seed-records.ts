@@ -103,6 +103,8 @@ export async function seedRecords(db: Kysely<Database>, now: Date) {
       .insertInto("coating_run")
       .values({
         vendor_id: run.vendorId, finish_colour: run.colour, finish_gloss: run.gloss, sent_on: run.sentOn, promised_on: run.promisedOn,
+        // The coater's price for the run (invented for the demo): a lot charge and a price per part.
+        price_cents: 6_000 + 8_500 * partIds.length,
         received_on: run.receivedOn ?? null, dft_readings_mils: run.inspection ? JSON.stringify(run.inspection.dft) : null,
         adhesion_ok: run.inspection ? (run.inspection.adhesionOk ? 1 : 0) : null, defects: run.inspection?.defects ?? null,
         inspected_at: run.inspection && run.receivedOn ? at(run.receivedOn, 20) : null, inspected_by: inspector?.id ?? null,
