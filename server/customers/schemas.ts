@@ -1,14 +1,8 @@
 import { z } from "zod";
+import { CUSTOMER_KINDS, CUSTOMER_LIMITS, type CustomerKind } from "./labels";
 
-export const CUSTOMER_KINDS = ["company", "owner_operator"] as const;
-export type CustomerKind = (typeof CUSTOMER_KINDS)[number];
-
-export const CUSTOMER_KIND_LABELS: Record<CustomerKind, string> = {
-  company: "Company",
-  owner_operator: "Owner-operator",
-};
-
-export const CUSTOMER_LIMITS = { name: 120, notes: 4000, phone: 30, email: 200, contacts: 50, search: 120 } as const;
+// Kinds, labels and limits need no zod, so the customer form in the browser imports them from ./labels.
+export { CUSTOMER_KINDS, CUSTOMER_KIND_LABELS, CUSTOMER_LIMITS, type CustomerKind } from "./labels";
 
 export const requiredText = (what: string, max: number) =>
   z

@@ -1,6 +1,9 @@
 import { z } from "zod";
 import { stageSchema } from "@/server/jobs/schemas";
 
+// The upload limits need no zod, so the photo panel in the browser imports them from ./limits.
+export { HEIC_ADVICE, MAX_PHOTO_BYTES, MAX_PHOTO_PIXELS, MAX_PHOTO_SIZE_LABEL, MAX_PHOTOS_PER_UPLOAD, PHOTO_TYPES, type PhotoType } from "./limits";
+
 /** What a photo upload says about itself; the files are checked on their own. */
 export const photoUploadInput = z.object({
   jobId: z.number({ message: "Say which job the photos belong to." }).int().positive("Say which job the photos belong to."),
@@ -19,13 +22,3 @@ export const photoPatchSchema = z
   .strict()
   .refine((p) => Object.keys(p).length > 0, "Send the caption, customerVisible or stage to change.");
 export type PhotoPatch = z.infer<typeof photoPatchSchema>;
-
-export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
-export const MAX_PHOTO_SIZE_LABEL = "8MB";
-export const MAX_PHOTOS_PER_UPLOAD = 10;
-/** What a phone camera makes at most (12 to 50 megapixels at their usual settings, from memory); a bigger picture costs too much memory to decode. */
-export const MAX_PHOTO_PIXELS = 50_000_000;
-/** What the shop takes: what phones and cameras write and this server can read. */
-export const PHOTO_TYPES = ["image/jpeg", "image/png", "image/webp"] as const;
-export type PhotoType = (typeof PHOTO_TYPES)[number];
-export const HEIC_ADVICE = "HEIC photos cannot be read here. Set the phone's camera to the most compatible format (JPEG), or pick the photo from the camera button, which sends JPEG.";

@@ -1,8 +1,24 @@
 import { z } from "zod";
 import { calendarDate } from "@/server/http/calendar-date";
 import { expectedEndPressurePsig, SEA_LEVEL_PSIA } from "./leak-test";
+import { GLOSS_LEVELS, PART_KINDS, PART_MATERIALS, PART_SHAPES, type PartKind } from "./labels";
 import { type LeakTestProcedure, PROCEDURE_LIMITS } from "./procedure";
 import { INDICATOR_INPUTS, INDICATOR_SOURCES, SIGN_OFF_CHECK_KEYS, type SignOffCheckKey } from "./sign-off";
+
+// The lists, labels and kind defaults need no zod, so the forms in the browser import them from ./labels.
+export {
+  GLOSS_LEVELS,
+  PART_KINDS,
+  PART_MATERIALS,
+  PART_SHAPES,
+  glossLabels,
+  kindDefaults,
+  partKindLabels,
+  partMaterialLabels,
+  partShapeLabels,
+  type PartKind,
+  type PartMaterial,
+} from "./labels";
 
 // Numbers arrive as numbers: the form converts its fields before parsing, so an empty box is
 // "missing", never a silent 0.
@@ -110,9 +126,6 @@ export const leakTestInputSchema = z
   });
 export type LeakTestInput = z.output<typeof leakTestInputSchema>;
 export type LeakTestFormInput = z.input<typeof leakTestInputSchema>;
-
-// Powder-coat gloss levels as coaters quote them (common practice, no published source).
-export const GLOSS_LEVELS = ["flat", "matte", "satin", "semi_gloss", "gloss", "high_gloss"] as const;
 
 export const coatingFinishSchema = z.object({
   colour: name("the color"),
@@ -232,29 +245,6 @@ export const signOffSaveSchema = wiringSignOffSchema.extend({
 });
 export type SignOffSave = z.output<typeof signOffSaveSchema>;
 
-export const PART_KINDS = ["reservoir", "box", "bracket", "other"] as const;
-export type PartKind = (typeof PART_KINDS)[number];
-export const PART_MATERIALS = ["aluminum", "stainless", "carbon_steel"] as const;
-export type PartMaterial = (typeof PART_MATERIALS)[number];
-export const PART_SHAPES = ["round", "box", "d", "other"] as const;
-
-export const partKindLabels: Record<PartKind, string> = { reservoir: "Reservoir", box: "Box", bracket: "Bracket", other: "Other" };
-export const partMaterialLabels: Record<PartMaterial, string> = { aluminum: "Aluminum", stainless: "Stainless", carbon_steel: "Carbon steel" };
-export const partShapeLabels: Record<(typeof PART_SHAPES)[number], string> = {
-  round: "Round (horizontal tube)",
-  box: "Box (flat walls)",
-  d: "D-shaped (flat side on the rail)",
-  other: "Other shape",
-};
-export const glossLabels: Record<(typeof GLOSS_LEVELS)[number], string> = {
-  flat: "Flat",
-  matte: "Matte",
-  satin: "Satin",
-  semi_gloss: "Semi-gloss",
-  gloss: "Gloss",
-  high_gloss: "High gloss",
-};
-
 // An unknown key in a body gets the schema's own plain-word message; other object errors keep zod's.
 const strictError = (message: string) => (issue: { code?: string }) =>
   issue.code === "unrecognized_keys" ? message : issue.code === "invalid_type" ? "Send the changes as a JSON object." : undefined;
@@ -305,23 +295,6 @@ export type PartRecord = {
   geometry: PartGeometry | null;
   needsLeakTest: boolean;
 };
-
-/**
- * What a part of each kind starts with. A reservoir is always leak-tested (trade reference, leak
- * test); a box, bracket or other part is not unless someone ticks it. Only a reservoir carries tank
- * geometry; a box part has flat walls. Changing a part's kind resets these, so a reservoir turned
- * into a bracket does not keep asking for a leak test.
- */
-export function kindDefaults(kind: PartKind, currentShape: (typeof PART_SHAPES)[number] = "round") {
-  switch (kind) {
-    case "reservoir":
-      return { needsLeakTest: true, shape: currentShape, keepsGeometry: true };
-    case "box":
-      return { needsLeakTest: false, shape: "box" as const, keepsGeometry: false };
-    default:
-      return { needsLeakTest: false, shape: "other" as const, keepsGeometry: false };
-  }
-}
 
 /** Rules that tie a part's fields together; checked on create and again on every edit, after merging. */
 export function partProblems(part: PartRecord): { path: string; message: string }[] {

@@ -1,19 +1,10 @@
 import { z } from "zod";
 import { optionalText, requiredText } from "@/server/customers/schemas";
 import { VIN_MESSAGES, vinProblem } from "@/server/vehicles/vin";
+import { TRUCK_LIMITS } from "./limits";
 
-export const TRUCK_LIMITS = {
-  unitNumber: 40,
-  description: 200,
-  transmission: 80,
-  make: 40,
-  model: 60,
-  ptoOpening: 80,
-  firstYear: 1980,
-  rpmMin: 500,
-  rpmMax: 3000,
-  search: 120,
-} as const;
+// The limits need no zod, so the truck form in the browser imports them from ./limits.
+export { TRUCK_LIMITS } from "./limits";
 
 /** Model years run one ahead of the calendar; read the clock at parse time, not at start-up. */
 export function latestModelYear(now = new Date()) {

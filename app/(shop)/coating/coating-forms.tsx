@@ -10,7 +10,7 @@ import type { CoatingCandidate, VendorView } from "@/server/records/queries";
 import type { RunJobMove, RunMoveOffer } from "@/server/records/run-moves";
 import { stageIndex } from "@/server/jobs/stages";
 import { MoveJobChoices, useRunOutcome } from "./run-moves";
-import { GLOSS_LEVELS, glossLabels } from "@/server/records/schemas";
+import { GLOSS_LEVELS, glossLabels } from "@/server/records/labels";
 import { addBusinessDaysTo } from "@/server/records/turnaround";
 
 const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;

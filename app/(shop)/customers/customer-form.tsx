@@ -3,7 +3,8 @@
 import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { Field, FormAlert, buttonClass, inputClass, str, useApiForm } from "@/components/form";
-import { CUSTOMER_KIND_LABELS, CUSTOMER_LIMITS, type ContactView, type CustomerFacts } from "@/server/customers/schemas";
+import { CUSTOMER_KIND_LABELS, CUSTOMER_LIMITS } from "@/server/customers/labels";
+import type { ContactView, CustomerFacts } from "@/server/customers/schemas";
 import { bannerFor, useFocusFirstProblem } from "./controls";
 
 interface Saved {

@@ -3,7 +3,8 @@
 import { useRouter } from "next/navigation";
 import { useRef, useState } from "react";
 import { Field, FormAlert, buttonClass, inputClass, num, str, useApiForm } from "@/components/form";
-import { TRUCK_LIMITS, type TruckView } from "@/server/trucks/schemas";
+import { TRUCK_LIMITS } from "@/server/trucks/limits";
+import type { TruckView } from "@/server/trucks/schemas";
 import { VIN_MESSAGES, vinProblem } from "@/server/vehicles/vin";
 import { bannerFor, useFocusFirstProblem } from "../customers/controls";
 

@@ -8,7 +8,7 @@ import { buttonClass, Field, FormActions, FormAlert, inputClass, num, str, useAp
 import { IconCheck, IconClock, IconWarn } from "@/components/icons";
 import { formatCents, parseDollars } from "@/components/money";
 import { BOUGHT_PART_KINDS, type BoughtPartKind } from "@/db/tables/bought-parts";
-import { showStoredDate } from "@/server/http/calendar-date";
+import { showStoredDate } from "@/server/http/stored-date";
 import type { BoughtPartView } from "@/server/parts/queries";
 import { BOUGHT_PART_KIND_LABELS, BOUGHT_PART_STATE_LABELS, isWaiting } from "@/server/parts/rules";
 import { formatShopTime } from "@/server/records/calendar";

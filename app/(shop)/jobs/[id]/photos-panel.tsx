@@ -10,7 +10,7 @@ import { STAGE_LABELS } from "@/server/jobs/stages";
 import { formatShopTime } from "@/server/records/calendar";
 import type { JobPhoto } from "@/server/photos/queries";
 import type { PhotoRouter } from "@/server/photos/router";
-import { MAX_PHOTOS_PER_UPLOAD, MAX_PHOTO_BYTES, PHOTO_TYPES } from "@/server/photos/schemas";
+import { MAX_PHOTOS_PER_UPLOAD, MAX_PHOTO_BYTES, PHOTO_TYPES } from "@/server/photos/limits";
 
 const { uploadFiles } = generateReactHelpers<PhotoRouter>();
 

@@ -5,7 +5,7 @@ import { useId, useState } from "react";
 import { Field, FormActions, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import type { PartKind, PartMaterial, PartShape } from "@/db/tables/records";
 import type { PartView } from "@/server/records/queries";
-import { PART_KINDS, PART_MATERIALS, PART_SHAPES, kindDefaults, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/schemas";
+import { PART_KINDS, PART_MATERIALS, PART_SHAPES, kindDefaults, partKindLabels, partMaterialLabels, partShapeLabels } from "@/server/records/labels";
 
 /**
  * Adds a part to the job, or edits one. A reservoir may carry its geometry (inside dimensions,

@@ -1,6 +1,6 @@
 "use client";
 
-import { showStoredDate } from "@/server/http/calendar-date";
+import { showStoredDate } from "@/server/http/stored-date";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
@@ -10,7 +10,8 @@ import type { JobScope } from "@/db/schema";
 import { tankFill } from "@/server/kit-calc/tank";
 import { formatShopTime } from "@/server/records/calendar";
 import type { LeakTestView, PartView } from "@/server/records/queries";
-import { type PartGeometry, glossLabels, partKindLabels, partMaterialLabels } from "@/server/records/schemas";
+import { glossLabels, partKindLabels, partMaterialLabels } from "@/server/records/labels";
+import type { PartGeometry } from "@/server/records/schemas";
 import { sendBackNote } from "@/server/records/send-back";
 import type { LeakTestProcedure } from "@/server/records/procedure";
 import { type LeakTestJob, LeakTestForm, SendBackOffer, cautionsOf, correctedDropText, gaugePrefill } from "./records-leak-test";
