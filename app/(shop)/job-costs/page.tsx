@@ -11,7 +11,7 @@ import { jobCostsReport } from "@/server/labour/report";
 import { readPeriod } from "@/server/reports/period";
 import { reportCalendar } from "@/server/reports/queries";
 import { formatShopTime } from "@/server/records/calendar";
-import { HoursByStageChart } from "./hours-chart";
+import { LazyHoursByStageChart } from "./hours-chart-lazy";
 
 export const metadata = { title: "Hours and job cost" };
 
@@ -70,7 +70,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
           <p className="text-ink-soft">No hours clocked in this period.</p>
         ) : (
           <>
-            <HoursByStageChart stages={report.stages} />
+            <LazyHoursByStageChart stages={report.stages} />
             <table className="mt-2 w-full max-w-xl text-left text-sm">
               <thead className="border-b border-line text-ink-soft"><tr><th className="py-1">Stage</th><th className="text-right">Hours</th></tr></thead>
               <tbody>

@@ -1,6 +1,6 @@
 "use client";
 
-import { generateReactHelpers } from "@uploadthing/react";
+import type { generateReactHelpers } from "@uploadthing/react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useId, useRef, useState } from "react";
 import { ApiRequestError, api } from "@/components/api";
@@ -12,7 +12,14 @@ import type { JobPhoto } from "@/server/photos/queries";
 import type { PhotoRouter } from "@/server/photos/router";
 import { MAX_PHOTOS_PER_UPLOAD, MAX_PHOTO_BYTES, PHOTO_TYPES } from "@/server/photos/limits";
 
-const { uploadFiles } = generateReactHelpers<PhotoRouter>();
+// The upload client loads when the first photo is sent, not with the page: most who open a job
+// only read it.
+type UploadFiles = ReturnType<typeof generateReactHelpers<PhotoRouter>>["uploadFiles"];
+let uploader: Promise<UploadFiles> | null = null;
+function loadUploader(): Promise<UploadFiles> {
+  uploader ??= import("@uploadthing/react").then((m) => m.generateReactHelpers<PhotoRouter>().uploadFiles);
+  return uploader;
+}
 
 const photoKeys = { job: (jobId: number) => ["job", jobId, "photos"] as const, line: (jobId: number) => ["job", jobId, "photos", "line"] as const };
 
@@ -104,6 +111,7 @@ export function PhotosPanel({
     if (ok.length === 0) return;
     const rowOf = new Map(ok.map(({ file, row }) => [file, row.id]));
     try {
+      const uploadFiles = await loadUploader();
       const results = await uploadFiles("jobPhoto", {
         files: ok.map((o) => o.file),
         input: { jobId, stage, partId: partId ? Number(partId) : null, caption },
