@@ -3,7 +3,7 @@ import type { DB } from "@/db";
 import { loadJobMoney } from "@/server/money/job-money";
 import { waitingBoughtParts } from "@/server/parts/queries";
 import { partStatuses, signOffStates } from "@/server/records/queries";
-import type { GateRecords } from "./gates";
+import { type GateRecords, waivedGatesOf } from "./gates";
 
 /**
  * The records each job's gates read, for many jobs at once (the board asks for hundreds): one
@@ -23,6 +23,21 @@ export async function loadGateRecords(db: DB, jobIds: readonly number[]): Promis
   for (const waiting of await waitingBoughtParts(db, jobIds)) {
     const job = records.get(waiting.jobId);
     if (job) (job.waitingBoughtParts ??= []).push(waiting);
+  }
+  // Owner overrides are rare: only the jobs that have one read their moves.
+  const overridden = await db.selectFrom("stage_event").select("job_id").distinct().where("job_id", "in", jobIds).where("override_reason", "is not", null).execute();
+  if (overridden.length) {
+    const moves = await db
+      .selectFrom("stage_event")
+      .select(["job_id", "from_stage", "to_stage", "override_reason"])
+      .where("job_id", "in", overridden.map((o) => o.job_id))
+      .orderBy("job_id")
+      .orderBy("id")
+      .execute();
+    for (const o of overridden) {
+      const job = records.get(o.job_id);
+      if (job) job.waivedGates = waivedGatesOf(moves.filter((m) => m.job_id === o.job_id).map((m) => ({ from: m.from_stage, to: m.to_stage, overridden: m.override_reason !== null })));
+    }
   }
   for (const part of parts) {
     const job = records.get(part.job_id);

@@ -17,6 +17,8 @@ export interface GateRecords {
   waitingBoughtParts?: BoughtWaiting[];
   /** Where the job stands with its money (absent: the money checks do not apply). */
   money?: JobMoney;
+  /** Stages the owner moved the job past with an override (and it has not gone back before since). */
+  waivedGates?: readonly GatedStage[];
 }
 
 export const NO_RECORDS: GateRecords = { partCount: 0, leakTestParts: [], coatedParts: [], signOff: null };
@@ -99,13 +101,19 @@ export function checkMove(from: Stage, to: Stage, scope: JobScope, records: Gate
   }
   if (from === to) return { kind: "reorder", unmet: [], impossible: false };
   if (stageIndex(to) < stageIndex(from)) return { kind: "backward", unmet: [], impossible: false };
-  const unmet = gatesUpTo(to, route, records);
+  const unmet = gatesUpTo(from, to, route, records);
   return { kind: "forward", unmet, impossible: false };
 }
 
-function gatesUpTo(to: Stage, route: Stage[], records: GateRecords): string[] {
+/**
+ * Everything the stages up to `to` need, the ones the job is already past included (a tank
+ * reworked after it passed holds the job wherever it is), except a stage behind the job that the
+ * owner waived with an override: that decision is on record and is not asked again at every move.
+ */
+function gatesUpTo(from: Stage, to: Stage, route: Stage[], records: GateRecords): string[] {
   const scope: JobScope = route.includes("fabricate") ? "fabrication" : "install_only";
-  return GATED_STAGES.filter((g) => route.includes(g) && stageIndex(g) <= stageIndex(to)).flatMap((g) =>
+  const waived = (g: GatedStage) => stageIndex(g) <= stageIndex(from) && (records.waivedGates ?? []).includes(g);
+  return GATED_STAGES.filter((g) => route.includes(g) && stageIndex(g) <= stageIndex(to) && !waived(g)).flatMap((g) =>
     gateUnmet(g, records, scope).map((m) => `Into ${STAGE_LABELS[g]}: ${m}`),
   );
 }
@@ -120,5 +128,21 @@ export function nextGateState(stage: Stage, scope: JobScope, records: GateRecord
   const moneyOn = records.money?.checksOn === true;
   const next = GATED_STAGES.find((g) => route.includes(g) && stageIndex(g) > stageIndex(stage) && (moneyOn || (g !== "fabricate" && g !== "delivered")));
   if (!next) return null;
-  return { gate: next, unmet: gatesUpTo(next, route, records) };
+  return { gate: next, unmet: gatesUpTo(stage, next, route, records) };
+}
+
+/**
+ * The stages the owner waived, from the job's moves in order: a move made with an override waives
+ * the gated stages it entered; a move back before a stage undoes its waiver (going forward again
+ * asks again).
+ */
+export function waivedGatesOf(moves: readonly { from: Stage | null; to: Stage; overridden: boolean }[]): GatedStage[] {
+  const waived = new Set<GatedStage>();
+  for (const m of moves) {
+    const from = m.from === null ? -1 : stageIndex(m.from);
+    const to = stageIndex(m.to);
+    if (to < from) for (const g of [...waived]) if (stageIndex(g) > to) waived.delete(g);
+    if (to > from && m.overridden) for (const g of GATED_STAGES) if (stageIndex(g) > from && stageIndex(g) <= to) waived.add(g);
+  }
+  return GATED_STAGES.filter((g) => waived.has(g));
 }

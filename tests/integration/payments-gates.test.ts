@@ -146,7 +146,23 @@ describe("the invoice and Delivered", () => {
 
     expect((await pay(p.officeCookie, job.id, { purpose: "invoice", method: "check", amountCents: 50_000, reference: "Check 3307" })).status).toBe(201);
     expect((await db().selectFrom("invoice").select("status").where("id", "=", second.id).executeTakeFirstOrThrow()).status).toBe("paid");
-    expect(await deliveredNeeds()).toEqual([]);
+    // The sign-off the owner waived on the way to Ready is not asked again: paid, it goes.
+    expect((await move(p.techCookie, job.id, "delivered")).status).toBe(200);
+  });
+
+  it("once the owner moved a job past what it needed, the office delivers it paid without a second override", async () => {
+    const p = await people();
+    const job = await makeJob(db(), { stage: "fabricate" });
+    await db().insertInto("part").values({ job_id: job.id, name: "35 gal round reservoir", kind: "reservoir", material: "aluminum", shape: "round", needs_leak_test: 1, needs_coating: 0, created_at: new Date().toISOString(), updated_at: new Date().toISOString() }).execute();
+    await giveJobMoney(db(), job.id, "deposit-paid", p.office.id);
+    // Untested tank and no sign-off: the owner moves it on with a reason.
+    expect((await move(p.officeCookie, job.id, "ready")).status).toBe(422);
+    expect((await move(p.ownerCookie, job.id, "ready", "Tested and signed off on paper; records to follow")).status).toBe(200);
+    const inv = await db().selectFrom("invoice").select(["id"]).where("job_id", "=", job.id).executeTakeFirstOrThrow();
+    expect((await pay(p.officeCookie, job.id, { purpose: "invoice", method: "check", amountCents: 50_000, reference: "Check 3310" })).status).toBe(201);
+    expect((await db().selectFrom("invoice").select("status").where("id", "=", inv.id).executeTakeFirstOrThrow()).status).toBe("paid");
+    // Delivered asks only its own need (the money), which is met.
+    expect((await move(p.officeCookie, job.id, "delivered")).status).toBe(200);
   });
 
   it("numbers on past 9999 in a year instead of reusing a number", async () => {

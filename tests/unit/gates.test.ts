@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { type GateRecords, NO_RECORDS, checkMove, gateUnmet, nextGateState } from "@/server/jobs/gates";
+import { type GateRecords, NO_RECORDS, checkMove, gateUnmet, nextGateState, waivedGatesOf } from "@/server/jobs/gates";
 import { stagesFor } from "@/server/jobs/stages";
 
 const tank = (passed: boolean, last: "pass" | "fail" | null = passed ? "pass" : null) => ({ name: "40 gal round reservoir", passedSinceRework: passed, lastResult: last });
@@ -43,6 +43,34 @@ describe("stage gates", () => {
     expect(check.unmet).toEqual([expect.stringMatching(/^Into Outside coating: .*record a passing leak test/)]);
     // The card says so too, not only the next gate's own conditions.
     expect(nextGateState("install", "fabrication", reworked)?.unmet).toEqual([expect.stringMatching(/leak test/)]);
+  });
+
+  it("what the owner waived with an override is not asked again once the job is past it", () => {
+    const untested = records({ leakTestParts: [tank(false)], signOff: null });
+    // Fabricate → Ready for pickup over an override: Outside coating, Install and Ready waived.
+    const waivedGates = waivedGatesOf([
+      { from: null, to: "queued", overridden: false },
+      { from: "queued", to: "fabricate", overridden: false },
+      { from: "fabricate", to: "ready", overridden: true },
+    ]);
+    expect(waivedGates).toEqual(["coating", "install", "ready"]);
+    expect(checkMove("ready", "delivered", "fabrication", { ...untested, waivedGates }).unmet).toEqual([]);
+    expect(nextGateState("ready", "fabrication", { ...untested, waivedGates })).toBeNull();
+    // Without the override on record the same job is held, as before.
+    expect(checkMove("ready", "delivered", "fabrication", untested).unmet.map((u) => u.split(":")[0])).toEqual(["Into Outside coating", "Into Ready for pickup"]);
+    // The stage the move enters is always asked, waiver or not.
+    expect(checkMove("wire", "ready", "fabrication", { ...untested, waivedGates: ["coating", "ready"] }).unmet).toEqual(["Into Ready for pickup: Wiring & run-test sign-off: not started."]);
+  });
+
+  it("a job moved back before a waived stage is asked again on the way forward", () => {
+    expect(waivedGatesOf([
+      { from: "fabricate", to: "ready", overridden: true },
+      { from: "ready", to: "pressure_test", overridden: false },
+    ])).toEqual([]);
+    expect(waivedGatesOf([
+      { from: "fabricate", to: "ready", overridden: true },
+      { from: "ready", to: "install", overridden: false },
+    ])).toEqual(["coating", "install"]);
   });
 
   it("a coating that failed adhesion holds the part, and says what to do", () => {
