@@ -153,7 +153,7 @@ describe("the invoice and Delivered", () => {
   it("once the owner moved a job past what it needed, the office delivers it paid without a second override", async () => {
     const p = await people();
     const job = await makeJob(db(), { stage: "fabricate" });
-    await db().insertInto("part").values({ job_id: job.id, name: "35 gal round reservoir", kind: "reservoir", material: "aluminum", shape: "round", needs_leak_test: 1, needs_coating: 0, created_at: new Date().toISOString(), updated_at: new Date().toISOString() }).execute();
+    await db().insertInto("part").values({ job_id: job.id, name: "35 gal round reservoir", kind: "reservoir", material: "aluminum", shape: "round", needs_leak_test: 1, needs_coating: 0, notes: "", rework_count: 0, rework_note: "", created_at: new Date().toISOString(), updated_at: new Date().toISOString() }).execute();
     await giveJobMoney(db(), job.id, "deposit-paid", p.office.id);
     // Untested tank and no sign-off: the owner moves it on with a reason.
     expect((await move(p.officeCookie, job.id, "ready")).status).toBe(422);

@@ -37,7 +37,7 @@ export default async function CustomerPage({ params }: { params: Promise<{ id: s
         <p className="text-ink-soft">{CUSTOMER_KIND_LABELS[customer.kind]}</p>
       </div>
 
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
+      <div className="grid grid-cols-[minmax(0,1fr)] items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
         {canEdit ? (
           <CustomerForm saved={{ customer, contacts }} />
         ) : (

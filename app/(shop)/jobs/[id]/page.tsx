@@ -64,7 +64,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
       </div>
 
       {/* On a phone the move comes first (the bench's most common action); on a desk it sits top right. */}
-      <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_380px] lg:grid-rows-[auto_1fr] lg:items-start">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-4 lg:grid-cols-[minmax(0,1fr)_380px] lg:grid-rows-[auto_1fr] lg:items-start">
         <div className="no-print lg:col-start-2 lg:row-start-1">
           <Section title="Move this job">
             <MoveControl job={{ id: job.id, stage: job.stage, version: job.version, scope: job.scope }} role={user.role} />

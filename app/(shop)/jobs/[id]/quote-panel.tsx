@@ -64,7 +64,7 @@ function Totals(figures: DocumentFigures) {
 
 function QuoteLines({ quote }: { quote: Quote }) {
   return (
-    <div className="overflow-x-auto">
+    <div role="region" aria-label={`Lines of version ${quote.version} (table)`} tabIndex={0} className="overflow-x-auto">
       <table className="w-full min-w-[32rem] text-left">
         <caption className="sr-only">Lines of version {quote.version}</caption>
         <thead>

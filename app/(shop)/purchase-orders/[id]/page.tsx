@@ -26,7 +26,7 @@ export default async function PurchaseOrderPage({ params }: { params: Promise<{ 
   if (!po) notFound();
   const open = po.lines.filter((l) => l.state === "ordered").length;
   return (
-    <article className="mx-auto max-w-4xl space-y-4 rounded-lg border border-line bg-panel p-6 print:border-0 print:p-0">
+    <article className="mx-auto max-w-4xl space-y-4 rounded-lg border border-line bg-panel p-4 sm:p-6 print:border-0 print:p-0">
       <p className="no-print text-sm text-ink-soft"><Link href="/parts" className="underline">Parts desk</Link> / {po.number}</p>
       <header className="flex flex-wrap items-start justify-between gap-4 border-b-2 border-ink pb-3">
         <div>
@@ -40,6 +40,7 @@ export default async function PurchaseOrderPage({ params }: { params: Promise<{ 
         </div>
       </header>
       <p><span className="font-semibold">Supplier:</span> {po.supplier}</p>
+      <div role="region" aria-label={`Lines of ${po.number} (table)`} tabIndex={0} className="overflow-x-auto print:overflow-visible">
       <table className="w-full text-left text-sm">
         <thead className="border-b border-ink">
           <tr><th className="py-1 pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Part no.</th><th className="pr-2 text-right">Qty</th><th className="pr-2 text-right">Each</th><th className="pr-2 text-right">Amount</th><th className="no-print">State</th></tr>
@@ -65,6 +66,7 @@ export default async function PurchaseOrderPage({ params }: { params: Promise<{ 
           </tr>
         </tfoot>
       </table>
+      </div>
       {po.unpriced > 0 && <p className="text-sm">{po.unpriced} {po.unpriced === 1 ? "line is" : "lines are"} to be priced by the supplier and not in the total.</p>}
       {po.notes && <p className="whitespace-pre-line">{po.notes}</p>}
       <div className="no-print flex flex-wrap items-end justify-between gap-3 border-t border-line pt-3">

@@ -42,7 +42,7 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
         </p>
       </div>
 
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
+      <div className="grid grid-cols-[minmax(0,1fr)] items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
         {canEdit ? (
           <TruckForm saved={truck} customers={await listCustomerChoices(getDb())} />
         ) : (
@@ -81,7 +81,7 @@ export default async function TruckPage({ params }: { params: Promise<{ id: stri
         </section>
       </div>
 
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
+      <div className="grid grid-cols-[minmax(0,1fr)] items-start gap-6 lg:grid-cols-[minmax(0,1fr)_420px]">
         <section aria-labelledby="photos-heading" className="space-y-3 rounded-lg border border-line bg-panel p-4">
           <h2 id="photos-heading" className="text-lg font-bold">
             Photos <span className="font-normal text-ink-soft">({records.photos.length})</span>
