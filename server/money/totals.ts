@@ -144,7 +144,11 @@ export function formatQuantity(quantityMilli: number): string {
  * binary fraction is involved; null when it is not a plain amount with at most two decimals.
  */
 export function dollarsToCents(typed: string): number | null {
-  const text = typed.trim().replace(/^\$/, "").replaceAll(",", "");
+  const bare = typed.trim().replace(/^\$/, "");
+  // Commas only as thousands separators ("1,250.00"): "12,50" is a decimal comma, not 1,250
+  // dollars, so it is refused rather than read a hundred times too big.
+  if (bare.includes(",") && !/^\d{1,3}(?:,\d{3})+(?:\.\d{1,2})?$/.test(bare)) return null;
+  const text = bare.replaceAll(",", "");
   const m = /^(\d{1,8})(?:\.(\d{1,2}))?$/.exec(text);
   if (!m) return null;
   return Number(m[1]) * 100 + Number((m[2] ?? "0").padEnd(2, "0"));

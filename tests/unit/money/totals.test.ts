@@ -219,6 +219,12 @@ describe("typed dollars", () => {
     expect(dollarsToCents("1.005")).toBeNull();
     expect(dollarsToCents("-3")).toBeNull();
     expect(dollarsToCents("")).toBeNull();
+    // A comma is a thousands separator or nothing: a decimal comma is refused, never read as 100×.
+    expect(dollarsToCents("1,250")).toBe(125_000);
+    expect(dollarsToCents("12,345,678.90")).toBe(1_234_567_890);
+    expect(dollarsToCents("12,50")).toBeNull();
+    expect(dollarsToCents("1,25.00")).toBeNull();
+    expect(dollarsToCents("1250,")).toBeNull();
     expect(centsToDollarsText(148_905)).toBe("1489.05");
     expect(centsToDollarsText(7)).toBe("0.07");
   });
