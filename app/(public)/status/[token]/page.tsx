@@ -32,7 +32,7 @@ export default async function StatusPage({ params, searchParams }: { params: Pro
   const { token } = await params;
   const back = (await searchParams) ?? {};
   const returned = back.paid === "deposit" || back.paid === "invoice" ? back.paid : back.checkout === "cancelled" ? "cancelled" : null;
-  const { link, view } = await loadStatus(token);
+  const { link, view, shop } = await loadStatus(token);
   // Unknown, turned off and expired links all end here: the not-found page says so and gives the shop's phone.
   if (link.state !== "active" || !view) notFound();
   noteLinkOpened(getDb(), link);
@@ -40,7 +40,7 @@ export default async function StatusPage({ params, searchParams }: { params: Pro
   const payment = await customerPayment(getDb(), link.jobId);
   const price = quotes.length ? (
     <>
-      <QuoteAnswer token={token} initialQuotes={quotes} />
+      <QuoteAnswer token={token} initialQuotes={quotes} timeZone={shop.timeZone} />
       {payment && <PaySection token={token} payment={payment} returned={returned} />}
     </>
   ) : null;

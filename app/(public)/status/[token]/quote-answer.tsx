@@ -7,8 +7,10 @@ import { buttonClass, inputClass } from "@/components/styles";
 import type { CustomerQuote } from "@/server/money/customer-quote";
 import { figureRows, lineQuantityWords } from "@/server/money/document";
 import { agreedPriceCents, formatCents } from "@/server/money/totals";
+import { formatShopTime } from "@/server/records/calendar";
 
-const when = (iso: string) => new Date(iso).toLocaleString("en-US", { day: "numeric", month: "short", hour: "numeric", minute: "2-digit" });
+// Times in the shop's own time zone: the same on the server and on the customer's phone, wherever it is.
+const when = (iso: string, timeZone: string) => formatShopTime(iso, timeZone, "d MMM, h:mm a");
 
 function Lines({ quote, token }: { quote: CustomerQuote; token: string }) {
   return (
@@ -47,7 +49,7 @@ function Lines({ quote, token }: { quote: CustomerQuote; token: string }) {
 const KIND = { quote: "Quote", change_order: "Change order" } as const;
 
 /** One version waiting for the customer's answer: its lines, terms, and approve or decline. */
-function Waiting({ token, quote, onAnswered }: { token: string; quote: CustomerQuote; onAnswered: (quotes: CustomerQuote[], done: string) => void }) {
+function Waiting({ token, quote, timeZone, onAnswered }: { token: string; quote: CustomerQuote; timeZone: string; onAnswered: (quotes: CustomerQuote[], done: string) => void }) {
   const [mode, setMode] = useState<"approve" | "decline">("approve");
   const [failure, setFailure] = useState<ApiFailure | null>(null);
   const [pending, setPending] = useState(false);
@@ -80,7 +82,7 @@ function Waiting({ token, quote, onAnswered }: { token: string; quote: CustomerQ
       <p className="font-bold">
         {KIND[quote.kind]} version {quote.version}, waiting for your answer
       </p>
-      <p className="mb-2 text-sm text-ink-soft">Sent {when(quote.sentAt)}</p>
+      <p className="mb-2 text-sm text-ink-soft">Sent {when(quote.sentAt, timeZone)}</p>
       <Lines quote={quote} token={token} />
       {quote.terms && (
         <div className="mt-3 rounded-md bg-bay-50 px-3 py-2 text-sm">
@@ -147,7 +149,7 @@ function Waiting({ token, quote, onAnswered }: { token: string; quote: CustomerQ
  * The customer's quotes and change orders on their status link: the job's price (the approved quote
  * plus approved change orders), then each version waiting for an answer, then the answered ones.
  */
-export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQuotes: CustomerQuote[] }) {
+export function QuoteAnswer({ token, initialQuotes, timeZone }: { token: string; initialQuotes: CustomerQuote[]; timeZone: string }) {
   const router = useRouter();
   const [quotes, setQuotes] = useState(initialQuotes);
   const [done, setDone] = useState<string | null>(null);
@@ -182,6 +184,7 @@ export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQu
         <Waiting
           key={q.id}
           token={token}
+          timeZone={timeZone}
           quote={q}
           onAnswered={(next, words) => {
             setQuotes(next);
@@ -195,7 +198,7 @@ export function QuoteAnswer({ token, initialQuotes }: { token: string; initialQu
         <details key={q.id} className="rounded-lg border border-line bg-panel px-4 py-2" open={!waiting.length && q === answered[0]}>
           <summary className="flex min-h-11 cursor-pointer items-center font-semibold">
             {KIND[q.kind]} version {q.version}: {q.status === "approved" ? `approved${q.decidedName ? ` by ${q.decidedName}` : ""}` : "declined"}
-            {q.decidedAt ? `, ${when(q.decidedAt)}` : ""} · {formatCents(q.totalCents)}
+            {q.decidedAt ? `, ${when(q.decidedAt, timeZone)}` : ""} · {formatCents(q.totalCents)}
           </summary>
           <div className="pb-2">
             <Lines quote={q} token={token} />

@@ -8,12 +8,15 @@ import type { Role, Stage } from "@/db/schema";
 import type { InvoiceView } from "@/server/money/invoices";
 import type { PaymentLine } from "@/server/money/payments";
 import { dollarsToCents, formatCents } from "@/server/money/totals";
+import { formatShopTime } from "@/server/records/calendar";
 
 const METHOD_WORDS: Record<PaymentLine["method"], string> = { card: "Card, paid online", cash: "Cash", check: "Check", on_account: "On account", refund: "Refund" };
-const when = (iso: string) => new Date(iso).toLocaleString("en-US", { day: "numeric", month: "short", year: "numeric", hour: "numeric", minute: "2-digit" });
+// Times in the shop's own time zone, the same on the server and in any browser.
+const when = (iso: string, timeZone: string) => formatShopTime(iso, timeZone, "d MMM yyyy, HH:mm");
 
 export function MoneyPanel(props: {
   jobId: number;
+  timeZone: string;
   role: Role;
   stage: Stage;
   words: string | null;
@@ -140,7 +143,7 @@ export function MoneyPanel(props: {
                 <span>
                   {METHOD_WORDS[p.method]} · {p.purpose === "deposit" ? "deposit" : "invoice"}
                   <span className="block text-sm text-ink-soft">
-                    {when(p.at)}
+                    {when(p.at, props.timeZone)}
                     {p.reference ? ` · ${p.reference}` : ""}
                     {p.recordedBy ? ` · recorded by ${p.recordedBy}` : ""}
                   </span>

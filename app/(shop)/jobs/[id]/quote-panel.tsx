@@ -8,6 +8,7 @@ import { type DocumentFigures, figureRows } from "@/server/money/document";
 import type { PriceItem } from "@/server/money/price-list";
 import type { Quote } from "@/server/money/quotes";
 import { centsToDollarsText, documentTotals, dollarsToCents, formatCents, fromThousandths, agreedPriceCents, lineAmountCents, toThousandths } from "@/server/money/totals";
+import { formatShopTime } from "@/server/records/calendar";
 import { KIND_WORDS } from "../../prices/words";
 
 const STATUS_WORDS: Record<Quote["status"], string> = {
@@ -26,7 +27,8 @@ const STATUS_TONE: Record<Quote["status"], string> = {
   superseded: "bg-line text-ink",
 };
 
-const when = (iso: string) => new Date(iso).toLocaleString("en-US", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
+// Times in the shop's own time zone, the same on the server and in any browser.
+const when = (iso: string, timeZone: string) => formatShopTime(iso, timeZone, "d MMM yyyy, HH:mm");
 
 interface DraftLine {
   key: number;
@@ -206,7 +208,7 @@ function useAction() {
   return { failure, setFailure, pending, run, fields: failure?.fields ?? {} };
 }
 
-export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, kitSpecVersion }: { jobId: number; initialQuotes: Quote[]; priceItems: PriceItem[]; taxMillipercent: number; kitSpecVersion: number | null }) {
+export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, kitSpecVersion, timeZone }: { jobId: number; initialQuotes: Quote[]; priceItems: PriceItem[]; taxMillipercent: number; kitSpecVersion: number | null; timeZone: string }) {
   const [quotes, setQuotes] = useState(initialQuotes);
   const draft = quotes.find((q) => q.status === "draft") ?? null;
   const approved = quotes.find((q) => q.kind === "quote" && q.status === "approved") ?? null;
@@ -389,8 +391,8 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
             </div>
             <p className="text-sm text-ink-soft">
               Written by {q.createdByName}
-              {q.sentAt ? ` · sent ${when(q.sentAt)}` : ""}
-              {q.decidedAt ? ` · answered ${when(q.decidedAt)}${q.decidedName ? ` by “${q.decidedName}”` : ""}` : ""}
+              {q.sentAt ? ` · sent ${when(q.sentAt, timeZone)}` : ""}
+              {q.decidedAt ? ` · answered ${when(q.decidedAt, timeZone)}${q.decidedName ? ` by “${q.decidedName}”` : ""}` : ""}
             </p>
             {q.status === "declined" && q.declineReason && <p className="rounded bg-stop-100 px-2 py-1 text-sm text-stop-700">Reason given: “{q.declineReason}”</p>}
             <details open={q.status === "sent" || q.status === "approved"}>
