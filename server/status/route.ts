@@ -44,3 +44,28 @@ export function nextOnRoute(route: readonly Stage[], stage: Stage): Stage | null
 export function firstWorkStep(route: readonly Stage[]): Stage | null {
   return nextOnRoute(route, "queued");
 }
+
+export interface StatusStep {
+  stage: Stage;
+  state: "done" | "now" | "next";
+  reachedAt: string | null;
+  backAt: string | null;
+}
+
+/**
+ * The customer's timeline: the job's route with the date each step was last reached; later steps
+ * are still to come. A step behind the job that it never entered (the owner moved it past) is left
+ * out: the customer is never told a step was done when it was not.
+ */
+export function statusSteps(route: readonly Stage[], stage: Stage, timeline: readonly { toStage: Stage; back: boolean; at: string }[]): StatusStep[] {
+  const current = STAGES.indexOf(stage);
+  const entered = new Set(timeline.map((e) => e.toStage));
+  return stepsShown(route, stage)
+    .filter((s) => STAGES.indexOf(s) >= current || entered.has(s))
+    .map((s) => {
+      const arrivals = timeline.filter((e) => e.toStage === s);
+      const state = s === stage ? "now" : STAGES.indexOf(s) < current ? "done" : "next";
+      const back = arrivals.filter((e) => e.back).at(-1) ?? null;
+      return { stage: s, state, reachedAt: state === "next" ? null : (arrivals.at(-1)?.at ?? null), backAt: state === "next" ? null : (back?.at ?? null) };
+    });
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { jobRoute, nextOnRoute, stepsShown } from "@/server/status/route";
+import { jobRoute, nextOnRoute, statusSteps, stepsShown } from "@/server/status/route";
 import { whatComesNext } from "@/server/status/words";
 
 /*
@@ -56,5 +56,35 @@ describe("a job's route from its work and parts", () => {
     const bare = jobRoute("fabrication", [bracket]);
     expect(stepsShown(bare, "install")).toEqual(bare);
     expect(stepsShown(bare, "coating")).toEqual(["queued", "fabricate", "coating", "install", "wire", "ready", "delivered"]);
+  });
+});
+
+describe("the customer's timeline", () => {
+  const route = jobRoute("fabrication", [tank]);
+  const at = (d: number) => `2026-11-${String(d).padStart(2, "0")}T15:00:00.000Z`;
+
+  it("marks each step the job went through done, with when, and the rest to come", () => {
+    const timeline = [{ toStage: "queued", back: false, at: at(2) }, { toStage: "fabricate", back: false, at: at(3) }, { toStage: "pressure_test", back: false, at: at(5) }] as const;
+    expect(statusSteps(route, "pressure_test", timeline).map((s) => [s.stage, s.state, s.reachedAt])).toEqual([
+      ["queued", "done", at(2)],
+      ["fabricate", "done", at(3)],
+      ["pressure_test", "now", at(5)],
+      ["coating", "next", null],
+      ["install", "next", null],
+      ["wire", "next", null],
+      ["ready", "next", null],
+      ["delivered", "next", null],
+    ]);
+  });
+
+  it("never calls a step done that the job was moved past without entering", () => {
+    // The owner moved the job from Fabricate straight to Ready for pickup.
+    const timeline = [{ toStage: "queued", back: false, at: at(2) }, { toStage: "fabricate", back: false, at: at(3) }, { toStage: "ready", back: false, at: at(9) }] as const;
+    expect(statusSteps(route, "ready", timeline).map((s) => [s.stage, s.state])).toEqual([
+      ["queued", "done"],
+      ["fabricate", "done"],
+      ["ready", "now"],
+      ["delivered", "next"],
+    ]);
   });
 });

@@ -1,9 +1,7 @@
 import { format } from "date-fns";
 import { calendarZone, formatShopTime, parseCalendarDate } from "@/server/records/calendar";
-import type { Stage } from "@/db/schema";
-import { stageIndex } from "@/server/jobs/stages";
 import type { StatusView as View } from "@/server/status/queries";
-import { stepsShown } from "@/server/status/route";
+import { type StatusStep, statusSteps } from "@/server/status/route";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whereItIsNow } from "@/server/status/words";
 
 /** A moment (a move) as the day it was at the shop, not in the server's zone. */
@@ -23,19 +21,8 @@ function telHref(phone: string) {
   return `tel:${phone.replace(/[^0-9+]/g, "")}`;
 }
 
-type Step = { stage: Stage; state: "done" | "now" | "next"; reachedAt: string | null; backAt: string | null };
-
-/** The job's own route with the date each step was last reached; later steps are still to come. */
-function steps(view: View): Step[] {
-  const current = stageIndex(view.stage);
-  return stepsShown(view.route, view.stage).map((stage) => {
-    const arrivals = view.timeline.filter((e) => e.toStage === stage);
-    const last = arrivals.at(-1) ?? null;
-    const state = stage === view.stage ? "now" : stageIndex(stage) < current ? "done" : "next";
-    const back = arrivals.filter((e) => e.back).at(-1) ?? null;
-    return { stage, state, reachedAt: state === "next" ? null : (last?.at ?? null), backAt: state === "next" ? null : (back?.at ?? null) };
-  });
-}
+type Step = StatusStep;
+const steps = (view: View): Step[] => statusSteps(view.route, view.stage, view.timeline);
 
 const MARK: Record<Step["state"], { icon: string; word: string; dot: string }> = {
   done: { icon: "✓", word: "Done", dot: "bg-ok-700 text-white" },
