@@ -85,7 +85,7 @@ export interface StatusView {
   likelyReadyOn?: string | null;
   /** How long the link keeps working after pickup (the shop's setting). */
   linkDays: number;
-  timeline: { toStage: Stage; back: boolean; at: string }[];
+  timeline: { fromStage: Stage | null; toStage: Stage; back: boolean; at: string }[];
   photos: { id: number; caption: string; stage: Stage; width: number; height: number }[];
 }
 
@@ -140,7 +140,7 @@ type EventRow = { from_stage: Stage | null; to_stage: Stage; at: string };
 function timelineOf(events: EventRow[]): StatusView["timeline"] {
   return events
     .filter((e) => e.from_stage !== e.to_stage)
-    .map((e) => ({ toStage: e.to_stage, back: e.from_stage !== null && stageIndex(e.to_stage) < stageIndex(e.from_stage), at: e.at }));
+    .map((e) => ({ fromStage: e.from_stage, toStage: e.to_stage, back: e.from_stage !== null && stageIndex(e.to_stage) < stageIndex(e.from_stage), at: e.at }));
 }
 
 export interface StatusPageRead {

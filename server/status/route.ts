@@ -3,7 +3,8 @@ import { STAGES, type JobScope, type Stage } from "@/db/schema";
 /*
  * The steps a customer is told about come from what the job really has: its work (fabricated
  * parts or install only) and the parts the office recorded. A stainless tank marked "no outside
- * coating" has no powder coat step; a job with no part to leak-test has no pressure test step.
+ * coating" has no powder coat step; a job with no part to leak-test has no pressure test step; a
+ * job of fabricated parts has its fabrication step from the day it is booked in.
  * Pure: the status page and the e-mails call it with the job's parts as they are now, so a part
  * added later changes the route from then on.
  */
@@ -15,9 +16,10 @@ export interface RoutePart {
 
 /** The job's route, in board order. */
 export function jobRoute(scope: JobScope, parts: readonly RoutePart[]): Stage[] {
-  const fabricated = scope === "fabrication" && parts.length > 0;
   const on = new Set<Stage>(["queued", "install", "wire", "ready", "delivered"]);
-  if (fabricated) {
+  // Fabrication is told from the start (parts are recorded as they are built); the test and
+  // coating steps only once a recorded part needs them.
+  if (scope === "fabrication") {
     on.add("fabricate");
     if (parts.some((p) => p.needsLeakTest)) on.add("pressure_test");
     if (parts.some((p) => p.needsCoating)) on.add("coating");
@@ -57,11 +59,14 @@ export interface StatusStep {
  * are still to come. A step behind the job that it never entered (the owner moved it past) is left
  * out: the customer is never told a step was done when it was not.
  */
-export function statusSteps(route: readonly Stage[], stage: Stage, timeline: readonly { toStage: Stage; back: boolean; at: string }[]): StatusStep[] {
+export function statusSteps(route: readonly Stage[], stage: Stage, timeline: readonly { fromStage?: Stage | null; toStage: Stage; back: boolean; at: string }[]): StatusStep[] {
   const current = STAGES.indexOf(stage);
+  const at = (s: Stage | null | undefined) => (s ? STAGES.indexOf(s) : -1);
   const entered = new Set(timeline.map((e) => e.toStage));
+  // Passed over: a recorded move jumped from before the step to after it, and no move entered it.
+  const passedOver = (s: Stage) => !entered.has(s) && timeline.some((e) => e.fromStage && at(e.fromStage) < at(s) && at(e.toStage) > at(s));
   return stepsShown(route, stage)
-    .filter((s) => STAGES.indexOf(s) >= current || entered.has(s))
+    .filter((s) => STAGES.indexOf(s) >= current || !passedOver(s))
     .map((s) => {
       const arrivals = timeline.filter((e) => e.toStage === s);
       const state = s === stage ? "now" : STAGES.indexOf(s) < current ? "done" : "next";

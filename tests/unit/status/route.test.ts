@@ -19,8 +19,8 @@ describe("a job's route from its work and parts", () => {
     expect(jobRoute("install_only", [bracket])).toEqual(["queued", "install", "wire", "ready", "delivered"]);
   });
 
-  it("fabricated parts but none recorded yet: no fabrication steps until a part is added", () => {
-    expect(jobRoute("fabrication", [])).toEqual(["queued", "install", "wire", "ready", "delivered"]);
+  it("fabricated parts but none recorded yet: fabrication is told, test and coating once a part needs them", () => {
+    expect(jobRoute("fabrication", [])).toEqual(["queued", "fabricate", "install", "wire", "ready", "delivered"]);
   });
 
   it("a tank that is leak-tested and powder coated: every step", () => {
@@ -47,7 +47,8 @@ describe("a job's route from its work and parts", () => {
     expect(whatComesNext("fabricate", jobRoute("fabrication", [bracket]))).toBe("Next, we install the kit on your truck.");
     expect(whatComesNext("fabricate", jobRoute("fabrication", [tank]))).toBe("Next, the fabricated parts are pressure-tested for leaks.");
     expect(whatComesNext("pressure_test", jobRoute("fabrication", [tank]))).toBe("Next, the parts go to an outside coater for powder coat.");
-    expect(whatComesNext("queued", jobRoute("fabrication", []))).toBe("Next, we start installing the kit. We will e-mail you as the job moves.");
+    expect(whatComesNext("queued", jobRoute("fabrication", []))).toBe("Next, we start building the fabricated parts. We will e-mail you as the job moves.");
+    expect(whatComesNext("queued", jobRoute("install_only", []))).toBe("Next, we start installing the kit. We will e-mail you as the job moves.");
     expect(whatComesNext("queued", jobRoute("fabrication", [bracket]))).toBe("Next, we start building the fabricated parts. We will e-mail you as the job moves.");
     expect(nextOnRoute(stainless, "delivered")).toBeNull();
   });
@@ -64,7 +65,7 @@ describe("the customer's timeline", () => {
   const at = (d: number) => `2026-11-${String(d).padStart(2, "0")}T15:00:00.000Z`;
 
   it("marks each step the job went through done, with when, and the rest to come", () => {
-    const timeline = [{ toStage: "queued", back: false, at: at(2) }, { toStage: "fabricate", back: false, at: at(3) }, { toStage: "pressure_test", back: false, at: at(5) }] as const;
+    const timeline = [{ fromStage: null, toStage: "queued", back: false, at: at(2) }, { fromStage: "queued", toStage: "fabricate", back: false, at: at(3) }, { fromStage: "fabricate", toStage: "pressure_test", back: false, at: at(5) }] as const;
     expect(statusSteps(route, "pressure_test", timeline).map((s) => [s.stage, s.state, s.reachedAt])).toEqual([
       ["queued", "done", at(2)],
       ["fabricate", "done", at(3)],
@@ -79,12 +80,18 @@ describe("the customer's timeline", () => {
 
   it("never calls a step done that the job was moved past without entering", () => {
     // The owner moved the job from Fabricate straight to Ready for pickup.
-    const timeline = [{ toStage: "queued", back: false, at: at(2) }, { toStage: "fabricate", back: false, at: at(3) }, { toStage: "ready", back: false, at: at(9) }] as const;
+    const timeline = [{ fromStage: null, toStage: "queued", back: false, at: at(2) }, { fromStage: "queued", toStage: "fabricate", back: false, at: at(3) }, { fromStage: "fabricate", toStage: "ready", back: false, at: at(9) }] as const;
     expect(statusSteps(route, "ready", timeline).map((s) => [s.stage, s.state])).toEqual([
       ["queued", "done"],
       ["fabricate", "done"],
       ["ready", "now"],
       ["delivered", "next"],
     ]);
+  });
+
+  it("keeps the earlier steps of a job booked in at a later step: no move jumped over them", () => {
+    // No move jumped over Booked in or Fabrication: they stay, as before.
+    const timeline = [{ fromStage: null, toStage: "pressure_test", back: false, at: at(4) }] as const;
+    expect(statusSteps(route, "pressure_test", timeline).map((s) => s.stage).slice(0, 3)).toEqual(["queued", "fabricate", "pressure_test"]);
   });
 });
