@@ -44,8 +44,8 @@ export async function startCheckout(db: DB, jobId: number, purpose: Purpose, tok
     session = await createCheckoutSession({
       amountCents: amount,
       description: purpose === "deposit" ? `Deposit, work order ${job.work_order}` : `Invoice ${m.invoice!.number}, work order ${job.work_order}`,
-      successUrl: `${back}?paid=${purpose}`,
-      cancelUrl: `${back}?checkout=cancelled`,
+      successUrl: `${back}?paid=${purpose}#pay`,
+      cancelUrl: `${back}?checkout=cancelled#pay`,
       reference,
       idempotencyKey: reference,
     });

@@ -56,7 +56,7 @@ export function PaySection({ token, payment, returned }: { token: string; paymen
     );
 
   return (
-    <section aria-labelledby="pay-title" className="mt-6 space-y-3" data-testid="payment">
+    <section id="pay" aria-labelledby="pay-title" className="mt-6 scroll-mt-4 space-y-3" data-testid="payment">
       <h2 id="pay-title" className="text-xl font-bold">
         Payment
       </h2>
