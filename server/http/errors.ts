@@ -46,7 +46,7 @@ export function validationError(error: z.ZodError): ApiError {
   const fields = fieldErrors(error);
   const names = Object.keys(fields).filter((k) => k !== "_");
   const message = names.length
-    ? `${fields[names[0]][0]}${names.length > 1 ? ` (and ${names.length - 1} more field${names.length > 2 ? "s" : ""} to fix)` : ""}`
+    ? `${fields[names[0]][0]}${names.length > 1 ? ` ${names.length - 1} more ${names.length > 2 ? "fields need" : "field needs"} fixing too.` : ""}`
     : (fields._?.[0] ?? "The request is not valid.");
   return new ApiError("validation", message, { fields });
 }
