@@ -30,30 +30,32 @@ export function OrderGroup({ supplier, lines, today, suppliers }: { supplier: st
     <form onSubmit={form.onSubmit} className="rounded-md border border-line p-3" aria-label={`Order from ${supplier || "a supplier"}`} data-order-group={supplier}>
       <h3 className="font-bold">{supplier || "Supplier not chosen yet"}</h3>
       <FormAlert failure={form.failure} />
-      <div className="overflow-x-auto">
-        <table className="w-full min-w-[720px] text-left text-sm">
-          <thead className="border-b border-line text-ink-soft">
-            <tr><th className="w-12 py-1"><span className="sr-only">Order</span></th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Part no.</th><th className="pr-2 text-right">Qty</th><th className="pr-2 text-right">Each</th><th className="text-right">Amount</th></tr>
-          </thead>
-          <tbody>
-            {lines.map((l) => (
-              <tr key={l.id} className="border-b border-line/60">
-                <td className="py-0.5">
-                  <label className="flex min-h-11 min-w-11 items-center justify-center">
-                    <input type="checkbox" className="h-5 w-5" checked={picked.has(l.id)} onChange={() => toggle(l.id)} aria-label={`Order ${l.description} for ${l.workOrder}`} />
-                  </label>
-                </td>
-                <td className="pr-2 whitespace-nowrap"><a className="font-semibold underline" href={`/jobs/${l.jobId}#bought-parts`}>{l.workOrder}</a> <span className="text-ink-soft">· {l.unitNumber}</span></td>
-                <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.description}</td>
-                <td className="pr-2">{l.partNumber || "—"}</td>
-                <td className="pr-2 text-right">{l.quantity}</td>
-                <td className="pr-2 text-right">{l.costCents === null ? "not priced" : formatCents(l.costCents)}</td>
-                <td className="text-right">{l.lineCents === null ? "—" : formatCents(l.lineCents)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      {/* A table at the desk; on a phone each line stacks into a card, no sideways scroll. */}
+      <table className="w-full text-left text-sm">
+        <thead className="border-b border-line text-ink-soft max-md:sr-only">
+          <tr><th className="w-12 py-1"><span className="sr-only">Order</span></th><th className="pr-2">Job</th><th className="pr-2">Part</th><th className="pr-2">Part no.</th><th className="pr-2 text-right">Qty</th><th className="pr-2 text-right">Each</th><th className="text-right">Amount</th></tr>
+        </thead>
+        <tbody>
+          {lines.map((l) => (
+            <tr key={l.id} className="border-b border-line/60 max-md:grid max-md:grid-cols-[3rem_1fr] max-md:py-1">
+              <td className="py-0.5 max-md:row-span-4">
+                <label className="flex min-h-11 min-w-11 items-center justify-center">
+                  <input type="checkbox" className="h-5 w-5" checked={picked.has(l.id)} onChange={() => toggle(l.id)} aria-label={`Order ${l.description} for ${l.workOrder}`} />
+                </label>
+              </td>
+              <td className="pr-2 whitespace-nowrap"><a className="font-semibold underline" href={`/jobs/${l.jobId}#bought-parts`}>{l.workOrder}</a> <span className="text-ink-soft">· {l.unitNumber}</span></td>
+              <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.description}</td>
+              <td className="pr-2"><span className="text-ink-soft md:hidden">Part no. </span>{l.partNumber || "—"}</td>
+              <td className="pr-2 text-right max-md:hidden">{l.quantity}</td>
+              <td className="pr-2 text-right max-md:hidden">{l.costCents === null ? "not priced" : formatCents(l.costCents)}</td>
+              <td className="text-right max-md:text-left">
+                <span className="md:hidden">{l.quantity} × {l.costCents === null ? "not priced" : formatCents(l.costCents)} = </span>
+                {l.lineCents === null ? "—" : formatCents(l.lineCents)}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
       <div className="mt-3 grid items-start gap-3 sm:grid-cols-[1fr_auto_auto_auto]">
         <Field label="Supplier" name="supplier" errors={form.fields.supplier ?? form.fields.partIds}>
           {(p) => (

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import { requirePageStaff } from "@/server/auth/session";
@@ -49,6 +50,12 @@ export default async function SettingsPage() {
       <Section title="Labour rate" id="labour-rate">
         <p className="mb-2 text-sm text-ink-soft">What an hour of the shop&apos;s labour costs, for each job&apos;s cost; the price list holds what the customer pays.</p>
         {owner ? <LabourRateForm cents={labourRate} /> : <p>{labourRate ? `$${(labourRate / 100).toFixed(2)} an hour` : "Not set yet."}</p>}
+      </Section>
+      <Section title="Tax, deposit and money checks" id="money">
+        <p>
+          Sales tax, the deposit a quote asks, the quote terms and the money checks before work and delivery are kept with the price list:{" "}
+          <Link className="font-semibold underline" href="/prices#money-settings">Prices</Link>.
+        </p>
       </Section>
     </section>
   );

@@ -52,7 +52,7 @@ export function ProcedureForm({ initial, published }: { initial: LeakTestProcedu
             label={`${f.label} (${f.unit})`}
             name={f.key}
             errors={form.fields[f.key]}
-            hint={saved[f.key] === published[f.key] ? `Published figure (${f.source}).` : `Published figure: ${published[f.key]} ${f.unit} (${f.source}).`}
+            hint={saved[f.key] === published[f.key] ? `The usual figure (${f.source}).` : `The usual figure: ${published[f.key]} ${f.unit} (${f.source}).`}
           >
             {(p) => <input {...p} type="text" inputMode="decimal" autoComplete="off" defaultValue={String(saved[f.key])} className={inputClass} />}
           </Field>

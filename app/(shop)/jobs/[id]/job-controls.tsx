@@ -28,6 +28,8 @@ export function MoveControl({ job, role }: { job: { id: number; stage: Stage; ve
       await sendMove(job.id, { toStage: to, version: job.version, note: note || undefined, override: override ? { reason: override } : undefined });
       setDone(`Moved to ${STAGE_LABELS[to]}.`);
       setNote("");
+      // The form offers the step after the one just reached, as it did on opening the page.
+      setTo(route[Math.min(route.indexOf(to) + 1, route.length - 1)]);
       router.refresh();
     } catch (err) {
       const r = refusalOf(err, to);

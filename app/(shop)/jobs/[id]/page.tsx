@@ -47,7 +47,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
       <div className="flex flex-wrap items-start justify-between gap-3">
         <div>
           <p className="text-sm text-ink-soft">
-            <Link href="/board" className="underline">Board</Link> / <Link href="/jobs" className="underline">Jobs</Link>
+            <Link href="/board" className="inline-flex min-h-11 items-center underline">Board</Link> / <Link href="/jobs" className="inline-flex min-h-11 items-center underline">Jobs</Link>
           </p>
           <h1 className="text-2xl font-bold">
             {job.workOrder} <span className="font-normal text-ink-soft">· {job.customerName}</span>
@@ -92,11 +92,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
               <dd>{job.techName ?? "Nobody yet"}</dd>
               <dt className="font-semibold">Truck</dt>
               <dd>
-                <Link className="underline" href={`/trucks/${job.truckId}`}>Unit {job.unitNumber}</Link> · {job.transmission || "transmission not recorded"}
+                <Link className="inline-flex min-h-11 items-center underline" href={`/trucks/${job.truckId}`}>Unit {job.unitNumber}</Link> · {job.transmission || "transmission not recorded"}
               </dd>
               <dt className="font-semibold">Customer</dt>
               <dd>
-                <Link className="underline" href={`/customers/${job.customerId}`}>{job.customerName}</Link>
+                <Link className="inline-flex min-h-11 items-center underline" href={`/customers/${job.customerId}`}>{job.customerName}</Link>
               </dd>
             </dl>
           </Section>
