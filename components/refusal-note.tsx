@@ -13,13 +13,20 @@ export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refus
       <p className="font-semibold"><IconStop /> {refusal.kind === "gate" ? (refusal.toStage ? `Not moved. Needs before it can move to ${STAGE_LABELS[refusal.toStage]}:` : "Not moved. It still needs:") : refusal.message}</p>
       {refusal.unmet.length > 0 && (
         <ul className="list-disc space-y-0.5 pl-5">
-          {refusal.unmet.map((u) => (
-            <li key={u}>{withoutHeadingStage(u, refusal.toStage)}</li>
-          ))}
+          {refusal.unmet.map((u) =>
+            jobHref === undefined ? (
+              <li key={u}>{withoutHeadingStage(u, refusal.toStage)}</li>
+            ) : (
+              <li key={u}>
+                {/* Each need opens the part of the job page where it is recorded. */}
+                <a href={`${jobHref}#${recordAnchorOf(u)}`} className="underline decoration-stop-700/50 underline-offset-2 hover:decoration-2">{withoutHeadingStage(u, refusal.toStage)}</a>
+              </li>
+            ),
+          )}
         </ul>
       )}
       {jobHref && refusal.unmet.length > 0 && (
-        <a href={`${jobHref}#${recordAnchor(refusal.unmet)}`} className="inline-flex min-h-11 items-center font-semibold text-bay-900 underline">
+        <a href={`${jobHref}#${recordAnchorOf(refusal.unmet[0])}`} className="inline-flex min-h-11 items-center font-semibold text-bay-900 underline">
           Open the job's records to fix this →
         </a>
       )}
@@ -49,9 +56,13 @@ export function RefusalNote({ refusal, onOverride, onDismiss, jobHref }: { refus
   );
 }
 
-/** The part of the job page where the first missing record is kept. */
-function recordAnchor(unmet: string[]) {
-  return /sign-off/i.test(unmet[0] ?? "") ? "sign-off" : "parts";
+/** The part of the job page where a missing record is kept. */
+export function recordAnchorOf(item: string) {
+  if (/sign-off/i.test(item)) return "sign-off";
+  if (/waiting on/i.test(item)) return "bought-parts";
+  if (/approved quote/i.test(item)) return "quote";
+  if (/deposit|invoice|balance|on account/i.test(item)) return "money";
+  return "parts";
 }
 
 /** "Into Install: …" under "Needs before it can move to Install:" says the stage twice; a move across several stages keeps the other stages' names. */
