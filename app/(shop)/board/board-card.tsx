@@ -65,14 +65,14 @@ export function CardBody({ card, refusal, pending, actions, handle }: { card: Bo
         {handle}
         <div className="min-w-0 flex-1">
           <div className="flex items-center justify-between gap-1">
-            <Link href={`/jobs/${card.id}`} className="font-bold text-bay-900 underline-offset-2 hover:underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">
+            <Link href={`/jobs/${card.id}`} className="whitespace-nowrap font-bold text-bay-900 underline-offset-2 hover:underline pointer-coarse:inline-flex pointer-coarse:min-h-11 pointer-coarse:items-center">
               {card.workOrder}
             </Link>
-            {card.priority === "rush" && <span className="rounded bg-spark-100 px-1.5 text-xs font-bold text-spark-700">▲ Rush</span>}
+            {card.priority === "rush" && <span className="shrink-0 whitespace-nowrap rounded bg-spark-100 px-1.5 text-xs font-bold text-spark-700">▲ Rush</span>}
           </div>
           <p className="truncate text-sm font-semibold" title={card.customerName}>{card.customerName}</p>
           <p className="text-xs text-ink-soft">
-            Unit <span className="font-semibold text-ink">{card.unitNumber}</span> · VIN …{card.vinLast6}
+            Unit <span className="font-semibold text-ink">{card.unitNumber}</span> · <span className="whitespace-nowrap">VIN …{card.vinLast6}</span>
           </p>
         </div>
       </div>

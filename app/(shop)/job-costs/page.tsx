@@ -81,7 +81,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
             </table>
           </>
         )}
-        <p className="mt-2 text-sm text-ink-soft">Quote lines carry no stage, so jobs are compared with their approved quotes in total (below), not stage by stage.</p>
+        <p className="mt-2 text-sm text-ink-soft">Quote lines carry no stage, so jobs are compared with their approved quotes in total (below), not stage by stage. Labour is costed on the exact clocked time; hours are shown rounded to the hundredth, so hours × rate can differ by a few cents.</p>
       </Section>
 
       <Section title="Jobs" id="jobs">
