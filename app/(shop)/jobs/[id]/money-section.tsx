@@ -7,20 +7,19 @@ import { jobInvoices } from "@/server/money/invoices";
 import { loadJobMoney } from "@/server/money/job-money";
 import { amountOwed, listPayments } from "@/server/money/payments";
 import { moneyWords } from "@/server/money/state";
-import { shopSettings } from "@/server/shop/queries";
 import { MoneyPanel } from "./money-panel";
 
 /** What the customer owes and paid: the state in words, the invoice, the payments, and the counter's form. */
-export async function MoneySection({ job, user }: { job: JobDetail; user: StaffUser }) {
+export async function MoneySection({ job, user, timeZone }: { job: JobDetail; user: StaffUser; timeZone: string }) {
   if (user.role === "tech") return null;
   await afterShell();
   const db = getDb();
-  const [money, payments, invoices, shop] = await Promise.all([loadJobMoney(db, [job.id]).then((m) => m.get(job.id)!), listPayments(db, job.id), jobInvoices(db, job.id, { includeVoid: true }), shopSettings(db)]);
+  const [money, payments, invoices] = await Promise.all([loadJobMoney(db, [job.id]).then((m) => m.get(job.id)!), listPayments(db, job.id), jobInvoices(db, job.id, { includeVoid: true })]);
   return (
     <Section title="Money" id="money">
       <MoneyPanel
         jobId={job.id}
-        timeZone={shop.timeZone}
+        timeZone={timeZone}
         role={user.role}
         stage={job.stage}
         words={moneyWords(money)}

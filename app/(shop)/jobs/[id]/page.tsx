@@ -113,11 +113,11 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           {user.role !== "tech" && (
             <div className="no-print">
               <Suspense fallback={<SectionLoading title="Quote" />}>
-                <QuoteSection job={job} user={user} />
+                <QuoteSection job={job} user={user} timeZone={shop.timeZone} />
               </Suspense>
               <div className="mt-4">
                 <Suspense fallback={<SectionLoading title="Money" />}>
-                  <MoneySection job={job} user={user} />
+                  <MoneySection job={job} user={user} timeZone={shop.timeZone} />
                 </Suspense>
               </div>
             </div>

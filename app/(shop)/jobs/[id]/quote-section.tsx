@@ -7,15 +7,14 @@ import { latestKitSpec } from "@/server/kit-spec/queries";
 import { listPriceItems } from "@/server/money/price-list";
 import { quotesForJob } from "@/server/money/quotes";
 import { moneySettings } from "@/server/money/settings";
-import { shopSettings } from "@/server/shop/queries";
 import { QuotePanel } from "./quote-panel";
 
 /** The job's quotes and change orders: office and owner price the work; a tech builds it and sees no prices. */
-export async function QuoteSection({ job, user }: { job: JobDetail; user: StaffUser }) {
+export async function QuoteSection({ job, user, timeZone }: { job: JobDetail; user: StaffUser; timeZone: string }) {
   if (user.role === "tech") return null;
   await afterShell();
   const db = getDb();
-  const [quotes, items, settings, spec, shop] = await Promise.all([quotesForJob(db, job.id), listPriceItems(db), moneySettings(db), latestKitSpec(db, job.id), shopSettings(db)]);
+  const [quotes, items, settings, spec] = await Promise.all([quotesForJob(db, job.id), listPriceItems(db), moneySettings(db), latestKitSpec(db, job.id)]);
   return (
     <Section title="Quote" id="quote">
       <QuotePanel
@@ -24,7 +23,7 @@ export async function QuoteSection({ job, user }: { job: JobDetail; user: StaffU
         priceItems={items}
         taxMillipercent={settings.taxMillipercent}
         kitSpecVersion={spec?.version ?? null}
-        timeZone={shop.timeZone}
+        timeZone={timeZone}
       />
     </Section>
   );
