@@ -17,7 +17,14 @@ import { MAX_PHOTOS_PER_UPLOAD, MAX_PHOTO_BYTES, PHOTO_TYPES } from "@/server/ph
 type UploadFiles = ReturnType<typeof generateReactHelpers<PhotoRouter>>["uploadFiles"];
 let uploader: Promise<UploadFiles> | null = null;
 function loadUploader(): Promise<UploadFiles> {
-  uploader ??= import("@uploadthing/react").then((m) => m.generateReactHelpers<PhotoRouter>().uploadFiles);
+  uploader ??= import("@uploadthing/react").then(
+    (m) => m.generateReactHelpers<PhotoRouter>().uploadFiles,
+    (error: unknown) => {
+      // A failed load (the signal dropped) is tried again on the next send, not kept.
+      uploader = null;
+      throw error;
+    },
+  );
   return uploader;
 }
 
