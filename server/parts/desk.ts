@@ -30,6 +30,8 @@ export interface DeskLine {
 
 export interface PartsDesk {
   today: string;
+  /** The shop's time zone, for showing when things were received. */
+  timeZone: string;
   weekStart: string;
   /** Lines still to order, grouped by supplier ("" = none chosen yet), suppliers A–Z. */
   toOrder: { supplier: string; lines: DeskLine[] }[];
@@ -124,6 +126,7 @@ export async function buildPartsDesk(db: DB, today: string, timeZone: string): P
   const suppliers = await db.selectFrom("purchase_order").select("supplier").distinct().orderBy("supplier").limit(200).execute();
   return {
     today,
+    timeZone,
     weekStart,
     toOrder: bySupplier(lines.filter((l) => l.state === "needed")),
     onOrder: bySupplier(ordered).map((g) => ({ supplier: g.supplier, lines: g.lines })),

@@ -94,8 +94,9 @@ export function orderTotal(lines: readonly { quantity: number; unitCostCents: nu
 
 /** Counted plural: "1 part", "2 parts". */
 /**
- * A long group on the parts desk shows its first lines and folds the rest behind "Show all"; a
- * group only a few lines past the cut shows whole, so nobody opens a fold to find two lines.
+ * A long list on the parts desk (overdue deliveries, received this week) shows its first lines and
+ * folds the rest behind "Show all"; a list only a few lines past the cut shows whole, so nobody
+ * opens a fold to find two lines.
  */
 export const DESK_FIRST_LINES = 10;
 export const DESK_FOLD_FROM = 15;

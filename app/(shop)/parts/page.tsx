@@ -6,10 +6,9 @@ import { requirePageStaff } from "@/server/auth/session";
 import { showStoredDate } from "@/server/http/calendar-date";
 import { COST_ROLES } from "@/server/parts/mutations";
 import { type DeskLine, loadPartsDesk } from "@/server/parts/desk";
-import { BOUGHT_PART_KIND_LABELS, countOf, DESK_FIRST_LINES, DESK_FOLD_FROM, DESK_INLINE_LINES, firstLinesOf, supplierSummary } from "@/server/parts/rules";
+import { BOUGHT_PART_KIND_LABELS, countOf, DESK_INLINE_LINES, firstLinesOf, supplierSummary } from "@/server/parts/rules";
 import { formatCents } from "@/components/money";
 import { formatShopTime } from "@/server/records/calendar";
-import { shopSettings } from "@/server/shop/queries";
 import { OrderGroup, type OrderLine, ReceiveButton } from "./parts-forms";
 
 export const metadata = { title: "Parts desk" };
@@ -30,16 +29,6 @@ const ordering = (l: DeskLine): OrderLine => ({ id: l.id, jobId: l.jobId, workOr
 
 /** Only what the receive form needs goes to the browser, not the whole line. */
 const receiving = (l: DeskLine) => ({ id: l.id, description: l.description, quantity: l.quantity, receivedQuantity: l.receivedQuantity, workOrder: l.workOrder });
-
-function MoreLines({ supplier, shown, total, anchor }: { supplier: string; shown: number; total: number; anchor: string }) {
-  if (shown >= total) return null;
-  return (
-    <p className="mt-1 text-sm text-ink-soft">
-      Showing {shown} of {total.toLocaleString("en-US")} lines.{" "}
-      <Link className="font-semibold underline" href={`/parts?supplier=${encodeURIComponent(supplier)}#${anchor}`}>Show all {total.toLocaleString("en-US")} {supplier ? `from ${supplier}` : "without a supplier"}</Link>
-    </p>
-  );
-}
 
 /** One supplier's lines on order, soonest expected first, each with its Receive button. */
 function OnOrderTable({ lines }: { lines: readonly DeskLine[] }) {
@@ -115,19 +104,20 @@ function SupplierRows({ groups, anchor, kind }: { groups: { supplier: string; li
 export default async function PartsDeskPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   await requirePageStaff(COST_ROLES);
   const raw = await searchParams;
-  // A busy shop has thousands of open lines: each supplier shows its first few, and one link opens
-  // the whole group (to order a supplier's lines on one purchase order).
+  // A busy shop has thousands of open lines: a supplier's lines open from its row (?supplier=),
+  // to order them on one purchase order; overdue and received show their first few.
   const opened = typeof raw.supplier === "string" ? raw.supplier : null;
   const allOverdue = raw.overdue === "all";
   const allReceived = raw.received === "all";
-  const shown = <T,>(supplier: string, lines: readonly T[]) => (supplier === opened ? lines : firstLinesOf(lines));
   const db = getDb();
-  const [desk, shop] = await Promise.all([loadPartsDesk(db), shopSettings(db)]);
+  const desk = await loadPartsDesk(db);
   const toOrderCount = desk.toOrder.reduce((n, g) => n + g.lines.length, 0);
   const onOrderCount = desk.onOrder.reduce((n, g) => n + g.lines.length, 0);
   // A section of a few lines shows them all; a busy one shows a row per supplier, and the supplier
   // opened (?supplier=) shows its lines.
   const inline = (supplier: string, sectionLines: number) => supplier === opened || sectionLines <= DESK_INLINE_LINES;
+  const overdueShown = allOverdue ? desk.overdue : firstLinesOf(desk.overdue);
+  const receivedShown = allReceived ? desk.receivedThisWeek : firstLinesOf(desk.receivedThisWeek);
   return (
     <div className="space-y-4">
       <div>
@@ -158,7 +148,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
       {desk.overdue.length > 0 && (
         <Section title="Overdue deliveries" id="overdue">
           <ul className="space-y-2">
-            {(allOverdue ? desk.overdue : firstLinesOf(desk.overdue)).map((l) => (
+            {overdueShown.map((l) => (
               <li key={l.id} className="flex flex-wrap items-center justify-between gap-2 rounded-md border-2 border-stop-700 p-2" data-overdue-line={l.description}>
                 <p>
                   <span className="font-bold text-stop-700"><IconWarn /> Overdue since {day(l.expectedOn!)}</span> · {l.quantity - l.receivedQuantity} × {l.description} from {l.supplier} on{" "}
@@ -168,9 +158,9 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
               </li>
             ))}
           </ul>
-          {!allOverdue && desk.overdue.length >= DESK_FOLD_FROM && (
+          {overdueShown.length < desk.overdue.length && (
             <p className="mt-1 text-sm text-ink-soft">
-              Showing the {DESK_FIRST_LINES} longest overdue of {desk.overdue.length.toLocaleString("en-US")}.{" "}
+              Showing the {overdueShown.length} longest overdue of {desk.overdue.length.toLocaleString("en-US")}.{" "}
               <Link className="font-semibold underline" href="/parts?overdue=all#overdue">Show all {desk.overdue.length.toLocaleString("en-US")}</Link>
             </p>
           )}
@@ -188,8 +178,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
             {desk.toOrder.map((g) =>
               inline(g.supplier, toOrderCount) ? (
                 <div key={g.supplier || "none"}>
-                  <OrderGroup supplier={g.supplier} lines={shown(g.supplier, g.lines).map(ordering)} today={desk.today} suppliers={desk.suppliers} />
-                  <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="to-order" />
+                  <OrderGroup supplier={g.supplier} lines={g.lines.map(ordering)} today={desk.today} suppliers={desk.suppliers} />
                 </div>
               ) : null,
             )}
@@ -207,8 +196,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
               inline(g.supplier, onOrderCount) ? (
                 <div key={g.supplier}>
                   <h3 className="font-bold">{g.supplier}</h3>
-                  <OnOrderTable lines={shown(g.supplier, g.lines)} />
-                  <MoreLines supplier={g.supplier} shown={shown(g.supplier, g.lines).length} total={g.lines.length} anchor="on-order" />
+                  <OnOrderTable lines={g.lines} />
                 </div>
               ) : null,
             )}
@@ -223,17 +211,17 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
             <p className="text-ink-soft">Nothing received yet this week.</p>
           ) : (
             <ul className="space-y-1 text-sm">
-              {(allReceived ? desk.receivedThisWeek : desk.receivedThisWeek.slice(0, DESK_FIRST_LINES)).map((r) => (
+              {receivedShown.map((r) => (
                 <li key={r.id}>
-                  <span className="text-ink-soft">{formatShopTime(r.at, shop.timeZone, "EEE d MMM HH:mm")}</span> · {r.quantity} × {r.description} for{" "}
+                  <span className="text-ink-soft">{formatShopTime(r.at, desk.timeZone, "EEE d MMM HH:mm")}</span> · {r.quantity} × {r.description} for{" "}
                   <Link className="underline" href={`/jobs/${r.jobId}#bought-parts`}>{r.workOrder}</Link> · {r.byName}
                 </li>
               ))}
             </ul>
           )}
-          {!allReceived && desk.receivedThisWeek.length > DESK_FIRST_LINES && (
+          {receivedShown.length < desk.receivedThisWeek.length && (
             <p className="mt-1 text-sm text-ink-soft">
-              Showing the newest {DESK_FIRST_LINES}. <Link className="font-semibold underline" href="/parts?received=all#received">Show all {desk.receivedThisWeek.length.toLocaleString("en-US")}</Link>
+              Showing the newest {receivedShown.length}. <Link className="font-semibold underline" href="/parts?received=all#received">Show all {desk.receivedThisWeek.length.toLocaleString("en-US")}</Link>
             </p>
           )}
         </Section>
