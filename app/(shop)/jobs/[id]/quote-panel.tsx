@@ -66,6 +66,8 @@ function Totals(figures: DocumentFigures) {
 
 function QuoteLines({ quote }: { quote: Quote }) {
   return (
+    <>
+    <p className="mb-1 text-sm text-ink-soft sm:hidden">Slide the lines sideways for quantity, unit price and amount.</p>
     <div role="region" aria-label={`Lines of version ${quote.version} (table)`} tabIndex={0} className="overflow-x-auto">
       <table className="w-full min-w-[32rem] text-left">
         <caption className="sr-only">Lines of version {quote.version}</caption>
@@ -95,6 +97,7 @@ function QuoteLines({ quote }: { quote: Quote }) {
         </tbody>
       </table>
     </div>
+    </>
   );
 }
 
