@@ -158,8 +158,8 @@ export interface StageEventTable {
 export interface OutboxTable {
   id: string;
   job_id: number;
-  /** `stage_changed`: the job reached a stage; `link_issued`: the office e-mails a new status link; `quote_sent`: a quote or change order went to the customer. */
-  kind: "stage_changed" | "link_issued" | "quote_sent" | "invoice_sent";
+  /** `stage_changed`: the job reached a stage; `link_issued`: the office e-mails a new status link; `quote_sent`: a quote or change order went to the customer; `invoice_sent`: the invoice at Ready for pickup; `payment_received`: the receipt for a payment. */
+  kind: "stage_changed" | "link_issued" | "quote_sent" | "invoice_sent" | "payment_received";
   payload: string;
   status: "pending" | "sent" | "failed" | "skipped";
   attempts: number;

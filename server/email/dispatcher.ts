@@ -12,8 +12,22 @@ import { quoteDocument, quotePdfName } from "@/server/money/quote-pdf";
 import { renderMoneyPdf } from "@/server/money/pdf";
 import { fromThousandths } from "@/server/money/totals";
 import { invoiceDocument, invoicePdfName } from "@/server/money/invoice-pdf";
-import { type InvoiceSentPayload, type LinkIssuedPayload, type QuoteSentPayload, type StageChangedPayload, parseInvoicePayload, parseLinkPayload, parsePayload, parseQuotePayload } from "./payload";
-import { renderInvoiceEmail, renderLinkEmail, renderQuoteEmail, renderStageEmail, withStatusLink } from "./render";
+import { METHOD_LABELS } from "@/server/money/payments";
+import { TZDate } from "@date-fns/tz";
+import { format } from "date-fns";
+import {
+  type InvoiceSentPayload,
+  type LinkIssuedPayload,
+  type PaymentReceivedPayload,
+  type QuoteSentPayload,
+  type StageChangedPayload,
+  parseInvoicePayload,
+  parseLinkPayload,
+  parsePayload,
+  parseQuotePayload,
+  parseReceiptPayload,
+} from "./payload";
+import { renderInvoiceEmail, renderLinkEmail, renderQuoteEmail, renderReceiptEmail, renderStageEmail, withStatusLink } from "./render";
 import type { EmailSender, SendResult } from "./sender";
 import { notifySettings } from "./settings";
 
@@ -127,7 +141,8 @@ type Work =
   | { kind: "stage_changed"; payload: StageChangedPayload }
   | { kind: "link_issued"; payload: LinkIssuedPayload }
   | { kind: "quote_sent"; payload: QuoteSentPayload }
-  | { kind: "invoice_sent"; payload: InvoiceSentPayload };
+  | { kind: "invoice_sent"; payload: InvoiceSentPayload }
+  | { kind: "payment_received"; payload: PaymentReceivedPayload };
 
 /** A file made for a message before its first rendering (outside any transaction) and stored with it. */
 interface NewAttachment {
@@ -154,6 +169,10 @@ function readWork(row: ClaimedRow): Work | null {
   if (row.kind === "invoice_sent") {
     const payload = parseInvoicePayload(row.payload);
     return payload ? { kind: "invoice_sent", payload } : null;
+  }
+  if (row.kind === "payment_received") {
+    const payload = parseReceiptPayload(row.payload);
+    return payload ? { kind: "payment_received", payload } : null;
   }
   return null;
 }
@@ -219,6 +238,11 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachme
     }
     const invoice = work.kind === "invoice_sent" ? await invoiceDocument(trx, work.payload.invoiceId) : null;
     if (work.kind === "invoice_sent" && (!invoice || invoice.status === "void")) return { skip: "The invoice this e-mail was for was voided before it went out." };
+    const payment =
+      work.kind === "payment_received"
+        ? await trx.selectFrom("payment").select(["amount_cents", "method", "at"]).where("id", "=", work.payload.paymentId).where("job_id", "=", row.job_id).executeTakeFirst()
+        : undefined;
+    if (work.kind === "payment_received" && !payment) return { skip: "The payment this receipt was for is no longer on the job." };
     if (to.length === 0) return { skip: "Nobody on this job gets e-mail updates: choose a contact with an e-mail address." };
 
     const link =
@@ -231,11 +255,11 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachme
     if (stored && link.id === stored.status_link_id && sameAddresses(JSON.parse(stored.to_addresses) as string[], to)) return { message: stored, token: link.token };
 
     const [shopRow, parts, shared] = await Promise.all([
-      trx.selectFrom("shop").select(["name", "phone"]).where("id", "=", 1).executeTakeFirst(),
+      trx.selectFrom("shop").select(["name", "phone", "time_zone"]).where("id", "=", 1).executeTakeFirst(),
       trx.selectFrom("part").select(["needs_leak_test", "needs_coating"]).where("job_id", "=", row.job_id).execute(),
       trx.selectFrom("photo").select("id").where("job_id", "=", row.job_id).where("customer_visible", "=", 1).limit(1).executeTakeFirst(),
     ]);
-    const shop = shopRow ?? { name: "Your upfit shop", phone: "" };
+    const shop = shopRow ? { name: shopRow.name, phone: shopRow.phone } : { name: "Your upfit shop", phone: "" };
     const common = {
       shop,
       job: { workOrder: job.work_order, description: job.description, unitNumber: job.unit_number },
@@ -265,6 +289,19 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachme
             })
           : work.kind === "invoice_sent" && invoice
             ? renderInvoiceEmail({ ...common, pdfName: invoicePdfName(invoice.workOrder, invoice.number), invoice: { number: invoice.number, figures: invoice.doc } })
+          : work.kind === "payment_received" && payment
+            ? renderReceiptEmail({
+                ...common,
+                receipt: {
+                  amountCents: payment.amount_cents,
+                  paidFor: work.payload.paidFor,
+                  methodLabel: METHOD_LABELS[payment.method],
+                  // The day the money came in on the shop's clock, not the server's.
+                  dateWords: format(new TZDate(payment.at, shopRow?.time_zone || "UTC"), "EEEE d MMMM yyyy"),
+                  balanceAfterCents: work.payload.balanceAfterCents,
+                  onAccountCents: work.payload.onAccountCents,
+                },
+              })
           : work.kind === "stage_changed"
             ? renderStageEmail({ ...common, from: work.payload.from, to: work.payload.to, readyBy: job.due_on })
             : null;

@@ -4,8 +4,8 @@ import type { DB } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
 import { ApiError } from "@/server/http/errors";
 import { parsePayload } from "./dispatcher";
-import { queueQuoteMessage } from "./outbox";
-import { parseQuotePayload } from "./payload";
+import { queueQuoteMessage, queueReceiptMessage } from "./outbox";
+import { parseQuotePayload, parseReceiptPayload } from "./payload";
 import { recipientsFor } from "./recipients";
 
 export type DeliveryState = "sent" | "waiting" | "retrying" | "failed" | "skipped";
@@ -35,13 +35,14 @@ export async function listMessages(db: DB, jobId: number) {
     .execute();
   return rows.map((r) => {
     const payload = r.kind === "stage_changed" ? parsePayload(r.payload) : null;
+    const receipt = r.kind === "payment_received" ? parseReceiptPayload(r.payload) : null;
     const state: DeliveryState = r.status === "pending" ? (r.attempts > 0 && r.lastError ? "retrying" : "waiting") : r.status;
     return {
       id: r.id,
       kind: r.kind,
       from: payload?.from ?? null,
       to: payload?.to ?? null,
-      resendOf: payload?.resendOf ?? null,
+      resendOf: payload?.resendOf ?? receipt?.resendOf ?? null,
       state,
       attempts: r.attempts,
       nextAttemptAt: r.status === "pending" ? r.nextAttemptAt : null,
@@ -68,6 +69,7 @@ export async function resendMessage(db: DB, actor: StaffUser, outboxId: string) 
   if (!original) throw new ApiError("not_found", "That message was not found.");
   if (original.kind === "link_issued") throw new ApiError("conflict", "A status link e-mail is not sent again: issue a new link and choose to e-mail it to the contacts.");
   if (original.kind === "quote_sent") return resendQuoteMessage(db, actor, original);
+  if (original.kind === "payment_received") return resendReceipt(db, actor, original);
   const payload = parsePayload(original.payload);
   if (original.kind !== "stage_changed" || !payload) throw new ApiError("conflict", "That message cannot be sent again.");
   if (original.replaced_at) throw new ApiError("conflict", "A later move replaced this message, so it is not sent again: it no longer says where the job is. Send the newest message again instead.");
@@ -106,6 +108,24 @@ async function resendQuoteMessage(db: DB, actor: StaffUser, original: { id: stri
   if (emailOff) throw new ApiError("conflict", "E-mail is off for this job: switch it on under E-mail settings, then send again.");
   if (to.length === 0) throw new ApiError("conflict", "Nobody on this job gets e-mail updates: choose a contact with an e-mail address first.");
   const id = await db.transaction().execute((trx) => queueQuoteMessage(trx, { jobId: original.job_id, quoteId: payload.quoteId, requestedBy: actor.name, at: new Date().toISOString() }));
+  return (await listMessages(db, original.job_id)).find((m) => m.id === id)!;
+}
+
+/**
+ * A receipt sent again (the customer lost it): a new row with the same figures as the first, since
+ * it is the receipt for that payment as it stood, not a new statement of the job's balance.
+ */
+async function resendReceipt(db: DB, actor: StaffUser, original: { id: string; job_id: number; payload: string }) {
+  const payload = parseReceiptPayload(original.payload);
+  if (!payload) throw new ApiError("conflict", "That message cannot be sent again.");
+  const payment = await db.selectFrom("payment").select("id").where("id", "=", payload.paymentId).where("job_id", "=", original.job_id).executeTakeFirst();
+  if (!payment) throw new ApiError("conflict", "The payment this receipt was for is no longer on the job.");
+  const { emailOff, to } = await recipientsFor(db, original.job_id);
+  if (emailOff) throw new ApiError("conflict", "E-mail is off for this job: switch it on under E-mail settings, then send again.");
+  if (to.length === 0) throw new ApiError("conflict", "Nobody on this job gets e-mail updates: choose a contact with an e-mail address first.");
+  const id = await db
+    .transaction()
+    .execute((trx) => queueReceiptMessage(trx, { jobId: original.job_id, at: new Date().toISOString(), payload: { ...payload, resendOf: payload.resendOf ?? original.id, requestedBy: actor.name } }));
   return (await listMessages(db, original.job_id)).find((m) => m.id === id)!;
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Transaction } from "kysely";
 import type { Database, Stage } from "@/db/schema";
-import { parsePayload } from "./payload";
+import { type PaymentReceivedPayload, parsePayload } from "./payload";
 import { quietSeconds } from "./settings";
 
 type Trx = Transaction<Database>;
@@ -89,7 +89,7 @@ export async function queueStageMessage(trx: Trx, move: { jobId: number; from: S
  * A message the office asked for goes at once (no quiet period): the outbox row is written in the
  * transaction that made what it carries, so it is sent exactly when that commits.
  */
-async function queueAtOnce(trx: Trx, input: { jobId: number; at: string }, kind: "link_issued" | "quote_sent" | "invoice_sent", payload: Record<string, unknown>): Promise<string> {
+async function queueAtOnce(trx: Trx, input: { jobId: number; at: string }, kind: "link_issued" | "quote_sent" | "invoice_sent" | "payment_received", payload: Record<string, unknown>): Promise<string> {
   const id = randomUUID();
   await trx
     .insertInto("outbox")
@@ -111,4 +111,9 @@ export function queueQuoteMessage(trx: Trx, input: { jobId: number; quoteId: num
 /** The invoice's e-mail, in the transaction that made the invoice. */
 export function queueInvoiceMessage(trx: Trx, input: { jobId: number; invoiceId: number; requestedBy: string; at: string }): Promise<string> {
   return queueAtOnce(trx, input, "invoice_sent", { invoiceId: input.invoiceId, requestedBy: input.requestedBy });
+}
+
+/** The receipt for a payment, in the transaction that applied or recorded it. */
+export function queueReceiptMessage(trx: Trx, input: { jobId: number; at: string; payload: PaymentReceivedPayload }): Promise<string> {
+  return queueAtOnce(trx, input, "payment_received", { ...input.payload });
 }

@@ -67,3 +67,47 @@ export function parseLinkPayload(raw: string): LinkIssuedPayload | null {
     return null;
   }
 }
+
+/** What a payment receipt paid for, as it stood when the money came in. */
+export type ReceiptPaidFor = { kind: "deposit"; quoteVersion: number | null } | { kind: "invoice"; invoiceNumber: string };
+
+/**
+ * A payment the customer made (online) or the office recorded: the receipt reads the payment row for
+ * the amount, method and date, and keeps here what the job still owed right after it, so a later
+ * payment does not change what this receipt says.
+ */
+export interface PaymentReceivedPayload {
+  paymentId: number;
+  paidFor: ReceiptPaidFor;
+  /** Still owed on the job after this payment (never below 0). */
+  balanceAfterCents: number;
+  /** Put on the customer's account by the owner (owed, not received). */
+  onAccountCents: number;
+  requestedBy: string;
+  resendOf?: string;
+}
+
+const wholeCents = (v: unknown): v is number => typeof v === "number" && Number.isSafeInteger(v) && v >= 0;
+
+export function parseReceiptPayload(raw: string): PaymentReceivedPayload | null {
+  try {
+    const p = JSON.parse(raw) as Partial<PaymentReceivedPayload> & { paidFor?: Partial<{ kind: string; quoteVersion: unknown; invoiceNumber: unknown }> };
+    if (typeof p.paymentId !== "number" || !Number.isInteger(p.paymentId) || typeof p.requestedBy !== "string") return null;
+    if (!wholeCents(p.balanceAfterCents) || !wholeCents(p.onAccountCents)) return null;
+    const f = p.paidFor;
+    let paidFor: ReceiptPaidFor;
+    if (f?.kind === "deposit" && (f.quoteVersion === null || (typeof f.quoteVersion === "number" && Number.isInteger(f.quoteVersion)))) paidFor = { kind: "deposit", quoteVersion: f.quoteVersion };
+    else if (f?.kind === "invoice" && typeof f.invoiceNumber === "string" && f.invoiceNumber.length > 0) paidFor = { kind: "invoice", invoiceNumber: f.invoiceNumber };
+    else return null;
+    return {
+      paymentId: p.paymentId,
+      paidFor,
+      balanceAfterCents: p.balanceAfterCents,
+      onAccountCents: p.onAccountCents,
+      requestedBy: p.requestedBy,
+      ...(typeof p.resendOf === "string" ? { resendOf: p.resendOf } : {}),
+    };
+  } catch {
+    return null;
+  }
+}

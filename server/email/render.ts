@@ -2,6 +2,7 @@ import { format, parseISO } from "date-fns";
 import type { Stage } from "@/db/schema";
 import { type DocumentFigures, type FigureRow, figureRows } from "@/server/money/document";
 import { formatCents } from "@/server/money/totals";
+import type { ReceiptPaidFor } from "./payload";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened, whereItIsNow } from "@/server/status/words";
 
 /**
@@ -256,5 +257,61 @@ export function renderQuoteEmail(input: QuoteEmailInput): RenderedEmail {
     linkIntro: `See the ${what} and answer it here:`,
     button: `See the ${what} and answer it`,
     linkSuffix: "#quote",
+  });
+}
+
+export interface ReceiptEmailInput extends CommonEmailInput {
+  receipt: {
+    amountCents: number;
+    paidFor: ReceiptPaidFor;
+    /** The method in the shop's words (METHOD_LABELS: "Card (online)", "Check"…). */
+    methodLabel: string;
+    /** The day of the payment on the shop's clock, in words ("Thursday 3 December 2026"). */
+    dateWords: string;
+    /** Still owed on the job after this payment. */
+    balanceAfterCents: number;
+    /** Owed on the customer's account (the owner put it there; not money received). */
+    onAccountCents: number;
+  };
+}
+
+/** "Deposit on quote v2", "Invoice INV-26-0003". */
+export function paidForWords(paidFor: ReceiptPaidFor): string {
+  if (paidFor.kind === "invoice") return `Invoice ${plain(paidFor.invoiceNumber)}`;
+  return paidFor.quoteVersion === null ? "Deposit" : `Deposit on quote v${paidFor.quoteVersion}`;
+}
+
+/** The receipt for a payment: what was paid, for what, how, when, and what the job still owes. */
+export function renderReceiptEmail(input: ReceiptEmailInput): RenderedEmail {
+  const r = input.receipt;
+  const amount = formatCents(r.amountCents);
+  const owed = Math.max(0, r.balanceAfterCents);
+  const forWhat =
+    r.paidFor.kind === "invoice" ? `toward invoice ${plain(r.paidFor.invoiceNumber)}` : r.paidFor.quoteVersion === null ? "for the deposit" : `for the deposit on quote v${r.paidFor.quoteVersion}`;
+  const figures: FigureRow[] = [
+    { label: "Amount paid", value: amount, strong: true },
+    { label: "For", value: paidForWords(r.paidFor), strong: false },
+    { label: "Paid by", value: r.methodLabel, strong: false },
+    { label: "Date", value: r.dateWords, strong: false },
+    owed > 0 ? { label: "Still owed on the job", value: formatCents(owed), strong: true } : { label: "Still owed on the job", value: r.onAccountCents > 0 ? formatCents(0) : "Paid in full", strong: true },
+    ...(r.onAccountCents > 0 ? [{ label: "On your account", value: formatCents(r.onAccountCents), strong: false }] : []),
+  ];
+  const after =
+    owed > 0
+      ? r.paidFor.kind === "deposit"
+        ? `The rest of the agreed price, ${formatCents(owed)}, is invoiced when your truck is ready for pickup.`
+        : `${formatCents(owed)} is still owed on this job.`
+      : r.onAccountCents > 0
+        ? `Nothing more is owed now; ${formatCents(r.onAccountCents)} is on your account.`
+        : "Paid in full: nothing more is owed on this job.";
+  return frame(input, {
+    subject: `Payment received ${amount} · ${jobLine(input.job)}`,
+    heading: "Payment received",
+    lines: [`Thank you: we received your payment of ${amount} ${forWhat}. This e-mail is your receipt.`, after],
+    strong: null,
+    figures,
+    linkIntro: "See your truck's progress and what is paid here:",
+    button: "See your truck's progress",
+    linkSuffix: "",
   });
 }

@@ -2,8 +2,12 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import type { DB } from "@/db";
-import type { Role } from "@/db/schema";
+import type { Transaction } from "kysely";
+import type { Database, Role } from "@/db/schema";
 import { recordAudit, type AuditActor } from "@/server/audit/record";
+import { queueReceiptMessage } from "@/server/email/outbox";
+import type { ReceiptPaidFor } from "@/server/email/payload";
+import { recipientsFor } from "@/server/email/recipients";
 import { ApiError } from "@/server/http/errors";
 import { appOrigin } from "@/server/http/origin";
 import { createCheckoutSession, PaymentServiceError, paymentsEnv } from "@/server/payments/service";
@@ -88,6 +92,39 @@ async function settleInvoiceIfPaid(trx: DB, jobId: number) {
 }
 
 /**
+ * The customer's receipt, in the transaction that took the payment (after the invoice is settled, so
+ * the balance is the one after this payment). Only money received gets one; nothing is written when
+ * nobody on the job gets e-mail updates. The quote version (deposit) and invoice number are those
+ * the payment went against, kept in the message so a later change does not rewrite the receipt.
+ */
+async function queueReceipt(trx: Transaction<Database>, input: { jobId: number; paymentId: number; purpose: Purpose; quoteId: number | null; requestedBy: string; at: string }): Promise<string | null> {
+  const { emailOff, to } = await recipientsFor(trx, input.jobId);
+  if (emailOff || to.length === 0) return null;
+  const m = await jobMoney(trx, input.jobId);
+  let paidFor: ReceiptPaidFor;
+  if (input.purpose === "invoice") {
+    paidFor = { kind: "invoice", invoiceNumber: m.invoice?.number ?? "" };
+    if (!paidFor.invoiceNumber) return null;
+  } else {
+    const quote = await trx
+      .selectFrom("quote")
+      .select("version")
+      .where("job_id", "=", input.jobId)
+      .where("kind", "=", "quote")
+      .$if(input.quoteId !== null, (q) => q.where("id", "=", input.quoteId!))
+      .$if(input.quoteId === null, (q) => q.where("status", "=", "approved"))
+      .orderBy("version", "desc")
+      .executeTakeFirst();
+    paidFor = { kind: "deposit", quoteVersion: quote?.version ?? null };
+  }
+  return queueReceiptMessage(trx, {
+    jobId: input.jobId,
+    at: input.at,
+    payload: { paymentId: input.paymentId, paidFor, balanceAfterCents: Math.max(0, balanceDueCents(m)), onAccountCents: m.onAccountCents, requestedBy: input.requestedBy },
+  });
+}
+
+/**
  * Applies one verified webhook event, once: the event id is the key, so a second delivery of the
  * same event changes nothing. A payment is taken only when the amount and currency are those the
  * checkout asked; anything else is refused and kept with its reason.
@@ -139,6 +176,7 @@ export async function applyPaymentEvent(db: DB, event: PaymentEvent): Promise<Ev
       details: { paymentId: payment.id, checkoutId: checkout.id, amountCents: checkout.amount_cents, eventId: event.id },
     });
     if (checkout.purpose === "invoice") await settleInvoiceIfPaid(trx, checkout.job_id);
+    await queueReceipt(trx, { jobId: checkout.job_id, paymentId: payment.id, purpose: checkout.purpose, quoteId: checkout.quote_id, requestedBy: "", at: now });
     return { outcome: "applied" };
   });
 }
@@ -188,6 +226,8 @@ export async function recordPayment(db: DB, actor: AuditActor & { role: Role }, 
       details: { paymentId: payment.id, purpose: input.purpose, method: input.method, amountCents: input.amountCents, reference: input.reference },
     });
     if (input.purpose === "invoice") await settleInvoiceIfPaid(trx, jobId);
+    // On account is owed, not paid: the customer gets no receipt for it.
+    if (input.method !== "on_account") await queueReceipt(trx, { jobId, paymentId: payment.id, purpose: input.purpose, quoteId: null, requestedBy: actor.name, at: now });
     return payment.id;
   });
 }

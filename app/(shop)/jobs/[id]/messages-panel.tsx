@@ -307,7 +307,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
               <li key={m.id} className="space-y-1 p-3">
                 <div className="flex flex-wrap items-center justify-between gap-2">
                   <p className="font-semibold">
-                    {m.kind === "link_issued" ? "New status link" : m.kind === "quote_sent" ? (m.subject?.startsWith("Change order") ? "Change order with its PDF" : "Quote with its PDF") : m.kind === "invoice_sent" ? "Invoice with its PDF" : m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
+                    {m.kind === "link_issued" ? "New status link" : m.kind === "quote_sent" ? (m.subject?.startsWith("Change order") ? "Change order with its PDF" : "Quote with its PDF") : m.kind === "invoice_sent" ? "Invoice with its PDF" : m.kind === "payment_received" ? (m.state === "sent" ? "Receipt sent" : "Receipt for a payment") : m.to ? `${m.from ? `${STAGE_LABELS[m.from]} → ` : ""}${STAGE_LABELS[m.to]}` : "Message"}
                     {m.resendOf && <span className="font-normal text-ink-soft"> · sent again</span>}
                   </p>
                   <span className={`rounded-full px-2.5 py-0.5 text-sm font-semibold ${s.tone}`}>
@@ -341,7 +341,7 @@ function MessageList({ jobId, office, emailConfigured, initial, timeZone }: { jo
                 )}
                 {(m.state === "failed" || m.state === "skipped") && m.reason && <p className={`text-sm ${m.state === "failed" ? "text-stop-700" : "text-ink-soft"}`}>{m.reason}</p>}
                 {m.state === "sent" && m.reason && <p className="text-sm text-ink-soft">{m.reason}</p>}
-                {office && (m.kind === "stage_changed" || m.kind === "quote_sent") && !m.replaced && m.state !== "waiting" && m.state !== "retrying" && (
+                {office && (m.kind === "stage_changed" || m.kind === "quote_sent" || m.kind === "payment_received") && !m.replaced && m.state !== "waiting" && m.state !== "retrying" && (
                   <button type="button" className={buttonClass.secondary} disabled={busy === m.id} onClick={() => act(m.id, "resend")}>
                     {busy === m.id ? "Sending…" : "Send again"}
                   </button>
