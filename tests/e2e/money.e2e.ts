@@ -1,6 +1,7 @@
 import Database from "better-sqlite3";
 import type { APIRequestContext, Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { withCheckDigit } from "@/server/vehicles/vin";
 import { DESK, PHONE, baseUrl, launch, shot, signIn } from "./browser";
 
 
@@ -128,9 +129,14 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     const officeContext = await browser.newContext(DESK);
     const office = await signIn(officeContext, "office");
     const api = office.request;
-    // A customer whose contact gets e-mail updates (the newest job may belong to one with none).
-    const anyJob = customerWithEmail();
-    const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: anyJob.customerId, truckId: anyJob.truckId, scope: "fabrication", description: `Hose tray and bracket ${suffix}` } }), 201)).job as { id: number; workOrder: string };
+    // A customer of this test's own whose contact gets e-mail updates, so the receipts can be told apart from every other e-mail the fake holds.
+    const n = Date.now() % 1_000_000;
+    const contactEmail = `receipts-${n}@hose-tray-fleet.example`;
+    const { customer: ownCustomer } = await json(await api.post(`${baseUrl()}/api/customers`, { headers, data: { kind: "company", name: `Hose Tray Fleet ${suffix}`, contacts: [{ name: "Dana Reyes", email: contactEmail, receivesEmail: true }] } }), 201);
+    const { truck: ownTruck } = await json(await api.post(`${baseUrl()}/api/trucks`, { headers, data: { customerId: ownCustomer.id, unitNumber: `HT-${n}`, vin: withCheckDigit(`1HT5T3X20RK${String(n).padStart(6, "0")}`), year: 2024 } }), 201);
+    const job = (await json(await api.post(`${baseUrl()}/api/jobs`, { headers, data: { customerId: ownCustomer.id, truckId: ownTruck.id, scope: "fabrication", description: `Hose tray and bracket ${suffix}` } }), 201)).job as { id: number; workOrder: string };
+    type FakeMail = { subject: string; text: string; to: string[] };
+    const receiptsSent = async () => ((await (await fetch(`${inject("fakesUrl")}/__fake/emails`)).json()) as FakeMail[]).filter((m) => m.to.includes(contactEmail) && m.subject.startsWith("Payment received"));
     const link = (await json(await api.post(`${baseUrl()}/api/jobs/${job.id}/status-links`, { headers }), 201)).link as { url: string };
     // $800.00 of labour (no tax) and a $215.00 part taxed at the demo's 8.25 %: 17.7375 → $17.74;
     // total $1,032.74; half of it, $516.37, is the deposit.
@@ -166,6 +172,11 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     await phone.waitForURL((u) => u.href.startsWith(baseUrl()) && u.searchParams.get("paid") === "deposit");
     await phone.getByText("Deposit paid: $516.37").waitFor({ timeout: 30_000 });
     await shot(phone, "money-deposit-paid-phone");
+    // The customer's receipt reached the e-mail service: the deposit, and by hand $1,032.74 − $516.37 = $516.37 still owed.
+    await expect.poll(async () => (await receiptsSent()).length, { timeout: 20_000 }).toBe(1);
+    const depositReceipt = (await receiptsSent())[0];
+    expect(depositReceipt.subject).toBe(`Payment received $516.37 · Work order ${job.workOrder} · Unit HT-${n} · Hose tray and bracket ${suffix}`);
+    for (const words of ["Amount paid: $516.37", "For: Deposit on quote v1", "Paid by: Card (online)", "Still owed on the job: $516.37"]) expect(depositReceipt.text).toContain(words);
 
     // The card says so, and the job moves into Fabricate from its "Move to…" list.
     await office.goto(`${baseUrl()}/board`);
@@ -201,8 +212,19 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     await phone.waitForURL((u) => u.href.startsWith(baseUrl()) && u.searchParams.get("paid") === "invoice");
     await phone.getByText("Paid in full. Thank you.").waitFor({ timeout: 30_000 });
     await shot(phone, "money-invoice-paid-phone");
+    // The second receipt: the invoice, and nothing left to pay.
+    await expect.poll(async () => (await receiptsSent()).length, { timeout: 20_000 }).toBe(2);
+    const invoiceReceipt = (await receiptsSent()).find((m) => m.text.includes("For: Invoice INV-"))!;
+    expect(invoiceReceipt.text).toMatch(/For: Invoice INV-\d{2}-\d{4}\n/);
+    expect(invoiceReceipt.text).toContain("Still owed on the job: Paid in full");
     await office.reload();
     await expect.poll(() => money.getByTestId("money-words").textContent()).toContain("Paid in full");
+    // The job's messages list shows both receipts as sent.
+    await expect.poll(() => office.locator("#messages").getByText("Receipt sent").count(), { timeout: 20_000 }).toBe(2);
+    await office.locator("#messages").screenshot({ path: "screenshots/money-receipts-messages-desk.png" });
+    await office.setViewportSize({ width: 390, height: 844 });
+    await office.locator("#messages").screenshot({ path: "screenshots/money-receipts-messages-phone.png" });
+    await office.setViewportSize(DESK.viewport!);
     expect(await money.getByRole("list", { name: "Payments" }).textContent()).toMatch(/Card, paid online · deposit.*\$516\.37.*Card, paid online · invoice.*\$516\.37/);
     // Nothing of a card was ever on the shop's side: the fake's page asks for none, and the app stores only amounts.
     const fakePayments = await (await fetch(`${inject("fakesUrl")}/__fake/payments`)).json();

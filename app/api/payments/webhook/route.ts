@@ -1,4 +1,5 @@
 import { getDb } from "@/db";
+import { wakeDispatcher } from "@/server/email/loop";
 import { ApiError } from "@/server/http/errors";
 import { json, respond } from "@/server/http/respond";
 import { applyPaymentEvent, type PaymentEvent } from "@/server/money/payments";
@@ -37,6 +38,8 @@ export async function POST(req: Request) {
       console.warn(`payments webhook: refused event ${event.id} ${event.type}: ${result.reason}`);
       throw new ApiError("validation", `Event refused: ${result.reason}.`);
     }
+    // The customer's receipt went into the outbox with the payment: send it now, not at the next poll.
+    if (result.outcome === "applied") wakeDispatcher();
     return json({ received: true, outcome: result.outcome });
   });
 }
