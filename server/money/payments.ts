@@ -12,7 +12,7 @@ import { ApiError } from "@/server/http/errors";
 import { appOrigin } from "@/server/http/origin";
 import { createCheckoutSession, PaymentServiceError, paymentsEnv } from "@/server/payments/service";
 import { loadJobMoney } from "./job-money";
-import { balanceDueCents, depositOwedCents, type JobMoney } from "./state";
+import { balanceDueCents, depositOwedCents, invoiceOutOfDate, type JobMoney, outOfDateWords } from "./state";
 import { formatCents, MAX_CENTS } from "./totals";
 
 export type Purpose = "deposit" | "invoice";
@@ -24,7 +24,8 @@ async function jobMoney(db: DB, jobId: number): Promise<JobMoney> {
 /** What the customer is asked to pay now for this purpose (0 when nothing is owed). */
 export function amountOwed(m: JobMoney, purpose: Purpose): number {
   if (purpose === "deposit") return m.invoice ? 0 : depositOwedCents(m);
-  return m.invoice?.status === "open" ? Math.max(0, balanceDueCents(m)) : 0;
+  // An out-of-date invoice asks nothing until it is made again with the change order on it.
+  return m.invoice?.status === "open" && !invoiceOutOfDate(m) ? Math.max(0, balanceDueCents(m)) : 0;
 }
 
 /**
@@ -36,6 +37,9 @@ export async function startCheckout(db: DB, jobId: number, purpose: Purpose, tok
   const job = await db.selectFrom("job").select(["id", "work_order"]).where("id", "=", jobId).executeTakeFirst();
   if (!job) throw new ApiError("not_found", "Not found.");
   const m = await jobMoney(db, jobId);
+  if (purpose === "invoice" && invoiceOutOfDate(m)) {
+    throw new ApiError("conflict", `The shop is making invoice ${m.invoice!.number} again with your approved change on it; the new invoice comes by e-mail. Nothing was charged.`);
+  }
   const amount = amountOwed(m, purpose);
   if (amount <= 0) {
     throw new ApiError("conflict", purpose === "deposit" ? "No deposit is owed on this work order now. Reload the page." : "Nothing is owed on this invoice now. Reload the page.");
@@ -207,6 +211,7 @@ export async function recordPayment(db: DB, actor: AuditActor & { role: Role }, 
     if (!job) throw new ApiError("not_found", "That job was not found.");
     const m = await jobMoney(trx, jobId);
     if (input.purpose === "deposit" && m.quoteStatus !== "approved") throw new ApiError("conflict", "There is no approved quote to take a deposit on yet.");
+    if (input.purpose === "invoice" && invoiceOutOfDate(m)) throw new ApiError("conflict", `${outOfDateWords(m.invoice!, m.priceCents)}. The owner voids it and a new one is made before payment is taken against it.`);
     if (input.purpose === "invoice" && m.invoice?.status !== "open") throw new ApiError("conflict", "There is no open invoice on this job; it goes out when the job reaches Ready for pickup.");
     const owed = amountOwed(m, input.purpose);
     if (input.amountCents > owed) {

@@ -29,6 +29,18 @@ export const NO_MONEY: JobMoney = { checksOn: false, quoteStatus: null, depositA
 /** Still owed: the price less what was received or put on account. */
 export const balanceDueCents = (m: JobMoney): number => m.priceCents - m.receivedCents - m.onAccountCents;
 
+/**
+ * The invoice bills other than the work now approved: a change order was approved (or replaced)
+ * after the invoice was made. An invoice's total is fixed when it is made, so it is voided and made
+ * again; until then it asks no payment and the job does not leave.
+ */
+export const invoiceOutOfDate = (m: JobMoney): boolean => m.invoice !== null && m.invoice.totalCents !== m.priceCents;
+
+/** What the office and the customer read about an out-of-date invoice. */
+export function outOfDateWords(invoice: { number: string; totalCents: number }, priceCents: number): string {
+  return `Invoice ${invoice.number} bills ${formatCents(invoice.totalCents)}, but the approved work is now ${formatCents(priceCents)} after a change order`;
+}
+
 export const depositOwedCents = (m: JobMoney): number => (m.quoteStatus === "approved" ? Math.max(0, m.depositAskedCents - m.depositReceivedCents) : 0);
 
 /** What the job needs before work starts (into Fabricate, or into Install for install-only work). */
@@ -53,6 +65,7 @@ export function moneyBeforeWorkUnmet(m: JobMoney): string[] {
 export function moneyBeforeDeliveryUnmet(m: JobMoney): string[] {
   if (!m.checksOn) return [];
   if (!m.invoice) return m.priceCents > 0 ? ["Invoice: none yet; it goes out when the job reaches Ready for pickup."] : ["Invoice: no approved quote to invoice; make and send a quote first."];
+  if (invoiceOutOfDate(m)) return [`${outOfDateWords(m.invoice, m.priceCents)}: the owner voids it under Money, then make the new invoice there.`];
   if (m.invoice.status === "paid" || m.invoice.status === "on_account") return [];
   const due = balanceDueCents(m);
   return due > 0 ? [`Invoice ${m.invoice.number}: balance due ${formatCents(due)}; the customer pays on the status link, or record a payment under Money.`] : [];
@@ -61,6 +74,7 @@ export function moneyBeforeDeliveryUnmet(m: JobMoney): string[] {
 /** The money state in words, for the card and the job page ("Deposit paid", "Balance due $1,234.00"). */
 export function moneyWords(m: JobMoney): string | null {
   if (m.invoice) {
+    if (invoiceOutOfDate(m)) return "Invoice out of date";
     if (m.invoice.status === "on_account") return "Invoice on account";
     const due = balanceDueCents(m);
     if (m.invoice.status === "paid" || due <= 0) return "Paid in full";

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import * as checkoutRoute from "@/app/(public)/status/[token]/checkout/route";
 import * as answerRoute from "@/app/(public)/status/[token]/quote/route";
 import * as invoiceRoute from "@/app/api/jobs/[id]/invoice/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
@@ -8,6 +9,7 @@ import * as voidRoute from "@/app/api/invoices/[id]/void/route";
 import * as sendRoute from "@/app/api/quotes/[id]/send/route";
 import * as moneyChecksRoute from "@/app/api/shop-settings/money-checks/route";
 import type { Stage } from "@/db/schema";
+import { customerPayment } from "@/server/money/customer-payment";
 import { issueStatusLink } from "@/server/status/links";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
@@ -162,6 +164,55 @@ describe("the invoice and Delivered", () => {
     expect((await pay(p.officeCookie, job.id, { purpose: "invoice", method: "check", amountCents: 50_000, reference: "Check 3310" })).status).toBe(201);
     expect((await db().selectFrom("invoice").select("status").where("id", "=", inv.id).executeTakeFirstOrThrow()).status).toBe("paid");
     // Delivered asks only its own need (the money), which is met.
+    expect((await move(p.officeCookie, job.id, "delivered")).status).toBe(200);
+  });
+
+  it("a change order approved after the invoice was paid holds the truck until the invoice is made again and paid", async () => {
+    const p = await people();
+    const { job, token, quoteId } = await approvedJob(p);
+    expect((await answerRoute.POST(request(`/status/${token}/quote`, { body: { decision: "approve", quoteId, name: "Dana Reyes", acceptTerms: true } }), params({ token }))).status).toBe(200);
+    expect((await pay(p.officeCookie, job.id, { purpose: "deposit", method: "check", amountCents: 71_650, reference: "Check 4100" })).status).toBe(201);
+    // Records are not the subject: the owner moves it to Ready with a reason, which makes the invoice.
+    expect((await move(p.ownerCookie, job.id, "ready", "Built and signed off on paper")).status).toBe(200);
+    const first = await db().selectFrom("invoice").select(["id", "number", "total_cents"]).where("job_id", "=", job.id).executeTakeFirstOrThrow();
+    expect(first.total_cents).toBe(143_300);
+    expect((await pay(p.officeCookie, job.id, { purpose: "invoice", method: "check", amountCents: 71_650, reference: "Check 4101" })).status).toBe(201);
+
+    // Then two work lights at $80.00, taxable: 160.00 + 8.25 % (13.20) = 173.20; the work is now 1,433.00 + 173.20 = 1,606.20.
+    const co = await jobQuotes.POST(
+      request(`/api/jobs/${job.id}/quotes`, { cookie: p.officeCookie, body: { kind: "change_order", lines: [{ kind: "part", description: "LED work light", quantity: 2, unitPriceCents: 8_000, taxable: true }] } }),
+      params({ id: String(job.id) }),
+    );
+    expect(co.status).toBe(201);
+    const coId = (await readBody(co)).quote.id as number;
+    expect((await sendRoute.POST(request(`/api/quotes/${coId}/send`, { cookie: p.officeCookie, body: {} }), params({ id: String(coId) }))).status).toBe(200);
+    expect((await answerRoute.POST(request(`/status/${token}/quote`, { body: { decision: "approve", quoteId: coId, name: "Dana Reyes", acceptTerms: true } }), params({ token }))).status).toBe(200);
+
+    const held = await move(p.officeCookie, job.id, "delivered");
+    expect(held.status).toBe(422);
+    expect((await readBody(held)).error.details.unmet).toEqual([
+      `Into Delivered: Invoice ${first.number} bills $1,433.00, but the approved work is now $1,606.20 after a change order: the owner voids it under Money, then make the new invoice there.`,
+    ]);
+    // No payment is taken against the old invoice, at the counter or online, and the customer is told why.
+    const counter = await pay(p.officeCookie, job.id, { purpose: "invoice", method: "cash", amountCents: 17_320, reference: "" });
+    expect(counter.status).toBe(409);
+    expect((await readBody(counter)).error.message).toBe(`Invoice ${first.number} bills $1,433.00, but the approved work is now $1,606.20 after a change order. The owner voids it and a new one is made before payment is taken against it.`);
+    const online = await checkoutRoute.POST(request(`/status/${token}/checkout`, { body: { purpose: "invoice" } }), params({ token }));
+    expect(online.status).toBe(409);
+    expect((await readBody(online)).error.message).toBe(`The shop is making invoice ${first.number} again with your approved change on it; the new invoice comes by e-mail. Nothing was charged.`);
+    expect((await customerPayment(db(), job.id))?.invoice).toMatchObject({ number: first.number, outOfDate: true });
+    expect(await db().selectFrom("payment").select("amount_cents").where("job_id", "=", job.id).execute()).toHaveLength(2);
+
+    // The owner voids it, the office makes the new one: it bills the change, and only the change is owed.
+    expect((await voidRoute.POST(request(`/api/invoices/${first.id}/void`, { cookie: p.ownerCookie, body: { reason: "Work lights approved after invoicing" } }), params({ id: String(first.id) }))).status).toBe(200);
+    expect((await invoiceRoute.POST(request(`/api/jobs/${job.id}/invoice`, { cookie: p.officeCookie, body: {} }), params({ id: String(job.id) }))).status).toBe(201);
+    const second = await db().selectFrom("invoice").select(["number", "status", "total_cents"]).where("job_id", "=", job.id).where("status", "!=", "void").executeTakeFirstOrThrow();
+    expect(second).toMatchObject({ status: "open", total_cents: 160_620 });
+    expect((await customerPayment(db(), job.id))?.invoice).toMatchObject({ number: second.number, outOfDate: false, balanceCents: 17_320 });
+    expect((await readBody(await move(p.officeCookie, job.id, "delivered"))).error.details.unmet).toEqual([
+      `Into Delivered: Invoice ${second.number}: balance due $173.20; the customer pays on the status link, or record a payment under Money.`,
+    ]);
+    expect((await pay(p.officeCookie, job.id, { purpose: "invoice", method: "cash", amountCents: 17_320, reference: "" })).status).toBe(201);
     expect((await move(p.officeCookie, job.id, "delivered")).status).toBe(200);
   });
 

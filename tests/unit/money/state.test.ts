@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { checkMove, NO_RECORDS, nextGateState } from "@/server/jobs/gates";
-import { balanceDueCents, type JobMoney, moneyBeforeDeliveryUnmet, moneyBeforeWorkUnmet, moneyWords, NO_MONEY } from "@/server/money/state";
+import { balanceDueCents, invoiceOutOfDate, type JobMoney, moneyBeforeDeliveryUnmet, moneyBeforeWorkUnmet, moneyWords, NO_MONEY } from "@/server/money/state";
 
 const on = (m: Partial<JobMoney>): JobMoney => ({ ...NO_MONEY, checksOn: true, ...m });
 // $2,111.84 approved, half of it ($1,055.92) asked as the deposit.
@@ -43,6 +43,24 @@ describe("the money gates on a move", () => {
     expect(moneyBeforeDeliveryUnmet({ ...open, invoice: { ...open.invoice, status: "on_account" } })).toEqual([]);
     expect(moneyBeforeDeliveryUnmet({ ...open, receivedCents: 211_184, invoice: { ...open.invoice, status: "paid" } })).toEqual([]);
     expect(moneyBeforeDeliveryUnmet(depositPaid)[0]).toMatch(/none yet; it goes out when the job reaches Ready for pickup/);
+  });
+  it("a change order approved after the invoice holds the truck until the invoice is made again", () => {
+    // The invoice billed $2,111.84 and was paid in full; then a $350.00 change order was approved:
+    // the work is now $2,461.84, so "paid" no longer means nothing is owed.
+    const paid = { ...depositPaid, receivedCents: 211_184, invoice: { number: "INV-26-0001", status: "paid" as const, totalCents: 211_184 } };
+    const changed = { ...paid, priceCents: 211_184 + 35_000 };
+    expect(invoiceOutOfDate(paid)).toBe(false);
+    expect(invoiceOutOfDate(changed)).toBe(true);
+    expect(checkMove("ready", "delivered", "fabrication", withRecords(changed)).unmet).toEqual([
+      "Into Delivered: Invoice INV-26-0001 bills $2,111.84, but the approved work is now $2,461.84 after a change order: the owner voids it under Money, then make the new invoice there.",
+    ]);
+    expect(moneyWords(changed)).toBe("Invoice out of date");
+    // A change order replaced by a smaller one leaves the invoice billing too much: the same hold.
+    expect(invoiceOutOfDate({ ...paid, priceCents: 200_000 })).toBe(true);
+    // On account does not excuse it either: the account would carry the wrong figure.
+    expect(moneyBeforeDeliveryUnmet({ ...changed, invoice: { ...changed.invoice, status: "on_account" } })[0]).toMatch(/^Invoice INV-26-0001 bills \$2,111\.84/);
+    // The shop's money checks off: the truck may go, as with every money check.
+    expect(moneyBeforeDeliveryUnmet({ ...changed, checksOn: false })).toEqual([]);
   });
   it("the card looks past Fabricate and Delivered when the shop's money checks are off", () => {
     expect(nextGateState("queued", "fabrication", withRecords(approved))).toEqual({ gate: "fabricate", unmet: [expect.stringMatching(/Deposit/)] });

@@ -86,7 +86,11 @@ export function PaySection({ token, payment, returned }: { token: string; paymen
             <dt className="text-lg font-bold">Balance due</dt>
             <dd className="text-right text-lg font-bold">{formatCents(payment.invoice.balanceCents)}</dd>
           </dl>
-          {payment.invoice.status === "open" ? (
+          {payment.invoice.outOfDate ? (
+            <p className="mt-2 rounded-md bg-warn-100 px-3 py-2 font-semibold text-warn-700" data-testid="invoice-out-of-date">
+              You approved a change after this invoice was made. The shop is making a new invoice with the change on it; it comes by e-mail, and you pay that one.
+            </p>
+          ) : payment.invoice.status === "open" ? (
             payButton("invoice", payment.invoice.balanceCents, "Pay the balance")
           ) : (
             <p className="mt-2 rounded-md bg-ok-100 px-3 py-2 font-semibold text-ok-700">

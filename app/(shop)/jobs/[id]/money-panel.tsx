@@ -20,6 +20,8 @@ export function MoneyPanel(props: {
   role: Role;
   stage: Stage;
   words: string | null;
+  /** Why the live invoice no longer bills the approved work, when it does not. */
+  outOfDate: string | null;
   checksOn: boolean;
   owed: { deposit: number; invoice: number };
   payments: PaymentLine[];
@@ -110,8 +112,14 @@ export function MoneyPanel(props: {
             <dt className="font-bold">Balance due</dt>
             <dd className="text-right font-bold">{formatCents(Math.max(0, live.balanceCents))}</dd>
           </dl>
+          {props.outOfDate && (
+            <p className="mt-2 rounded bg-warn-100 px-2 py-1 text-sm font-semibold text-warn-700" data-testid="invoice-out-of-date">
+              ⚑ {props.outOfDate}. It takes no payment and the job cannot be delivered until it is made again:{" "}
+              {props.role === "owner" ? "void it below, then make the new invoice." : "ask the owner to void it, then make the new invoice here."}
+            </p>
+          )}
           {props.role === "owner" && (
-            <details className="mt-2">
+            <details className="mt-2" open={props.outOfDate !== null}>
               <summary className="flex min-h-11 cursor-pointer items-center text-sm font-semibold text-bay-700 underline">Void this invoice</summary>
               <form onSubmit={(e) => void voidInvoice(e, live)} className="mt-2 space-y-2" noValidate>
                 <label htmlFor="void-reason" className="block font-semibold">

@@ -6,7 +6,7 @@ import type { JobDetail } from "@/server/jobs/queries";
 import { jobInvoices } from "@/server/money/invoices";
 import { loadJobMoney } from "@/server/money/job-money";
 import { amountOwed, listPayments } from "@/server/money/payments";
-import { moneyWords } from "@/server/money/state";
+import { invoiceOutOfDate, moneyWords, outOfDateWords } from "@/server/money/state";
 import { MoneyPanel } from "./money-panel";
 
 /** What the customer owes and paid: the state in words, the invoice, the payments, and the counter's form. */
@@ -23,6 +23,7 @@ export async function MoneySection({ job, user, timeZone }: { job: JobDetail; us
         role={user.role}
         stage={job.stage}
         words={moneyWords(money)}
+        outOfDate={money.invoice && invoiceOutOfDate(money) ? outOfDateWords(money.invoice, money.priceCents) : null}
         checksOn={money.checksOn}
         owed={{ deposit: amountOwed(money, "deposit"), invoice: amountOwed(money, "invoice") }}
         payments={payments}
