@@ -8,12 +8,16 @@ const recordId = (message: string) => z.number({ error: message }).int({ error: 
 const text = (what: string, max: number) =>
   z.string({ error: `${what} is text.` }).trim().max(max, { error: `Keep ${what.toLowerCase()} to ${max} characters.` });
 
+// The API carries cents, but the person types dollars in the form ("Cost of one ($)"), so a
+// refusal of what they typed speaks of dollars and cents, never of whole cents.
+export const DOLLARS_AND_CENTS = "Type dollars and cents, such as 48.75.";
+
 // Up to $1,000,000 for one bought-in item, in cents: anything more is a slip of the finger.
 export const MAX_UNIT_COST_CENTS = 100_000_000;
 const cents = (what: string) =>
   z
-    .number({ error: `Enter ${what} in cents, as a whole number.` })
-    .int({ error: `Enter ${what} in whole cents.` })
+    .number({ error: DOLLARS_AND_CENTS })
+    .int({ error: DOLLARS_AND_CENTS })
     .min(0, { error: `${what[0].toUpperCase()}${what.slice(1)} cannot be negative.` })
     .max(MAX_UNIT_COST_CENTS, { error: `${what[0].toUpperCase()}${what.slice(1)} is at most $1,000,000.00.` });
 

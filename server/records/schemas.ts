@@ -3,6 +3,7 @@ import { calendarDate } from "@/server/http/calendar-date";
 import { expectedEndPressurePsig, SEA_LEVEL_PSIA } from "./leak-test";
 import { GLOSS_LEVELS, PART_KINDS, PART_MATERIALS, PART_SHAPES, type PartKind } from "./labels";
 import { type LeakTestProcedure, PROCEDURE_LIMITS } from "./procedure";
+import { DOLLARS_AND_CENTS } from "@/server/parts/schemas";
 import { INDICATOR_INPUTS, INDICATOR_SOURCES, SIGN_OFF_CHECK_KEYS, type SignOffCheckKey } from "./sign-off";
 
 // The lists, labels and kind defaults need no zod, so the forms in the browser import them from ./labels.
@@ -140,8 +141,8 @@ const recordId = (message: string) =>
 // What a coater charges for a run, in cents: up to $100,000; anything more is a slip of the finger.
 export const MAX_RUN_PRICE_CENTS = 10_000_000;
 const runPriceCents = z
-  .number({ error: "Enter the coater's price in cents, as a whole number." })
-  .int({ error: "Enter the coater's price in whole cents." })
+  .number({ error: DOLLARS_AND_CENTS })
+  .int({ error: DOLLARS_AND_CENTS })
   .min(0, { error: "The coater's price cannot be negative." })
   .max(MAX_RUN_PRICE_CENTS, { error: "The coater's price is at most $100,000.00 for a run." });
 

@@ -7,6 +7,7 @@ import * as boughtParts from "@/app/api/jobs/[id]/bought-parts/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as purchaseOrderItem from "@/app/api/purchase-orders/[id]/route";
 import * as purchaseOrders from "@/app/api/purchase-orders/route";
+import * as labourRate from "@/app/api/shop-settings/labour-rate/route";
 import type { Role, Stage } from "@/db/schema";
 import { shopToday } from "@/server/records/turnaround";
 import { useFreshDatabase } from "../support/db";
@@ -84,6 +85,22 @@ describe("bought-in parts on a job", () => {
       expect(res.status, JSON.stringify(body)).toBe(400);
       expect(Object.keys((await readBody(res)).error.details.fields)).toContain(field);
     }
+    expect(await db().selectFrom("bought_part").select("id").where("job_id", "=", job.id).execute()).toEqual([]);
+  });
+
+  it("a cost typed with letters in the dollars field is refused in dollars and cents, the words the form's label uses", async () => {
+    const office = await as("office");
+    const job = await makeJob(db(), { stage: "fabricate" });
+    // The form sends what it cannot read as dollars as the text typed ("48.7five").
+    for (const costCents of ["48.7five", 4875.5]) {
+      const res = await addBought(office.cookie, job.id, { kind: "pto", description: "PTO", quantity: 1, costCents });
+      expect(res.status).toBe(400);
+      const [message] = (await readBody(res)).error.details.fields.costCents;
+      expect(message).toBe("Type dollars and cents, such as 48.75.");
+    }
+    const rate = await labourRate.PATCH(request("/api/shop-settings/labour-rate", { method: "PATCH", cookie: (await as("owner")).cookie, body: { labourRateCents: "95.oo" } }));
+    expect(rate.status).toBe(400);
+    expect((await readBody(rate)).error.details.fields.labourRateCents).toEqual(["Type dollars and cents, such as 48.75."]);
     expect(await db().selectFrom("bought_part").select("id").where("job_id", "=", job.id).execute()).toEqual([]);
   });
 

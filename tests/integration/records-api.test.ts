@@ -362,6 +362,9 @@ describe("vendors and coating runs", () => {
 
     const bad = await send(office.cookie, runBody(vendor.id, [tank.id], { priceCents: 12.5 }));
     expect(await fields(bad)).toEqual(["priceCents"]);
+    // The price field is in dollars: a price typed with letters is refused in the field's words.
+    const lettered = await send(office.cookie, runBody(vendor.id, [tank.id], { priceCents: "48.7five" }));
+    expect((await readBody(lettered)).error.details.fields.priceCents).toEqual(["Type dollars and cents, such as 48.75."]);
     const sent = await send(office.cookie, runBody(vendor.id, [tank.id, second.id, otherTank.id], { priceCents: 30_001 }));
     expect(sent.status).toBe(201);
     const run = (await readBody(sent)).run;
