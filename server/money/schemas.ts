@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { KIT_USES, LINE_KINDS } from "@/db/tables/money";
-import { MAX_CENTS, MAX_QUANTITY_MILLI, toThousandths } from "./totals";
+import { MAX_CENTS, MAX_QUANTITY_MILLI, MILLI, QUANTITY_ABOVE_ZERO, QUANTITY_LARGEST, QUANTITY_THREE_DECIMALS, toThousandths } from "./totals";
 
 const cents = (label: string) =>
   z
@@ -21,9 +21,12 @@ export const lineKindSchema = z.enum(LINE_KINDS, { error: `Kind must be one of: 
 /** A quantity typed by a person: more than 0, at most three decimals (a minute is 0.017 h, close enough). */
 export const quantitySchema = z
   .number({ error: "Quantity must be a number (hours may be fractional: 2.5)." })
-  .gt(0, { error: "Quantity must be more than 0." })
-  .lte(MAX_QUANTITY_MILLI / 1000, { error: "Quantity is at most 100,000." })
-  .refine((q) => toThousandths(q) !== null, { error: "Quantity has at most three decimals (2.125, not 2.1254)." });
+  .superRefine((q, ctx) => {
+    // One message, in the order a person fixes them (see quantityProblem): a negative is told to be
+    // more than 0, not that it has too many decimals.
+    const problem = q <= 0 ? QUANTITY_ABOVE_ZERO : q > MAX_QUANTITY_MILLI / MILLI ? QUANTITY_LARGEST : toThousandths(q) === null ? QUANTITY_THREE_DECIMALS : null;
+    if (problem) ctx.addIssue({ code: "custom", message: problem });
+  });
 
 export const quoteLineInputSchema = z.strictObject(
   {

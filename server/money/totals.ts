@@ -33,6 +33,27 @@ export function toThousandths(value: number): number | null {
   return Number.isSafeInteger(scaled) ? scaled : null;
 }
 
+/** The words for a quantity that is not more than 0, in the form beside the field and from the API. */
+export const QUANTITY_ABOVE_ZERO = "The quantity must be more than 0.";
+export const QUANTITY_THREE_DECIMALS = "At most three decimals (2.125, not 2.1254).";
+export const QUANTITY_LARGEST = "The quantity is at most 100,000.";
+
+/**
+ * What is wrong with a line's quantity as typed, or null when it is a quantity the shop can price.
+ * Checked in the order a person fixes them: a number at all, then more than 0, then the size, and
+ * only then the decimals, so "-1" is told it must be more than 0, not that it has too many decimals.
+ */
+export function quantityProblem(typed: string): string | null {
+  const text = typed.trim();
+  if (text === "") return "Type the quantity, such as 1 or 2.5.";
+  const value = Number(text);
+  if (!Number.isFinite(value)) return "Type the quantity as a number, such as 1 or 2.5.";
+  if (value <= 0) return QUANTITY_ABOVE_ZERO;
+  if (value > MAX_QUANTITY_MILLI / MILLI) return QUANTITY_LARGEST;
+  if (toThousandths(value) === null) return QUANTITY_THREE_DECIMALS;
+  return null;
+}
+
 export const fromThousandths = (milli: number): number => milli / 1000;
 
 /** A line's amount: quantity × unit price, rounded half-up to the cent (common practice, no published source). */

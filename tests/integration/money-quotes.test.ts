@@ -58,6 +58,9 @@ describe("quotes", () => {
     const bad = await postQuote(office.cookie, job.id, { lines: [{ ...LINES[0], quantity: 1.0005 }] });
     expect(bad.status).toBe(400);
     expect((await readBody(bad)).error.details.fields["lines.0.quantity"][0]).toMatch(/three decimals/);
+    const negative = await postQuote(office.cookie, job.id, { lines: [LINES[0], LINES[1], { ...LINES[2], quantity: -1 }] });
+    expect(negative.status).toBe(400);
+    expect((await readBody(negative)).error.details.fields).toEqual({ "lines.2.quantity": ["The quantity must be more than 0."] });
     const float = await postQuote(office.cookie, job.id, { lines: [{ ...LINES[0], unitPriceCents: 12.5 }] });
     expect((await readBody(float)).error.details.fields["lines.0.unitPriceCents"][0]).toMatch(/whole cents/);
     expect(await db().selectFrom("quote").select("id").where("job_id", "=", job.id).execute()).toEqual([]);

@@ -1,7 +1,9 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { quantitySchema } from "@/server/money/schemas";
 import {
   balanceCents,
+  quantityProblem,
   depositCents,
   divideHalfUp,
   documentTotals,
@@ -227,5 +229,26 @@ describe("typed dollars", () => {
     expect(dollarsToCents("1250,")).toBeNull();
     expect(centsToDollarsText(148_905)).toBe("1489.05");
     expect(centsToDollarsText(7)).toBe("0.07");
+  });
+});
+
+describe("a typed quote quantity", () => {
+  it("a negative or zero quantity is told to be more than 0, not that it has too many decimals", () => {
+    expect(quantityProblem("-1")).toBe("The quantity must be more than 0.");
+    expect(quantityProblem("0")).toBe("The quantity must be more than 0.");
+    expect(quantityProblem("-2.12345")).toBe("The quantity must be more than 0.");
+  });
+  it("names the other mistakes in the order they are fixed, and passes a quantity the shop can price", () => {
+    expect(quantityProblem("")).toBe("Type the quantity, such as 1 or 2.5.");
+    expect(quantityProblem("two")).toBe("Type the quantity as a number, such as 1 or 2.5.");
+    expect(quantityProblem("100001")).toBe("The quantity is at most 100,000.");
+    expect(quantityProblem("2.1254")).toBe("At most three decimals (2.125, not 2.1254).");
+    for (const ok of ["1", "2.5", " 6.125 ", "100000"]) expect(quantityProblem(ok)).toBeNull();
+  });
+  it("the API gives the same single message for a negative quantity", () => {
+    const parsed = quantitySchema.safeParse(-1);
+    expect(parsed.error?.issues.map((i) => i.message)).toEqual(["The quantity must be more than 0."]);
+    expect(quantitySchema.safeParse(1.0005).error?.issues.map((i) => i.message)).toEqual(["At most three decimals (2.125, not 2.1254)."]);
+    expect(quantitySchema.safeParse(2.5).success).toBe(true);
   });
 });

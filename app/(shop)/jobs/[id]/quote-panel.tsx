@@ -7,7 +7,7 @@ import { LINE_KINDS, type LineKind } from "@/db/tables/money";
 import { type DocumentFigures, figureRows } from "@/server/money/document";
 import type { PriceItem } from "@/server/money/price-list";
 import type { Quote } from "@/server/money/quotes";
-import { centsToDollarsText, documentTotals, dollarsToCents, formatCents, fromThousandths, agreedPriceCents, lineAmountCents, toThousandths } from "@/server/money/totals";
+import { centsToDollarsText, documentTotals, dollarsToCents, formatCents, fromThousandths, agreedPriceCents, lineAmountCents, quantityProblem, toThousandths } from "@/server/money/totals";
 import { formatShopTime } from "@/server/records/calendar";
 import { KIND_WORDS } from "../../prices/words";
 
@@ -107,7 +107,7 @@ function LineEditor({ lines, setLines, priceItems, taxMillipercent, fields }: { 
   const priced = lines.map((l) => {
     const q = toThousandths(Number(l.quantity));
     const c = dollarsToCents(l.price);
-    return { line: l, quantityMilli: l.quantity.trim() === "" ? null : q, cents: c };
+    return { line: l, quantityMilli: quantityProblem(l.quantity) === null ? q : null, cents: c };
   });
   const valid = priced.filter((p) => p.quantityMilli !== null && p.quantityMilli > 0 && p.cents !== null);
   const totals = documentTotals(
@@ -141,7 +141,7 @@ function LineEditor({ lines, setLines, priceItems, taxMillipercent, fields }: { 
                 <label className="block text-sm font-semibold">
                   Qty
                   <input className={inputClass} inputMode="decimal" value={line.quantity} aria-invalid={Boolean(err("quantity")) || (line.quantity !== "" && quantityMilli === null)} onChange={(e) => change(line.key, { quantity: e.target.value })} />
-                  {(err("quantity") || (line.quantity !== "" && quantityMilli === null)) && <span className="block font-medium text-stop-700">⚠ {err("quantity") ?? "At most three decimals."}</span>}
+                  {(err("quantity") || (line.quantity !== "" && quantityMilli === null)) && <span className="block font-medium text-stop-700">⚠ {err("quantity") ?? quantityProblem(line.quantity)}</span>}
                 </label>
                 <label className="block text-sm font-semibold">
                   Unit price ($)
@@ -246,9 +246,23 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
   }
 
   function payload() {
-    const bad = lines.findIndex((l) => dollarsToCents(l.price) === null);
-    if (bad >= 0) {
-      action.setFailure({ status: 400, code: "validation", message: `Line ${bad + 1}: write the unit price in dollars and cents, e.g. 125.00.`, fields: { [`lines.${bad}.unitPriceCents`]: ["Dollars and cents, e.g. 125.00."] } });
+    // Every line's typed figures are checked before sending; the banner names the first line to fix.
+    const fields: Record<string, string[]> = {};
+    const banner: string[] = [];
+    lines.forEach((l, i) => {
+      const quantity = quantityProblem(l.quantity);
+      if (quantity) {
+        fields[`lines.${i}.quantity`] = [quantity];
+        banner.push(`Line ${i + 1}: ${quantity[0].toLowerCase()}${quantity.slice(1)}`);
+      }
+      if (dollarsToCents(l.price) === null) {
+        fields[`lines.${i}.unitPriceCents`] = ["Dollars and cents, e.g. 125.00."];
+        banner.push(`Line ${i + 1}: write the unit price in dollars and cents, e.g. 125.00.`);
+      }
+    });
+    if (banner.length > 0) {
+      const more = banner.length - 1;
+      action.setFailure({ status: 400, code: "validation", message: `${banner[0]}${more > 0 ? ` ${more} more ${more > 1 ? "fields need" : "field needs"} fixing too.` : ""}`, fields });
       return null;
     }
     return lines.map((l) => ({
