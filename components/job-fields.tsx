@@ -1,9 +1,16 @@
 "use client";
 
+import { useState } from "react";
+import { pastDueWarning } from "@/server/jobs/due-date";
 import { Field, inputClass } from "./form";
 
-/** The kind of work (`scope`), due date, assignment and priority of a job: the same fields when opening and editing one. */
-export function JobPlanFields({ fields, techs, initial }: { fields: Record<string, string[]>; techs: { id: string; name: string }[]; initial?: { scope: string; dueOn: string | null; assignedTechId: string | null; priority: string } }) {
+/**
+ * The kind of work (`scope`), due date, assignment and priority of a job: the same fields when opening and editing one.
+ * Given the shop's today, a due date already past is said under the field before saving (it still saves).
+ */
+export function JobPlanFields({ fields, techs, initial, today }: { fields: Record<string, string[]>; techs: { id: string; name: string }[]; initial?: { scope: string; dueOn: string | null; assignedTechId: string | null; priority: string }; today?: string }) {
+  const [dueOn, setDueOn] = useState(initial?.dueOn ?? "");
+  const dueWarning = today ? pastDueWarning(dueOn, today) : null;
   return (
     <>
       <Field label="Work" name="scope" errors={fields.scope}>
@@ -15,7 +22,9 @@ export function JobPlanFields({ fields, techs, initial }: { fields: Record<strin
         )}
       </Field>
       <div className="grid gap-3 sm:grid-cols-3 lg:grid-cols-1">
-        <Field label="Due" name="dueOn" errors={fields.dueOn}>{(p) => <input {...p} type="date" defaultValue={initial?.dueOn ?? ""} className={inputClass} />}</Field>
+        <Field label="Due" name="dueOn" errors={fields.dueOn} hint={dueWarning ?? undefined} hintTone={dueWarning ? "warn" : undefined}>
+          {(p) => <input {...p} type="date" defaultValue={initial?.dueOn ?? ""} onChange={(e) => setDueOn(e.target.value)} className={inputClass} />}
+        </Field>
         <Field label="Assigned to" name="assignedTechId" errors={fields.assignedTechId}>
           {(p) => (
             <select {...p} defaultValue={initial?.assignedTechId ?? ""} className={inputClass}>

@@ -47,6 +47,17 @@ describe("creating and editing jobs", () => {
     expect((await jobs.POST(request("/api/jobs", { cookie: tech.cookie, body }))).status).toBe(403);
   });
 
+  it("a job entered late with a due date already past is opened, keeping the date (the form warns; the shop decides)", async () => {
+    await ensureShop(db());
+    const customer = await makeCustomer(db());
+    const truck = await makeTruck(db(), customer.id);
+    const { cookie } = await as("office");
+    const body = { customerId: customer.id, truckId: truck.id, scope: "install_only", description: "Hitch and lights", dueOn: "2020-01-06" };
+    const res = await jobs.POST(request("/api/jobs", { cookie, body }));
+    expect(res.status).toBe(201);
+    expect((await readBody(res)).job.dueOn).toBe("2020-01-06");
+  });
+
   it("refuses a truck of another customer and bad input with the field named, creating nothing", async () => {
     const { cookie } = await as("office");
     const a = await makeCustomer(db());

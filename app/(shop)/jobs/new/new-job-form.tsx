@@ -11,9 +11,11 @@ interface Props {
   trucks: { id: number; customerId: number; unitNumber: string; description: string }[];
   techs: { id: string; name: string }[];
   preset: { customerId?: number; truckId?: number };
+  /** The shop's today (its time zone), so a due date already past is said before saving. */
+  today: string;
 }
 
-export function NewJobForm({ customers, trucks, techs, preset }: Props) {
+export function NewJobForm({ customers, trucks, techs, preset, today }: Props) {
   const router = useRouter();
   const presetTruck = trucks.find((t) => t.id === preset.truckId);
   const [customerId, setCustomerId] = useState<number | "">(presetTruck?.customerId ?? preset.customerId ?? "");
@@ -65,7 +67,7 @@ export function NewJobForm({ customers, trucks, techs, preset }: Props) {
       <Field label="Work description" name="description" errors={form.fields.description} hint="For example: wet kit, 40 gal aluminum round reservoir between the rails">
         {(p) => <textarea {...p} rows={3} className={inputClass} />}
       </Field>
-      <JobPlanFields fields={form.fields} techs={techs} />
+      <JobPlanFields fields={form.fields} techs={techs} today={today} />
       <Field label="Notes (staff only)" name="notes" errors={form.fields.notes}>{(p) => <textarea {...p} rows={3} className={inputClass} />}</Field>
       <button type="submit" className={buttonClass.primary} disabled={form.pending}>{form.pending ? "Opening…" : "Open the job"}</button>
     </form>
