@@ -6,7 +6,7 @@ import { cachedUntilWrite } from "@/db/read-cache";
 import type { BoughtPartKind, BoughtPartState } from "@/db/tables/bought-parts";
 import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
-import { lineCents } from "./rules";
+import { distinctSuppliers, groupBySupplier, lineCents } from "./rules";
 
 export interface DeskLine {
   id: number;
@@ -43,11 +43,8 @@ export interface PartsDesk {
   suppliers: string[];
 }
 
-function bySupplier(lines: DeskLine[]) {
-  const groups = new Map<string, DeskLine[]>();
-  for (const l of lines) groups.set(l.supplier, [...(groups.get(l.supplier) ?? []), l]);
-  return [...groups.entries()].sort(([a], [b]) => (a === "" ? 1 : b === "" ? -1 : a.localeCompare(b))).map(([supplier, lines]) => ({ supplier, lines }));
-}
+// Suppliers are told apart without capitals or stray spaces (supplierKey): one group, one order.
+const bySupplier = (lines: DeskLine[]) => groupBySupplier(lines);
 
 /**
  * The shop's parts desk, kept until the shop writes anything (the reports' rule): the office opens
@@ -133,7 +130,7 @@ export async function buildPartsDesk(db: DB, today: string, timeZone: string): P
     overdue: ordered.filter((l) => l.overdue),
     receivedThisWeek,
     orders: orders.map((o) => ({ id: o.id, number: o.number, supplier: o.supplier, orderedOn: o.ordered_on, expectedOn: o.expected_on, lines: Number(o.lines ?? 0), open: Number(o.open ?? 0) })),
-    suppliers: [...new Set([...suppliers.map((s) => s.supplier), ...lines.map((l) => l.supplier).filter(Boolean)])].sort((a, b) => a.localeCompare(b)),
+    suppliers: distinctSuppliers([...suppliers.map((s) => s.supplier), ...[...lines].sort((a, b) => a.id - b.id).map((l) => l.supplier)]),
   };
 }
 

@@ -8,7 +8,7 @@ import { latestKitSpec } from "@/server/kit-spec/queries";
 import { shopToday } from "@/server/records/turnaround";
 import { shopSettings } from "@/server/shop/queries";
 import { type BoughtPartView, findBoughtPart } from "./queries";
-import { applyReceipt, boughtPartState, countOf, linesFromQuote } from "./rules";
+import { applyReceipt, boughtPartState, countOf, linesFromQuote, supplierKey } from "./rules";
 import type { BoughtPartInput, BoughtPartPatch, PurchaseOrderInput } from "./schemas";
 
 /** Who sees and sets what bought-in parts cost, and orders them. */
@@ -224,7 +224,8 @@ export async function createPurchaseOrder(db: DB, actor: StaffUser, input: Purch
     if (parts.length !== input.partIds.length) throw fieldError("partIds", "One of those bought-in parts is no longer on file; reload the parts desk and choose again.");
     const taken = parts.filter((p) => p.purchase_order_id !== null || p.state !== "needed");
     if (taken.length) throw fieldError("partIds", `Already ordered: ${taken.map((p) => `${p.description} (${p.work_order})`).join(", ")}. Choose lines still to order.`);
-    const other = parts.filter((p) => p.supplier !== "" && p.supplier.toLowerCase() !== input.supplier.toLowerCase());
+    // The same supplier however its name was capitalized or spaced (supplierKey).
+    const other = parts.filter((p) => supplierKey(p.supplier) !== "" && supplierKey(p.supplier) !== supplierKey(input.supplier));
     if (other.length) throw fieldError("partIds", `${other.map((p) => `${p.description} (${p.work_order}) is listed with ${p.supplier}`).join("; ")}. Order it on that supplier's purchase order, or change its supplier first.`);
     const seqRow = await trx.selectFrom("shop").select("next_purchase_order").where("id", "=", 1).executeTakeFirst();
     const seq = seqRow?.next_purchase_order ?? 1;

@@ -4,7 +4,7 @@ import type { BoughtPartKind, BoughtPartState } from "@/db/tables/bought-parts";
 import { showStoredDate } from "@/server/http/calendar-date";
 import { latestKitSpec } from "@/server/kit-spec/queries";
 import { type FitFlag, type FitSpec, fitFlags } from "./fit";
-import { lineCents, orderTotal } from "./rules";
+import { distinctSuppliers, lineCents, orderTotal } from "./rules";
 
 export interface BoughtPartView {
   id: number;
@@ -193,4 +193,25 @@ export async function findPurchaseOrder(db: DB, id: number): Promise<PurchaseOrd
     totalCents: total.totalCents,
     unpriced: total.unpriced,
   };
+}
+
+/**
+ * The suppliers the shop already uses, one name each as first written (see supplierKey): those of
+ * its purchase orders, then those of lines still to order or on order. Read by the state index,
+ * so the shop's delivered history is not read.
+ */
+export async function knownSuppliers(db: DB): Promise<string[]> {
+  const [orders, open] = await Promise.all([
+    db.selectFrom("purchase_order").select("supplier").distinct().orderBy("supplier").limit(200).execute(),
+    db
+      .selectFrom("bought_part")
+      .select((eb) => ["supplier", eb.fn.min("id").as("first")])
+      .where("state", "in", ["needed", "ordered"])
+      .where("supplier", "<>", "")
+      .groupBy("supplier")
+      .orderBy("first")
+      .limit(200)
+      .execute(),
+  ]);
+  return distinctSuppliers([...orders.map((o) => o.supplier), ...open.map((o) => o.supplier)]);
 }

@@ -211,3 +211,42 @@ export function linesFromQuote(quoteLines: readonly QuotePartLine[], listed: rea
   }
   return out;
 }
+
+/**
+ * How suppliers are told apart: without capitals and without surrounding or doubled spaces, so
+ * "Ketterby Fluid Power" and " ketterby  fluid power" are one supplier. Only for matching; the
+ * name as first written is what is shown.
+ */
+export function supplierKey(name: string): string {
+  return name.trim().replace(/\s+/g, " ").toLowerCase();
+}
+
+/**
+ * Lines grouped by supplier (see supplierKey), each group shown under the name as first written
+ * (the line with the lowest id); suppliers A–Z, the group with no supplier yet last.
+ */
+export function groupBySupplier<T extends { id: number; supplier: string }>(lines: readonly T[]): { supplier: string; lines: T[] }[] {
+  const groups = new Map<string, { first: T; lines: T[] }>();
+  for (const l of lines) {
+    const key = supplierKey(l.supplier);
+    const group = groups.get(key);
+    if (!group) groups.set(key, { first: l, lines: [l] });
+    else {
+      group.lines.push(l);
+      if (l.id < group.first.id) group.first = l;
+    }
+  }
+  return [...groups.entries()]
+    .sort(([a], [b]) => (a === "" ? 1 : b === "" ? -1 : a.localeCompare(b)))
+    .map(([key, g]) => ({ supplier: key === "" ? "" : g.first.supplier.trim().replace(/\s+/g, " "), lines: g.lines }));
+}
+
+/** Known supplier names, one per supplier (the first of each in the order given), A–Z; blanks left out. */
+export function distinctSuppliers(names: readonly string[]): string[] {
+  const byKey = new Map<string, string>();
+  for (const name of names) {
+    const key = supplierKey(name);
+    if (key !== "" && !byKey.has(key)) byKey.set(key, name.trim().replace(/\s+/g, " "));
+  }
+  return [...byKey.values()].sort((a, b) => a.localeCompare(b));
+}

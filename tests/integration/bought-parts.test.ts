@@ -6,6 +6,7 @@ import * as fromQuoteRoute from "@/app/api/jobs/[id]/bought-parts/from-quote/rou
 import * as boughtParts from "@/app/api/jobs/[id]/bought-parts/route";
 import * as moves from "@/app/api/jobs/[id]/moves/route";
 import * as purchaseOrderItem from "@/app/api/purchase-orders/[id]/route";
+import * as partsDesk from "@/app/api/parts-desk/route";
 import * as purchaseOrders from "@/app/api/purchase-orders/route";
 import * as labourRate from "@/app/api/shop-settings/labour-rate/route";
 import type { Role, Stage } from "@/db/schema";
@@ -284,5 +285,24 @@ describe("List from the quote", () => {
     expect((await fromQuote(office.cookie, 99_999)).status).toBe(404);
     expect((await fromQuote(office.cookie, "abc")).status).toBe(400);
     expect((await fromQuote(office.cookie, job.id, { extra: 1 })).status).toBe(400);
+  });
+});
+
+describe("suppliers told apart without capitals or spaces", () => {
+  it("lines whose suppliers differ only in capitals or spaces are one group on the parts desk and join one purchase order", async () => {
+    const office = await as("office");
+    const jobA = await makeJob(db(), { stage: "fabricate" });
+    const jobB = await makeJob(db(), { stage: "fabricate" });
+    const a = (await readBody(await addBought(office.cookie, jobA.id, { kind: "pump", description: "Gear pump for A", quantity: 1, supplier: "Kestrow Fluid Works" }))).part;
+    const b = (await readBody(await addBought(office.cookie, jobB.id, { kind: "hose", description: "Hose for B", quantity: 2, supplier: "  kestrow  fluid works " }))).part;
+    const desk = await readBody(await partsDesk.GET(request("/api/parts-desk", { cookie: office.cookie })));
+    const groups = desk.toOrder.filter((g: { lines: { id: number }[] }) => g.lines.some((l) => l.id === a.id || l.id === b.id));
+    expect(groups.map((g: { supplier: string; lines: { id: number }[] }) => [g.supplier, g.lines.map((l) => l.id).sort()])).toEqual([["Kestrow Fluid Works", [a.id, b.id].sort()]]);
+    expect(desk.suppliers.filter((s: string) => /kestrow/i.test(s))).toEqual(["Kestrow Fluid Works"]);
+
+    const res = await purchaseOrders.POST(request("/api/purchase-orders", { cookie: office.cookie, body: { supplier: "Kestrow Fluid Works", partIds: [a.id, b.id], orderedOn: today(), expectedOn: null } }));
+    expect(res.status).toBe(201);
+    const po = (await readBody(res)).purchaseOrder;
+    expect(po.lines.map((l: { supplier: string }) => l.supplier)).toEqual(["Kestrow Fluid Works", "Kestrow Fluid Works"]);
   });
 });

@@ -20,6 +20,7 @@ import { readStatusPage } from "@/server/status/queries";
 import { generateShop } from "@/scripts/bench-shop";
 import { jobCostsReport } from "@/server/labour/report";
 import { buildPartsDesk } from "@/server/parts/desk";
+import { knownSuppliers } from "@/server/parts/queries";
 import { loadOverview } from "@/server/reports/overview";
 import { coatersReport, reportCalendar, stageTimesReport, throughputReport, workloadReport } from "@/server/reports/queries";
 import { useFreshDatabase } from "../support/db";
@@ -88,7 +89,7 @@ describe("the hot paths use indexes on a shop with a long history", () => {
       await check(`job page ${id}`, async () => {
         const found = (await findJob(db, id))!;
         await Promise.all([stageEvents(db, id), listTechs(db, found.assignedTechId), shopSettings(db), listParts(db, { jobId: id }), listLeakTests(db, { jobId: id }), findSignOff(db, id), recordsSettings(db)]);
-        await Promise.all([latestKitSpec(db, id), kitSpecStartingInputs(db, id), listJobPhotos(db, id), jobParts(db, id)]);
+        await Promise.all([latestKitSpec(db, id), kitSpecStartingInputs(db, id), listJobPhotos(db, id), jobParts(db, id), knownSuppliers(db)]);
         await Promise.all([listMessages(db, id), jobEmailSettings(db, id), listStatusLinks(db, id), notifySettings(db)]);
         await predictJob(db, found);
       });

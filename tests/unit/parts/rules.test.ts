@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { fitFlags } from "@/server/parts/fit";
-import { applyReceipt, boughtPartState, firstLinesOf, orderTotal, supplierSummary, waitingWords } from "@/server/parts/rules";
+import { applyReceipt, boughtPartState, distinctSuppliers, firstLinesOf, groupBySupplier, orderTotal, supplierKey, supplierSummary, waitingWords } from "@/server/parts/rules";
 
 const line = (quantity: number, receivedQuantity = 0, ordered = true) => ({ quantity, receivedQuantity, ordered, installed: false });
 
@@ -107,5 +107,33 @@ describe("the parts desk's folded groups", () => {
       overdue: 2,
     });
     expect(supplierSummary([])).toEqual({ lines: 0, jobs: 0, amountCents: 0, unpriced: 0, nextExpectedOn: null, overdue: 0 });
+  });
+});
+
+describe("one supplier however its name is capitalized or spaced", () => {
+  it("matches names without capitals, surrounding or doubled spaces", () => {
+    expect(supplierKey("Ketterby Fluid Power")).toBe(supplierKey("ketterby fluid power"));
+    expect(supplierKey(" Ketterby  Fluid\tPower ")).toBe("ketterby fluid power");
+    expect(supplierKey("Ketterby Fluid Power")).not.toBe(supplierKey("Ketterby Fluid Power West"));
+    expect(supplierKey("   ")).toBe("");
+  });
+
+  it("groups the lines as one supplier under the name as first written, A–Z with no supplier last", () => {
+    const lines = [
+      { id: 7, supplier: "ketterby fluid power" },
+      { id: 3, supplier: "Ketterby Fluid Power" },
+      { id: 9, supplier: "" },
+      { id: 5, supplier: "Aldwin Hose " },
+      { id: 8, supplier: " KETTERBY  FLUID POWER" },
+    ];
+    expect(groupBySupplier(lines).map((g) => [g.supplier, g.lines.map((l) => l.id)])).toEqual([
+      ["Aldwin Hose", [5]],
+      ["Ketterby Fluid Power", [7, 3, 8]],
+      ["", [9]],
+    ]);
+  });
+
+  it("lists each known supplier once, as first written", () => {
+    expect(distinctSuppliers(["Ketterby Fluid Power", "ketterby fluid power", "", "Aldwin  Hose", "aldwin hose"])).toEqual(["Aldwin Hose", "Ketterby Fluid Power"]);
   });
 });

@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useId, useState } from "react";
 import { ApiRequestError, api, type ApiFailure } from "@/components/api";
 import { buttonClass, Field, FormActions, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import { IconCheck, IconClock, IconWarn } from "@/components/icons";
@@ -23,6 +23,7 @@ export function BoughtParts({
   hasKitSpec,
   hasApprovedQuote,
   timeZone,
+  suppliers,
 }: {
   jobId: number;
   parts: BoughtPartView[];
@@ -30,6 +31,8 @@ export function BoughtParts({
   hasKitSpec: boolean;
   hasApprovedQuote: boolean;
   timeZone: string;
+  /** Suppliers the shop already uses, offered as the supplier is typed. */
+  suppliers: string[];
 }) {
   const router = useRouter();
   const [panel, setPanel] = useState<Panel>(null);
@@ -122,13 +125,13 @@ export function BoughtParts({
                 )}
               </div>
               {panel?.mode === "receive" && panel.id === p.id && <ReceiveForm part={p} onDone={done} onCancel={() => setPanel(null)} />}
-              {panel?.mode === "edit" && panel.id === p.id && <BoughtPartForm jobId={jobId} part={p} canCost={canCost} onDone={done} onCancel={() => setPanel(null)} />}
+              {panel?.mode === "edit" && panel.id === p.id && <BoughtPartForm jobId={jobId} part={p} canCost={canCost} suppliers={suppliers} onDone={done} onCancel={() => setPanel(null)} />}
             </li>
           ))}
         </ul>
       )}
       {panel?.mode === "add" ? (
-        <BoughtPartForm jobId={jobId} canCost={canCost} onDone={done} onCancel={() => setPanel(null)} />
+        <BoughtPartForm jobId={jobId} canCost={canCost} suppliers={suppliers} onDone={done} onCancel={() => setPanel(null)} />
       ) : (
         <div className="flex flex-wrap gap-2 no-print">
           <button type="button" className={buttonClass.primary} onClick={() => setPanel({ mode: "add" })}>Add a bought-in part</button>
@@ -173,7 +176,8 @@ function ReceiveForm({ part, onDone, onCancel }: { part: BoughtPartView; onDone:
   );
 }
 
-function BoughtPartForm({ jobId, part, canCost, onDone, onCancel }: { jobId: number; part?: BoughtPartView; canCost: boolean; onDone: () => void; onCancel: () => void }) {
+function BoughtPartForm({ jobId, part, canCost, suppliers, onDone, onCancel }: { jobId: number; part?: BoughtPartView; canCost: boolean; suppliers: string[]; onDone: () => void; onCancel: () => void }) {
+  const supplierListId = useId();
   const [kind, setKind] = useState<BoughtPartKind>(part?.kind ?? "pto");
   const form = useApiForm(
     (v) => {
@@ -217,7 +221,12 @@ function BoughtPartForm({ jobId, part, canCost, onDone, onCancel }: { jobId: num
         {(p) => <input {...p} defaultValue={part?.partNumber} maxLength={80} autoComplete="off" className={inputClass} />}
       </Field>
       <Field label="Supplier" name="supplier" errors={f.supplier} hint={part?.purchaseOrder ? "Set by its purchase order." : undefined}>
-        {(p) => <input {...p} defaultValue={part?.supplier} maxLength={120} readOnly={Boolean(part?.purchaseOrder)} className={inputClass} />}
+        {(p) => (
+          <>
+            <input {...p} defaultValue={part?.supplier} list={supplierListId} maxLength={120} autoComplete="off" readOnly={Boolean(part?.purchaseOrder)} className={inputClass} />
+            <datalist id={supplierListId}>{suppliers.map((s) => <option key={s} value={s} />)}</datalist>
+          </>
+        )}
       </Field>
       {canCost && (
         <Field label="Cost of one ($)" name="cost" errors={f.costCents} hint="Leave empty until the supplier prices it.">
