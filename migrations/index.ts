@@ -16,6 +16,7 @@ import * as m0014b from "./0014b_coating_run_price";
 import * as m0015 from "./0015_payments";
 import * as m0016 from "./0016_email_attachments";
 import * as m0019 from "./0019_report_indexes";
+import * as m0023 from "./0023_soap_test_readings";
 
 /** Every migration, in order. Add new ones here: file providers do not work inside the bundle. */
 export const migrations: Record<string, Migration> = {
@@ -36,6 +37,7 @@ export const migrations: Record<string, Migration> = {
   "0015_payments": m0015,
   "0016_email_attachments": m0016,
   "0019_report_indexes": m0019,
+  "0023_soap_test_readings": m0023,
 };
 
 const provider: MigrationProvider = { getMigrations: async () => migrations };

@@ -35,16 +35,17 @@ export interface LeakTestTable {
   gauge_full_scale_psi: number;
   gauge_calibrated_on: string;
   hold_minutes: number;
-  start_pressure_psig: number;
-  end_pressure_psig: number;
-  start_temp_f: number;
-  end_temp_f: number;
+  /** The hold readings and drops are null only for a soap-only test recorded without them (migration 0023). */
+  start_pressure_psig: number | null;
+  end_pressure_psig: number | null;
+  start_temp_f: number | null;
+  end_temp_f: number | null;
   barometric_psia: number;
   /** JSON array of { location, result: "pass" | "leak" }. */
   seams: string;
   tester: string;
-  raw_drop_psi: number;
-  corrected_drop_psi: number;
+  raw_drop_psi: number | null;
+  corrected_drop_psi: number | null;
   allowed_drop_psi: number;
   result: "pass" | "fail" | "invalid";
   /** JSON array of { code, message }. */

@@ -30,17 +30,43 @@ export type LeakTestContext = {
 };
 
 export type LeakTestOutcome = {
-  correctedDropPsi: number;
-  rawDropPsi: number;
+  /** Null for a soap-only test recorded without hold readings: there is no drop to read. */
+  correctedDropPsi: number | null;
+  rawDropPsi: number | null;
   result: LeakTestResult;
   warnings: LeakTestWarning[];
   /** Why the test is invalid: the procedure breaches, empty unless the result is "invalid". */
   invalidReasons: LeakTestWarning[];
-  /** How far 1 °F of thermometer error moves the corrected drop at this test's pressure, psi. */
-  thermometerPsiPerF: number;
+  /** How far 1 °F of thermometer error moves the corrected drop at this test's pressure, psi; null without hold readings. */
+  thermometerPsiPerF: number | null;
   /** Said when that is near the allowed drop; null otherwise. */
   thermometerCaution: string | null;
 };
+
+/** The readings at the start and end of the hold; pressure decay is decided on them. */
+export const HOLD_READINGS = ["startPressurePsig", "endPressurePsig", "startTempF", "endTempF"] as const;
+export type HoldReading = (typeof HOLD_READINGS)[number];
+export type HoldReadings = { [K in HoldReading]: number } & { barometricPsia: number };
+
+/** Whether a method decides on the pressure over the hold (decay alone, or soap and decay). */
+export const usesPressureDecay = (method: LeakTestInput["method"]) => method === "decay" || method === "both";
+
+/**
+ * The hold readings a test still lacks: every one for pressure decay; for a soap-only test none,
+ * unless some were given (a drop is read from all four or not at all).
+ */
+export function missingHoldReadings(test: { method: LeakTestInput["method"] } & Partial<Record<HoldReading, number | undefined>>): HoldReading[] {
+  const missing = HOLD_READINGS.filter((r) => test[r] === undefined);
+  if (usesPressureDecay(test.method)) return missing;
+  return missing.length === HOLD_READINGS.length ? [] : missing;
+}
+
+/** The four readings and the barometer when all were given, or null (a soap-only test without them). */
+export function holdReadingsOf(test: Partial<Record<HoldReading, number | undefined>> & { barometricPsia: number }): HoldReadings | null {
+  const { startPressurePsig, endPressurePsig, startTempF, endTempF, barometricPsia } = test;
+  if (startPressurePsig === undefined || endPressurePsig === undefined || startTempF === undefined || endTempF === undefined) return null;
+  return { startPressurePsig, endPressurePsig, startTempF, endTempF, barometricPsia };
+}
 
 // Rankine = °F + 459.67, exact by the definition of the two scales.
 export const RANKINE_OFFSET_F = 459.67;
@@ -89,10 +115,7 @@ export function dropAgainstAllowance(correctedDropPsi: number, allowedDropPsi: n
 
 export const PRESSURE_ROSE_MESSAGE = "Pressure rose after correcting for temperature: check the thermometer and the gauge before trusting this reading.";
 
-export type PressureReadings = Pick<
-  LeakTestInput,
-  "startPressurePsig" | "endPressurePsig" | "startTempF" | "endTempF" | "barometricPsia"
->;
+export type PressureReadings = HoldReadings;
 
 /**
  * Raw and temperature-corrected pressure drop over the hold. At constant volume P/T is constant
@@ -156,14 +179,21 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
     throw new RangeError(`The shop's allowed drop must be 0 psi or more; got ${context.allowedDropPsi}`);
   }
   const usesSoap = test.method === "soap" || test.method === "both";
-  const usesDecay = test.method === "decay" || test.method === "both";
+  const usesDecay = usesPressureDecay(test.method);
   if (usesSoap && test.seams.length === 0) {
     throw new RangeError("A soap test needs at least one seam examined");
   }
+  // Pressure decay is decided on the hold readings; a soap-only test may be recorded without them.
+  const readings = holdReadingsOf(test);
+  if (!readings && usesDecay) {
+    throw new RangeError("A pressure-decay test needs the start and end pressure and temperature");
+  }
 
-  const { rawDropPsi, correctedDropPsi } = pressureDrop(test);
+  const drop = readings ? pressureDrop(readings) : null;
+  const rawDropPsi = drop?.rawDropPsi ?? null;
+  const correctedDropPsi = drop?.correctedDropPsi ?? null;
   const seamLeaked = test.seams.some((seam) => seam.result === "leak");
-  const dropTooLarge = correctedDropPsi > context.allowedDropPsi;
+  const dropTooLarge = correctedDropPsi !== null && correctedDropPsi > context.allowedDropPsi;
   const procedure = context.procedure ?? PUBLISHED_PROCEDURE;
 
   const warnings: LeakTestWarning[] = [];
@@ -185,20 +215,20 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
   if (!usesDecay && dropTooLarge) {
     warn(
       "soap_only_drop_exceeds_allowed",
-      `No seam showed bubbles, but the corrected pressure fell ${formatDropPsi(correctedDropPsi)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed (common practice, no published source).`,
+      `No seam showed bubbles, but the corrected pressure fell ${formatDropPsi(correctedDropPsi!)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed (common practice, no published source).`,
     );
   }
 
   // A closed tank cannot gain air, so once the gas law has taken out the temperature change a rise
   // is a misread thermometer or gauge (or a thermometer reading a different spot). Counted only
   // when it shows at the gauge's 0.01 psi, so rounding noise is not flagged.
-  if (formatDropPsi(correctedDropPsi).startsWith("-")) warn("pressure_rose_after_correction", PRESSURE_ROSE_MESSAGE);
+  if (correctedDropPsi !== null && formatDropPsi(correctedDropPsi).startsWith("-")) warn("pressure_rose_after_correction", PRESSURE_ROSE_MESSAGE);
 
   // A bubble is a leak however the test was run, so a seen leak fails it. Otherwise a test outside
   // the shop's procedure proves nothing either way: it is invalid and is done again.
   const result: LeakTestResult = seamLeaked ? "fail" : breaches.length > 0 ? "invalid" : usesDecay && dropTooLarge ? "fail" : "pass";
   const invalidReasons = result === "invalid" ? breaches.map(({ code, message }) => ({ code, message })) : [];
-  const thermometerPsiPerF = thermometerSensitivityPsiPerF(test);
+  const thermometerPsiPerF = readings ? thermometerSensitivityPsiPerF(readings) : null;
   return {
     correctedDropPsi,
     rawDropPsi,
@@ -206,7 +236,7 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
     warnings,
     invalidReasons,
     thermometerPsiPerF,
-    thermometerCaution: usesDecay ? thermometerCaution(thermometerPsiPerF, context.allowedDropPsi) : null,
+    thermometerCaution: usesDecay && thermometerPsiPerF !== null ? thermometerCaution(thermometerPsiPerF, context.allowedDropPsi) : null,
   };
 }
 

@@ -236,8 +236,8 @@ export async function recordLeakTest(db: DB, actor: StaffUser, partId: number, i
       .values({
         part_id: partId, rework_count: part.rework_count, method: test.method, part_shape: part.shape,
         test_pressure_psig: test.testPressurePsig, gauge_full_scale_psi: test.gaugeFullScalePsi, gauge_calibrated_on: test.gaugeCalibratedOn,
-        hold_minutes: test.holdMinutes, start_pressure_psig: test.startPressurePsig, end_pressure_psig: test.endPressurePsig,
-        start_temp_f: test.startTempF, end_temp_f: test.endTempF, barometric_psia: test.barometricPsia, seams: JSON.stringify(test.seams),
+        hold_minutes: test.holdMinutes, start_pressure_psig: test.startPressurePsig ?? null, end_pressure_psig: test.endPressurePsig ?? null,
+        start_temp_f: test.startTempF ?? null, end_temp_f: test.endTempF ?? null, barometric_psia: test.barometricPsia, seams: JSON.stringify(test.seams),
         tester: test.tester, raw_drop_psi: outcome.rawDropPsi, corrected_drop_psi: outcome.correctedDropPsi,
         allowed_drop_psi: settings.allowedDropPsi, result: outcome.result, warnings: JSON.stringify(outcome.warnings),
         invalid_reasons: JSON.stringify(outcome.invalidReasons),

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { calendarDate } from "@/server/http/calendar-date";
-import { expectedEndPressurePsig, SEA_LEVEL_PSIA } from "./leak-test";
+import { HOLD_READINGS, type HoldReading, expectedEndPressurePsig, holdReadingsOf, missingHoldReadings, SEA_LEVEL_PSIA, usesPressureDecay } from "./leak-test";
 import { GLOSS_LEVELS, PART_KINDS, PART_MATERIALS, PART_SHAPES, type PartKind } from "./labels";
 import { type LeakTestProcedure, PROCEDURE_LIMITS } from "./procedure";
 import { DOLLARS_AND_CENTS } from "@/server/parts/schemas";
@@ -85,10 +85,12 @@ export const leakTestInputSchema = z
       .number({ error: "Enter how many minutes the pressure was held." })
       .positive({ error: "Hold time must be more than 0 minutes." })
       .max(24 * 60, { error: "Hold time above 24 hours (1440 min) is not plausible; check the entry." }),
-    startPressurePsig: psig("Start pressure"),
-    endPressurePsig: psig("End pressure"),
-    startTempF: shopTempF("the start temperature"),
-    endTempF: shopTempF("the end temperature"),
+    // The readings over the hold: what pressure decay decides on. A soap-only test may leave them
+    // out (its test pressure is the gauge pressure it was held at); see HOLD_READINGS below.
+    startPressurePsig: psig("Start pressure").optional(),
+    endPressurePsig: psig("End pressure").optional(),
+    startTempF: shopTempF("the start temperature").optional(),
+    endTempF: shopTempF("the end temperature").optional(),
     // 10–16 psia spans high-altitude shops to a deep low at sea level; 14.696 is sea level.
     barometricPsia: z
       .number({ error: "Enter the barometric pressure in psia." })
@@ -107,8 +109,15 @@ export const leakTestInputSchema = z
         message: "A soap test needs at least one seam listed with its result.",
       });
     }
+    // Each method asks for what it decides on: pressure decay (alone or with soap) needs every
+    // reading over the hold; a soap-only test needs none, but readings given are given in full.
+    const missing = missingHoldReadings(test);
+    for (const reading of missing) {
+      ctx.addIssue({ code: "custom", path: [reading], message: HOLD_READING_MISSING[reading](test.method) });
+    }
     for (const reading of ["startPressurePsig", "endPressurePsig"] as const) {
-      if (test[reading] > test.gaugeFullScalePsi) {
+      const value = test[reading];
+      if (value !== undefined && value > test.gaugeFullScalePsi) {
         ctx.addIssue({
           code: "custom",
           path: [reading],
@@ -116,8 +125,10 @@ export const leakTestInputSchema = z
         });
       }
     }
-    const highestEnd = Math.max(test.startPressurePsig, expectedEndPressurePsig(test)) + END_PRESSURE_RISE_SLACK_PSI;
-    if (test.endPressurePsig > highestEnd) {
+    const readings = holdReadingsOf(test);
+    if (!readings) return;
+    const highestEnd = Math.max(readings.startPressurePsig, expectedEndPressurePsig(readings)) + END_PRESSURE_RISE_SLACK_PSI;
+    if (readings.endPressurePsig > highestEnd) {
       ctx.addIssue({
         code: "custom",
         path: ["endPressurePsig"],
@@ -126,6 +137,22 @@ export const leakTestInputSchema = z
     }
   });
 export type LeakTestInput = z.output<typeof leakTestInputSchema>;
+
+const HOLD_READING_WORDS: Record<HoldReading, string> = {
+  startPressurePsig: "the start pressure in psig",
+  endPressurePsig: "the end pressure in psig",
+  startTempF: "the start temperature in °F",
+  endTempF: "the end temperature in °F",
+};
+const HOLD_READING_MISSING = Object.fromEntries(
+  HOLD_READINGS.map((r) => [
+    r,
+    (method: LeakTestMethod) =>
+      usesPressureDecay(method)
+        ? `Enter ${HOLD_READING_WORDS[r]}: pressure decay is read from the start and end of the hold.`
+        : `Enter ${HOLD_READING_WORDS[r]} too, or leave all four hold readings empty for a soap-only test.`,
+  ]),
+) as Record<HoldReading, (method: LeakTestMethod) => string>;
 export type LeakTestFormInput = z.input<typeof leakTestInputSchema>;
 
 export const coatingFinishSchema = z.object({

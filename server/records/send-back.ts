@@ -16,12 +16,15 @@ export function canSendBackToFabricate(job: { stage: Stage; scope: JobScope }): 
 export function sendBackNote(test: {
   partName: string;
   seams: { location: string; result: "pass" | "leak" }[];
-  correctedDropPsi: number;
+  /** Null for a soap-only test without hold readings: it fails only on a seam seen leaking. */
+  correctedDropPsi: number | null;
   allowedDropPsi: number;
 }): string {
   const leaks = test.seams.filter((s) => s.result === "leak").map((s) => s.location.trim()).filter(Boolean);
   const why = leaks.length
     ? `leak at ${leaks.join(", ")}`
-    : `corrected drop ${formatDropPsi(test.correctedDropPsi)} psi, over the allowed ${test.allowedDropPsi} psi`;
+    : test.correctedDropPsi === null
+      ? "a seam leaked"
+      : `corrected drop ${formatDropPsi(test.correctedDropPsi)} psi, over the allowed ${test.allowedDropPsi} psi`;
   return `Leak test failed: ${test.partName}, ${why}.`;
 }

@@ -127,6 +127,33 @@ describe("leak tests", () => {
     expect(body.test.rawDropPsi).toBeGreaterThan(0.6);
   });
 
+  it("each method asks for what it decides on: decay is refused naming a missing reading; a soap-only box tank is recorded without decay readings", async () => {
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "pressure_test", parts: false });
+    const box = await addPart(tech.cookie, job.id, { ...tankBody, name: "Box tank, right rail", geometry: { shape: "box", lengthIn: 30, widthIn: 12, heightIn: 14 } });
+    const round = await addPart(tech.cookie, job.id, { ...tankBody, name: "Round tank" });
+    const before = await count("leak_test");
+    const { endPressurePsig: _end, ...noEnd } = goodTest;
+    for (const method of ["decay", "both"]) {
+      const refused = await postTest(tech.cookie, round.id, { ...noEnd, method, jobId: job.id });
+      expect(refused.status).toBe(400);
+      expect((await readBody(refused)).error.details.fields).toEqual({ endPressurePsig: ["Enter the end pressure in psig: pressure decay is read from the start and end of the hold."] });
+    }
+    expect(await count("leak_test")).toBe(before);
+
+    // UL 142 §42.2.1: a rectangular tank is tested at 1.5–3 psig; soap on every seam, no bubbles.
+    const { startPressurePsig: _s, startTempF: _st, endTempF: _et, ...soapOnly } = noEnd;
+    const seams = [{ location: "Top seam", result: "pass" }, { location: "Sump", result: "pass" }];
+    const res = await postTest(tech.cookie, box.id, { ...soapOnly, method: "soap", testPressurePsig: 2, gaugeFullScalePsi: 5, seams, jobId: job.id });
+    expect(res.status).toBe(201);
+    const body = await readBody(res);
+    expect(body).toMatchObject({ result: "pass", correctedDropPsi: null, warnings: [], invalidReasons: [] });
+    expect(body.test).toMatchObject({ method: "soap", testPressurePsig: 2, startPressurePsig: null, endPressurePsig: null, startTempF: null, endTempF: null, rawDropPsi: null, correctedDropPsi: null });
+    // The gate into coating counts it as the part's passing test.
+    const listed = await readBody(await leakTests.GET(request(`/api/parts/${box.id}/leak-tests`, { cookie: tech.cookie }), params({ id: String(box.id) })));
+    expect(listed.leakTests.map((t: { result: string; correctedDropPsi: number | null }) => [t.result, t.correctedDropPsi])).toEqual([["pass", null]]);
+  });
+
   it("a D-shaped reservoir is kept with its geometry and tested as flat-walled: the box tank's band, soap deciding", async () => {
     const tech = await as("tech");
     const job = await makeJob(db(), { stage: "pressure_test", parts: false });

@@ -386,3 +386,37 @@ describe("thermometer error against the allowed drop", () => {
     expect(thermometerCaution(0.0249, 0.05)).toBeNull();
   });
 });
+
+describe("a soap-only test recorded without hold readings", () => {
+  const soapOnly = (overrides: Partial<LeakTestInput> = {}): LeakTestInput => {
+    const { startPressurePsig: _s, endPressurePsig: _e, startTempF: _st, endTempF: _et, ...rest } = leakTest({ method: "soap" });
+    return { ...rest, ...overrides };
+  };
+
+  it("is decided on the seams: a pass with no bubbles, a fail on a leak, and no drop read", () => {
+    const pass = evaluateLeakTest(soapOnly(), context);
+    expect(pass).toMatchObject({ result: "pass", correctedDropPsi: null, rawDropPsi: null, thermometerPsiPerF: null, thermometerCaution: null, warnings: [] });
+    const fail = evaluateLeakTest(soapOnly({ seams: [{ location: "Fill neck", result: "leak" }] }), context);
+    expect(fail.result).toBe("fail");
+  });
+
+  it("keeps the rules that make a test invalid: pressure band, hold, gauge range and calibration", () => {
+    const box = { ...context, partShape: "box" as const };
+    // UL 142 §42.2.1: 1.5–3 psig for a rectangular tank; 4 psig is outside it.
+    expect(evaluateLeakTest(soapOnly({ testPressurePsig: 4 }), box)).toMatchObject({ result: "invalid", correctedDropPsi: null });
+    // ASME BPVC Section V, Article 10: hold at least 15 minutes.
+    expect(codes(evaluateLeakTest(soapOnly({ holdMinutes: 14 }), context))).toEqual(["hold_too_short"]);
+    expect(evaluateLeakTest(soapOnly({ holdMinutes: 14 }), context).result).toBe("invalid");
+    // Gauge 1.5–4 × the test pressure: 100 psi for 4 psig is over 4×.
+    expect(codes(evaluateLeakTest(soapOnly({ gaugeFullScalePsi: 100 }), context))).toEqual(["gauge_range"]);
+    expect(codes(evaluateLeakTest(soapOnly({ gaugeCalibratedOn: "2024-06-01" }), context))).toEqual(["gauge_calibration_old"]);
+    // A seen leak still fails a test outside the procedure.
+    expect(evaluateLeakTest(soapOnly({ holdMinutes: 14, seams: [{ location: "Drain plug", result: "leak" }] }), context).result).toBe("fail");
+  });
+
+  it("pressure decay cannot be decided without its readings", () => {
+    const { startPressurePsig: _s, ...noStart } = leakTest({ method: "decay", seams: [] });
+    expect(() => evaluateLeakTest(noStart as LeakTestInput, context)).toThrow(RangeError);
+    expect(() => evaluateLeakTest({ ...soapOnly(), method: "both" }, context)).toThrow(RangeError);
+  });
+});

@@ -69,6 +69,38 @@ describe("leakTestInputSchema", () => {
     expect(issuesOf(leakTestInputSchema, { ...leakTest, barometricPsia: 101.3 })[0].path).toEqual(["barometricPsia"]);
   });
 
+  describe("each method asks for what it decides on", () => {
+    const { startPressurePsig: _s, endPressurePsig: _e, startTempF: _st, endTempF: _et, ...noHoldReadings } = leakTest;
+    const holdReadings = ["startPressurePsig", "endPressurePsig", "startTempF", "endTempF"];
+
+    it("a soap-only test needs the test pressure it was held at, the gauge, the hold, the seams and the tester, not the decay readings", () => {
+      const parsed = leakTestInputSchema.safeParse({ ...noHoldReadings, method: "soap" });
+      expect(parsed.success).toBe(true);
+      for (const field of ["testPressurePsig", "gaugeFullScalePsi", "gaugeCalibratedOn", "holdMinutes", "tester"]) {
+        const { [field as keyof typeof noHoldReadings]: _gone, ...without } = noHoldReadings;
+        expect(issuesOf(leakTestInputSchema, { ...without, method: "soap" }).map((i) => i.path), field).toEqual([[field]]);
+      }
+      expect(issuesOf(leakTestInputSchema, { ...noHoldReadings, method: "soap", seams: [] }).map((i) => i.path)).toEqual([["seams"]]);
+    });
+
+    it.each(["decay", "both"])("a %s test is refused without each hold reading, each named", (method) => {
+      const issues = issuesOf(leakTestInputSchema, { ...noHoldReadings, method });
+      expect(issues.map((i) => i.path)).toEqual(holdReadings.map((r) => [r]));
+      expect(issues[0].message).toBe("Enter the start pressure in psig: pressure decay is read from the start and end of the hold.");
+      expect(issues[3].message).toBe("Enter the end temperature in °F: pressure decay is read from the start and end of the hold.");
+      const { endPressurePsig: _gone, ...noEnd } = leakTest;
+      expect(issuesOf(leakTestInputSchema, { ...noEnd, method }).map((i) => i.path)).toEqual([["endPressurePsig"]]);
+    });
+
+    it("a soap-only test takes hold readings all together or not at all, and still checks the ones given", () => {
+      expect(leakTestInputSchema.safeParse({ ...leakTest, method: "soap" }).success).toBe(true);
+      const { endTempF: _gone, ...partial } = leakTest;
+      const issues = issuesOf(leakTestInputSchema, { ...partial, method: "soap" });
+      expect(issues).toEqual([{ path: ["endTempF"], message: "Enter the end temperature in °F too, or leave all four hold readings empty for a soap-only test." }]);
+      expect(issuesOf(leakTestInputSchema, { ...leakTest, method: "soap", startTempF: 293 }).map((i) => i.path)).toEqual([["startTempF"]]);
+    });
+  });
+
   it("refuses a soap or both test with no seam, and allows a decay test without seams", () => {
     for (const method of ["soap", "both"]) {
       expect(issuesOf(leakTestInputSchema, { ...leakTest, method, seams: [] })).toEqual([

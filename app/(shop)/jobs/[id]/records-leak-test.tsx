@@ -20,6 +20,7 @@ import {
   dropAgainstAllowance,
   formatDropPsi,
   pneumaticTestCautions,
+  usesPressureDecay,
 } from "@/server/records/leak-test";
 import { type LeakTestProcedure, type ProcedureBreach, bandSource, flatWalled, gaugeSource, holdSource, pressureBand, procedureBreaches } from "@/server/records/procedure";
 import type { LeakTestMethod } from "@/server/records/schemas";
@@ -42,15 +43,16 @@ export interface LeakTestPart {
 }
 
 interface LeakTestAnswer {
-  correctedDropPsi: number;
+  /** Null for a soap-only test recorded without hold readings. */
+  correctedDropPsi: number | null;
   result: LeakTestResult;
   warnings: LeakTestWarning[];
   invalidReasons: LeakTestWarning[];
-  thermometerPsiPerF?: number;
+  thermometerPsiPerF?: number | null;
   thermometerCaution?: string | null;
   test: {
     partName: string;
-    rawDropPsi: number;
+    rawDropPsi: number | null;
     allowedDropPsi: number;
     holdMinutes: number;
     gaugeFullScalePsi: number;
@@ -81,8 +83,8 @@ export function correctedDropText(correctedDropPsi: number) {
 }
 
 /** Warnings as recorded, with the pressure-rise caution first; tests saved before that check get it derived. */
-export function cautionsOf(correctedDropPsi: number, warnings: LeakTestWarning[]): LeakTestWarning[] {
-  const rose = formatDropPsi(correctedDropPsi).startsWith("-");
+export function cautionsOf(correctedDropPsi: number | null, warnings: LeakTestWarning[]): LeakTestWarning[] {
+  const rose = correctedDropPsi !== null && formatDropPsi(correctedDropPsi).startsWith("-");
   const list = rose && !warnings.some((w) => w.code === "pressure_rose_after_correction")
     ? [{ code: "pressure_rose_after_correction" as const, message: PRESSURE_ROSE_MESSAGE }, ...warnings]
     : warnings;
@@ -356,7 +358,9 @@ function LeakTestRound({
         </Field>
       </div>
 
-      <fieldset className="space-y-3 rounded-md border border-line p-3">
+      {/* The hold readings are what pressure decay decides on; a soap-only test is decided on the seams. */}
+      {usesPressureDecay(method) && (
+      <fieldset className="space-y-3 rounded-md border border-line p-3" data-testid="hold-readings">
         <legend className="px-1 text-sm font-semibold">Readings at the start and end of the hold</legend>
         {(
           [
@@ -379,6 +383,7 @@ function LeakTestRound({
           The end pressure is corrected to the start temperature (ideal gas law, absolute units) and the drop compared with the shop&apos;s allowed {fmt(allowedDropPsi)} psi. {DROP_PRECISION_NOTE}
         </p>
       </fieldset>
+      )}
 
       <fieldset className="space-y-2 rounded-md border border-line p-3">
         <legend className="px-1 text-sm font-semibold">Soap check, seam by seam{usesSoap ? "" : " (optional with pressure decay)"}</legend>
@@ -533,9 +538,10 @@ function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTes
   const raw = answer.test.rawDropPsi;
   const reasonCodes = new Set(answer.invalidReasons.map((r) => r.code));
   const cautions = cautionsOf(answer.correctedDropPsi, answer.warnings).filter((w) => !reasonCodes.has(w.code));
-  const drop = correctedDropText(answer.correctedDropPsi);
+  const corrected = answer.correctedDropPsi;
+  const drop = corrected === null ? null : correctedDropText(corrected);
   // A rise is no drop to weigh against the allowance; the caution below says what to check.
-  const rose = formatDropPsi(answer.correctedDropPsi).startsWith("-");
+  const rose = corrected !== null && formatDropPsi(corrected).startsWith("-");
   const tone = pass ? "ok" : invalid ? "warn" : "stop";
   const box = { ok: "border-ok-700 bg-ok-100", warn: "border-warn-700 bg-warn-100", stop: "border-stop-700 bg-stop-100" }[tone];
   const text = { ok: "text-ok-700", warn: "text-warn-700", stop: "text-stop-700" }[tone];
@@ -561,18 +567,26 @@ function LeakTestOutcome({ job, part, answer, onAgain, onClose }: { job: LeakTes
           </ul>
         </div>
       )}
-      <p className="text-ink">
-        <strong>{drop.charAt(0).toUpperCase() + drop.slice(1)}</strong> over {fmt(answer.test.holdMinutes, 1)} min
-        {rose ? "." : `, ${dropAgainstAllowance(answer.correctedDropPsi, answer.test.allowedDropPsi)}.`}{" "}
-        {formatDropPsi(Math.abs(raw)) === "0.00" ? "The gauge itself did not move." : `Before the correction the gauge ${raw < 0 ? "rose" : "fell"} ${formatDropPsi(Math.abs(raw))} psi.`}
-      </p>
-      <p className="text-sm text-ink-soft">{DROP_PRECISION_NOTE}</p>
+      {drop === null || raw === null || corrected === null ? (
+        <p className="text-ink">
+          <strong>Soap check</strong> after a {fmt(answer.test.holdMinutes, 1)} min hold: decided on the seams, with no hold readings to read a drop from.
+        </p>
+      ) : (
+        <>
+          <p className="text-ink">
+            <strong>{drop.charAt(0).toUpperCase() + drop.slice(1)}</strong> over {fmt(answer.test.holdMinutes, 1)} min
+            {rose ? "." : `, ${dropAgainstAllowance(corrected, answer.test.allowedDropPsi)}.`}{" "}
+            {formatDropPsi(Math.abs(raw)) === "0.00" ? "The gauge itself did not move." : `Before the correction the gauge ${raw < 0 ? "rose" : "fell"} ${formatDropPsi(Math.abs(raw))} psi.`}
+          </p>
+          <p className="text-sm text-ink-soft">{DROP_PRECISION_NOTE}</p>
+        </>
+      )}
       {answer.thermometerCaution ? (
         <p data-testid="thermometer-caution" className="flex gap-2 rounded bg-warn-100 px-2 py-1 text-sm text-warn-700">
           <IconWarn className="mt-0.5 h-4 w-4 shrink-0" /> <span>{answer.thermometerCaution}</span>
         </p>
       ) : (
-        answer.thermometerPsiPerF !== undefined && (
+        answer.thermometerPsiPerF != null && (
           <p className="text-sm text-ink-soft">1 °F of thermometer error moves the corrected drop by {answer.thermometerPsiPerF.toFixed(3)} psi at this pressure.</p>
         )
       )}

@@ -114,7 +114,8 @@ function TestHistory({ tests, timeZone }: { tests: LeakTestView[]; timeZone: str
               {!t.current && <span className="ml-1 rounded bg-line px-1.5 text-ink-soft">before a rework: no longer counts</span>}
             </p>
             <p className="text-ink-soft">
-              {t.testPressurePsig} psig held {t.holdMinutes} min ({t.method === "both" ? "soap and decay" : t.method === "soap" ? "soap" : "pressure decay"}) on a {t.gaugeFullScalePsi} psi gauge; {t.startPressurePsig} → {t.endPressurePsig} psig at {t.startTempF} → {t.endTempF} °F; {correctedDropText(t.correctedDropPsi)} (allowed {t.allowedDropPsi} psi)
+              {t.testPressurePsig} psig held {t.holdMinutes} min ({t.method === "both" ? "soap and decay" : t.method === "soap" ? "soap" : "pressure decay"}) on a {t.gaugeFullScalePsi} psi gauge;{" "}
+              {t.correctedDropPsi === null ? "decided on the seams, no hold readings" : <>{t.startPressurePsig} → {t.endPressurePsig} psig at {t.startTempF} → {t.endTempF} °F; {correctedDropText(t.correctedDropPsi)} (allowed {t.allowedDropPsi} psi)</>}
             </p>
             {t.result === "invalid" && <p className="font-semibold text-warn-700">Outside the shop&apos;s procedure, so it counts for nothing:</p>}
             {t.seams.some((s) => s.result === "leak") && <p className="text-stop-700">Leak at: {t.seams.filter((s) => s.result === "leak").map((s) => s.location).join(", ")}</p>}
