@@ -109,12 +109,6 @@ export const leakTestInputSchema = z
         message: "A soap test needs at least one seam listed with its result.",
       });
     }
-    // Each method asks for what it decides on: pressure decay (alone or with soap) needs every
-    // reading over the hold; a soap-only test needs none, but readings given are given in full.
-    const missing = missingHoldReadings(test);
-    for (const reading of missing) {
-      ctx.addIssue({ code: "custom", path: [reading], message: HOLD_READING_MISSING[reading](test.method) });
-    }
     for (const reading of ["startPressurePsig", "endPressurePsig"] as const) {
       const value = test[reading];
       if (value !== undefined && value > test.gaugeFullScalePsi) {
@@ -135,7 +129,24 @@ export const leakTestInputSchema = z
         message: `End pressure is higher than warming can explain (at most ${highestEnd.toFixed(2)} psig); check the readings.`,
       });
     }
-  });
+  })
+  .check(
+    // Each method asks for what it decides on: pressure decay (alone or with soap) needs every
+    // reading over the hold; a soap-only test needs none, but readings given are given in full.
+    // Run even when other fields are wrong, so a half-filled form hears of every missing reading at once.
+    z.superRefine(
+      (value: unknown, ctx) => {
+        const test = (value ?? {}) as Record<string, unknown>;
+        const method = leakTestMethodSchema.safeParse(test.method);
+        if (!method.success) return;
+        const given = Object.fromEntries(HOLD_READINGS.map((r) => [r, test[r] === undefined ? undefined : 0]));
+        for (const reading of missingHoldReadings({ method: method.data, ...given })) {
+          ctx.addIssue({ code: "custom", path: [reading], message: HOLD_READING_MISSING[reading](method.data) });
+        }
+      },
+      { when: () => true },
+    ),
+  );
 export type LeakTestInput = z.output<typeof leakTestInputSchema>;
 
 const HOLD_READING_WORDS: Record<HoldReading, string> = {

@@ -92,6 +92,13 @@ describe("leakTestInputSchema", () => {
       expect(issuesOf(leakTestInputSchema, { ...noEnd, method }).map((i) => i.path)).toEqual([["endPressurePsig"]]);
     });
 
+    it("a half-filled decay test hears of every missing reading at once, with the other fields to fix", () => {
+      const paths = issuesOf(leakTestInputSchema, { method: "both", holdMinutes: 20, seams: [{ location: "Fill neck", result: "pass" }] }).map((i) => i.path[0]);
+      expect(paths).toEqual(expect.arrayContaining(["testPressurePsig", "gaugeFullScalePsi", "gaugeCalibratedOn", "tester", ...holdReadings]));
+      const soap = issuesOf(leakTestInputSchema, { method: "soap", holdMinutes: 20, seams: [{ location: "Fill neck", result: "pass" }] }).map((i) => i.path[0]);
+      expect(soap.filter((p) => holdReadings.includes(String(p)))).toEqual([]);
+    });
+
     it("a soap-only test takes hold readings all together or not at all, and still checks the ones given", () => {
       expect(leakTestInputSchema.safeParse({ ...leakTest, method: "soap" }).success).toBe(true);
       const { endTempF: _gone, ...partial } = leakTest;
