@@ -48,7 +48,7 @@ export function Shell({ user, children }: { user: Pick<StaffUser, "name" | "role
       >
         Skip to main content
       </a>
-      <header className="border-b border-line bg-panel">
+      <header className="no-print border-b border-line bg-panel">
         <div className="mx-auto flex max-w-[1600px] flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
           <Link href={user.role === "tech" ? "/board" : "/"} className="flex min-h-11 items-center gap-2 font-bold tracking-tight">
             <BaywrightMark />

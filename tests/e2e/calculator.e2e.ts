@@ -30,6 +30,10 @@ describe.skipIf(!enabled)("the wet-kit calculator in Chromium", () => {
     // Shop demo kit: 1200 rpm × 115 % × 3.5 in³ × 0.90 / 231 = 18.8 gpm.
     expect(before).toMatch(/^18\.8\s*gpm/);
     await shot(page, "calculator-desk");
+    // Printed, the calculator keeps its title.
+    await page.emulateMedia({ media: "print" });
+    expect(await page.getByRole("heading", { name: "Wet-kit calculator" }).isVisible()).toBe(true);
+    await page.emulateMedia({ media: "screen" });
 
     const displacement = page.getByLabel("Pump displacement, in³/rev");
     await displacement.fill("4.5");

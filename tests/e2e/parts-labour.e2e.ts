@@ -140,6 +140,16 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     const poNumber = ((await page.getByRole("heading", { level: 1 }).textContent()) ?? "").replace("Purchase order ", "");
     expect(poNumber).toMatch(/^PO-\d{2}-\d{4}$/);
     await shot(page, "purchase-order-desk");
+    // Printed for the supplier, the order keeps its header (the shop, the PO number, the dates);
+    // only the app's top bar and the buttons stay off the paper.
+    const shopName = (await json<{ settings: { name: string } }>(await page.request.get(`${baseUrl()}/api/shop-settings/shop`))).settings.name;
+    await page.emulateMedia({ media: "print" });
+    expect(await page.getByRole("heading", { level: 1, name: `Purchase order ${poNumber}` }).isVisible()).toBe(true);
+    expect(await page.locator("article header").getByText(shopName, { exact: true }).isVisible()).toBe(true);
+    expect(await page.locator("article header").getByText(/^Ordered /).isVisible()).toBe(true);
+    expect(await page.getByRole("navigation", { name: "Main" }).isVisible()).toBe(false);
+    await shot(page, "purchase-order-print");
+    await page.emulateMedia({ media: "screen" });
 
     await openSupplier("Open to receive");
     const row = page.locator(`tr[data-on-order="${description}"]`, { hasText: job.workOrder });

@@ -134,6 +134,10 @@ describe.skipIf(!enabled)("photos, the stage e-mail and the customer's status pa
     const heading = await status.getByTestId("job-heading").textContent();
     expect(heading).toContain(job.workOrder);
     expect(heading).toContain(job.description);
+    // A customer who prints the page keeps the truck's heading on paper.
+    await status.emulateMedia({ media: "print" });
+    expect(await status.getByTestId("job-heading").isVisible()).toBe(true);
+    await status.emulateMedia({ media: "screen" });
     const photo = status.locator('img[alt="Pump on the PTO"]');
     await photo.scrollIntoViewIfNeeded();
     await expect.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(0);

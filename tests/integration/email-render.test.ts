@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { STAGES, type Stage } from "@/db/schema";
-import { LINK_MARK, escapeHtml, renderLinkEmail, renderStageEmail, withStatusLink } from "@/server/email/render";
+import { parseReceiptPayload } from "@/server/email/payload";
+import { LINK_MARK, escapeHtml, renderLinkEmail, renderReceiptEmail, renderStageEmail, withStatusLink } from "@/server/email/render";
 import { CUSTOMER_STAGE_NAMES, whatComesNext, whatHappened, whereItIsNow } from "@/server/status/words";
 import { classifySendError } from "@/server/email/sender";
 
@@ -143,5 +144,53 @@ describe("reading the e-mail service's answers", () => {
     expect(classifySendError({ name: "validation_error", message: "bad from", statusCode: 422 })).toMatchObject({ kind: "permanent" });
     expect(classifySendError({ name: "invalid_api_key", message: "no", statusCode: 403 })).toMatchObject({ kind: "permanent" });
     expect(classifySendError({ name: "invalid_idempotent_request", message: "changed", statusCode: 409 })).toMatchObject({ kind: "already_sent" });
+  });
+});
+
+describe("the payment receipt", () => {
+  const receipt = { amountCents: 123_456, paidFor: { kind: "deposit" as const, quoteVersion: 2 }, methodLabel: "Cash", dateWords: "Thursday 5 March 2026", balanceAfterCents: 87_728, onAccountCents: 0 };
+
+  it("names the job, the amount, what it paid for, the method, the day and what is still owed", () => {
+    const mail = renderReceiptEmail({ ...base, receipt });
+    expect(mail.subject).toBe("Payment received $1,234.56 · Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    expect(mail.text.split("\n")[0]).toBe("Work order WO-26-0012 · Unit HR-27 · Wet kit: 35 gal stainless tank, PTO pump");
+    expect(mail.text).toContain("Hello Dana Whitcombe,");
+    expect(mail.text).toContain("Thank you: we received your payment of $1,234.56 for the deposit on quote v2.");
+    for (const row of ["Amount paid: $1,234.56", "For: Deposit on quote v2", "Paid by: Cash", "Date: Thursday 5 March 2026", "Still owed on the job: $877.28"]) expect(mail.text).toContain(row);
+    expect(mail.text.split(LINK_MARK)).toHaveLength(2);
+    expect(mail.html).toContain("Cold Creek Upfit");
+  });
+
+  it("says Paid in full at $0.00, and names an amount on account apart from what was paid", () => {
+    const full = renderReceiptEmail({ ...base, receipt: { ...receipt, paidFor: { kind: "invoice", invoiceNumber: "INV-26-0003" }, balanceAfterCents: 0 } });
+    expect(full.text).toContain("For: Invoice INV-26-0003");
+    expect(full.text).toContain("Still owed on the job: Paid in full");
+    expect(full.text).toContain("toward invoice INV-26-0003");
+    const onAccount = renderReceiptEmail({ ...base, receipt: { ...receipt, paidFor: { kind: "invoice", invoiceNumber: "INV-26-0003" }, balanceAfterCents: 0, onAccountCents: 25_000 } });
+    expect(onAccount.text).not.toContain("Paid in full");
+    expect(onAccount.text).toContain("Still owed on the job: $0.00");
+    expect(onAccount.text).toContain("On your account: $250.00");
+  });
+
+  it("escapes what it paid for in the HTML part, and it cannot forge the link's place", () => {
+    const hostile = renderReceiptEmail({ ...base, receipt: { ...receipt, paidFor: { kind: "invoice", invoiceNumber: `<b>INV</b> ${LINK_MARK}` } } });
+    expect(hostile.html).not.toContain("<b>INV</b>");
+    expect(hostile.html).toContain("&lt;b&gt;INV&lt;/b&gt;");
+    expect(hostile.text.split(LINK_MARK)).toHaveLength(2);
+  });
+
+  it("reads back only a well-formed receipt message", () => {
+    const good = { paymentId: 7, paidFor: { kind: "deposit", quoteVersion: 2 }, balanceAfterCents: 100, onAccountCents: 0, requestedBy: "" };
+    expect(parseReceiptPayload(JSON.stringify(good))).toEqual(good);
+    expect(parseReceiptPayload(JSON.stringify({ ...good, paidFor: { kind: "invoice", invoiceNumber: "INV-26-0003" }, resendOf: "abc" }))).toMatchObject({ resendOf: "abc" });
+    for (const bad of [
+      "not json",
+      JSON.stringify({ ...good, paymentId: "7" }),
+      JSON.stringify({ ...good, balanceAfterCents: -1 }),
+      JSON.stringify({ ...good, balanceAfterCents: 1.5 }),
+      JSON.stringify({ ...good, paidFor: { kind: "refund" } }),
+      JSON.stringify({ ...good, paidFor: { kind: "invoice", invoiceNumber: "" } }),
+      JSON.stringify({ ...good, requestedBy: undefined }),
+    ]) expect(parseReceiptPayload(bad), bad).toBeNull();
   });
 });

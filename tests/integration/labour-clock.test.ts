@@ -8,6 +8,7 @@ import type { Role } from "@/db/schema";
 import { jobClockEntries, jobHours } from "@/server/labour/queries";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
+import { giveJobMoney } from "../support/money";
 import { params, readBody, request, sessionCookieFor } from "../support/http";
 
 const { db } = useFreshDatabase();
@@ -170,5 +171,22 @@ describe("job cost", () => {
     // Hours, quoted hours, labour, bought-in, unpriced lines, coating share, unpriced runs, cost, quoted, over.
     expect(csv).toContain(",1.33,,166.67,649.00,0,0.00,0,815.67,,");
     expect((await jobCosts.GET(request("/api/reports/job-costs", { cookie: tech.cookie }))).status).toBe(403);
+  });
+
+  it("a job under its quote downloads a negative over/under figure as a plain number a spreadsheet can add, not as text", async () => {
+    const office = await as("office");
+    const tech = await as("tech");
+    await db().updateTable("shop").set({ labour_rate_cents: 12_500 }).where("id", "=", 1).execute();
+    const job = await makeJob(db(), { stage: "install", scope: "install_only" });
+    // An approved quote of $1,000.00 before tax.
+    await giveJobMoney(db(), job.id, "quote-approved", office.staff.id);
+    await db().insertInto("bought_part").values({ job_id: job.id, kind: "pump", description: "Gear pump", quantity: 1, unit_cost_cents: 64_900, created_at: new Date().toISOString(), updated_at: new Date().toISOString(), created_by: office.staff.id, purchase_order_id: null, expected_on: null, installed_at: null, installed_by: null, ratio_percent: null, displacement_cu_in: null }).execute();
+    const start = new Date(Date.now() - 3 * 3_600_000);
+    await db().insertInto("clock_entry").values({ staff_id: tech.staff.id, job_id: job.id, stage: "install", started_at: start.toISOString(), ended_at: new Date(start.getTime() + 80 * 60_000).toISOString() }).execute();
+    const csv = await (await jobCosts.GET(request("/api/reports/job-costs?format=csv", { cookie: office.cookie }))).text();
+    const line = csv.split("\r\n").find((l) => l.startsWith(`${job.work_order},`))!;
+    // $166.67 labour + $649.00 bought-in = $815.67 against $1,000.00 quoted: $184.33 under, written -184.33.
+    expect(line.endsWith(",815.67,1000.00,-184.33")).toBe(true);
+    expect(line).not.toContain("'");
   });
 });

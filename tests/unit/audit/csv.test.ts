@@ -8,10 +8,24 @@ describe("CSV cells", () => {
   it("makes formula-looking cells text", () => {
     expect(csvCell("=1+2")).toBe("'=1+2");
     expect(csvCell("+15550100")).toBe("'+15550100");
-    expect(csvCell("-3")).toBe("'-3");
+    expect(csvCell("-3+cmd")).toBe("'-3+cmd");
+    expect(csvCell("-40 gal tank")).toBe("'-40 gal tank");
     expect(csvCell("@SUM(A1)")).toBe("'@SUM(A1)");
     expect(csvCell("\t=cmd")).toBe("'\t=cmd");
     expect(csvCell("\r=cmd")).toBe("\"'\r=cmd\"");
+  });
+
+  it("leaves a plain negative number a number, and makes anything more after a minus text", () => {
+    // A negative amount (a job under its quote) must add up in a spreadsheet.
+    for (const n of ["-1993.70", "-2", "-0.5", "-.5", "0", "1993.70"]) expect(csvCell(n)).toBe(n);
+    expect(csvCell(-2)).toBe("-2");
+    expect(csvCell(-0.5)).toBe("-0.5");
+    expect(toCsv(["over_under_quote_dollars"], [["-1993.70"]])).toBe("over_under_quote_dollars\r\n-1993.70\r\n");
+    // Only a minus, digits and one decimal point: anything else after the minus is still neutralised.
+    for (const t of ["-1+2", "-2e3", "- 5", "-1.2.3", "-", "-.", "-1.", "-1,5", "-0x1F", "-Infinity", "-2-cmd|' /C calc'!A0", "+5", "+1.5"]) {
+      expect(csvCell(t).replace(/^"/, "").startsWith("'"), t).toBe(true);
+    }
+    expect(csvCell(-Infinity)).toBe("'-Infinity");
   });
 
   it("quotes commas, quotes and line breaks, and leaves plain text alone", () => {

@@ -91,8 +91,7 @@ export default async function ShopSheetPage({ params }: { params: Promise<{ id: 
         <PrintButton label="Print" />
       </div>
 
-      {/* Not a <header>: printing hides the shell's header elements. */}
-      <div className="flex items-start justify-between gap-4 border-b-2 border-ink pb-2">
+      <header className="flex items-start justify-between gap-4 border-b-2 border-ink pb-2">
         <div className="min-w-0">
           <p className="text-xs uppercase tracking-wide text-ink-soft">{shop.name} · shop sheet</p>
           <h1 className="text-2xl font-bold leading-tight">Work order {job.workOrder}</h1>
@@ -107,7 +106,7 @@ export default async function ShopSheetPage({ params }: { params: Promise<{ id: 
           <img className="h-24 w-24" src={qr} alt={`QR code of the job's page, ${jobUrl}`} />
           <figcaption className="mt-1 max-w-24 text-[9px] leading-tight break-all text-ink-soft">{jobUrl}</figcaption>
         </figure>
-      </div>
+      </header>
 
       <section className="grid gap-4 sm:grid-cols-2 print:grid-cols-2 print:break-inside-avoid" aria-label="Customer and truck">
         <div>
