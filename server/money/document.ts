@@ -49,6 +49,8 @@ export function figureRows(doc: DocumentFigures): FigureRow[] {
     { label: taxLabel(doc.taxRatePercent, doc.taxableCents), value: formatCents(doc.taxCents), strong: false },
     { label: "Total", value: formatCents(doc.totalCents), strong: true },
   ];
+  // Nothing taxable and no tax: no "Sales tax 8.25 % on $0.00" row (each line already says "no tax").
+  if (doc.taxableCents === 0 && doc.taxCents === 0) rows.splice(1, 1);
   if (doc.depositCents !== undefined && doc.depositCents > 0) rows.push({ label: "Deposit due on approval", value: formatCents(doc.depositCents), strong: false });
   for (const p of doc.payments ?? []) rows.push({ label: p.label, value: formatCents(-p.amountCents), strong: false });
   if (doc.balanceCents !== undefined) rows.push({ label: "Balance due", value: formatCents(doc.balanceCents), strong: true });

@@ -77,6 +77,8 @@ describe.skipIf(!enabled)("quotes in Chromium", () => {
     await expect.poll(() => section.getByRole("status").textContent()).toContain("Version 1 sent");
     const sent = section.getByRole("article", { name: "Quote version 1" });
     await expect.poll(() => sent.textContent()).toContain("Sent: waiting for the customer");
+    // The e-mail list on the same page shows the quote's e-mail without a reload.
+    await expect.poll(() => page.locator("#messages").getByText("Quote with its PDF").count()).toBeGreaterThan(0);
     expect(await sent.textContent()).toContain(`$${(draft.totalCents / 100).toLocaleString("en-US", { minimumFractionDigits: 2 })}`);
     // The sent version is never edited: the API refuses, and the screen offers a new version instead.
     const refused = await api.put(`${baseUrl()}/api/quotes/${draft.id}`, { headers, data: { lines: [{ kind: "fee", description: "x", quantity: 1, unitPriceCents: 1, taxable: false }] } });

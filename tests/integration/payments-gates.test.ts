@@ -172,6 +172,8 @@ describe("the invoice and Delivered", () => {
     const { job, token, quoteId } = await approvedJob(p);
     expect((await answerRoute.POST(request(`/status/${token}/quote`, { body: { decision: "approve", quoteId, name: "Dana Reyes", acceptTerms: true } }), params({ token }))).status).toBe(200);
     expect((await pay(p.officeCookie, job.id, { purpose: "deposit", method: "check", amountCents: 71_650, reference: "Check 4100" })).status).toBe(201);
+    // The customer's page: the deposit paid, and the rest (1,433.00 − 716.50) owed at pickup.
+    expect((await customerPayment(db(), job.id))?.deposit).toEqual({ askedCents: 71_650, paidCents: 71_650, owedCents: 0, restCents: 71_650 });
     // Records are not the subject: the owner moves it to Ready with a reason, which makes the invoice.
     expect((await move(p.ownerCookie, job.id, "ready", "Built and signed off on paper")).status).toBe(200);
     const first = await db().selectFrom("invoice").select(["id", "number", "total_cents"]).where("job_id", "=", job.id).executeTakeFirstOrThrow();

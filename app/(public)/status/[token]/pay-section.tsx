@@ -101,7 +101,14 @@ export function PaySection({ token, payment, returned }: { token: string; paymen
       ) : payment.deposit ? (
         <div className="rounded-lg border-2 border-bay-700 bg-panel p-4">
           {depositDone ? (
-            <p className="font-semibold text-ok-700">✓ Deposit paid: {formatCents(payment.deposit.askedCents)}. Thank you; the shop can start.</p>
+            <>
+              <p className="font-semibold text-ok-700">✓ Deposit paid: {formatCents(payment.deposit.askedCents)}. Thank you.</p>
+              {payment.deposit.restCents > 0 && (
+                <p className="mt-1 text-sm text-ink-soft" data-testid="rest-at-pickup">
+                  The rest, {formatCents(payment.deposit.restCents)}, is invoiced when the truck is ready for pickup.
+                </p>
+              )}
+            </>
           ) : (
             <>
               <p className="font-bold">Deposit due: {formatCents(payment.deposit.owedCents)}</p>

@@ -10,13 +10,11 @@ import type { JobEmailSettings } from "@/server/email/recipients";
 import type { NotifySettings } from "@/server/email/settings";
 import { STAGE_LABELS } from "@/server/jobs/stages";
 import { formatShopTime } from "@/server/records/calendar";
+import { customerMailKeys } from "./customer-mail";
 
 type Link = { id: number; createdAt: string; issuedBy: string | null; revokedAt: string | null; revokedBy: string | null; lastOpenedAt: string | null; state: "active" | "revoked" | "expired"; expiresAt: string | null };
 
-const keys = {
-  messages: (jobId: number) => ["job", jobId, "messages"] as const,
-  links: (jobId: number) => ["job", jobId, "status-links"] as const,
-};
+const keys = customerMailKeys;
 
 /** Times as the shop's clock shows them, whatever zone the server or the browser runs in. */
 const when = (iso: string, timeZone: string, pattern = "d MMM, HH:mm") => formatShopTime(iso, timeZone, pattern);
@@ -101,7 +99,7 @@ function StatusLinkBox({ jobId, office, initialLinks, timeZone, recipients }: { 
       <h3 className="font-bold">Status link</h3>
       {live ? (
         <p>
-          <span className="font-semibold text-ok-700">✓ Working</span> · issued {when(live.createdAt, timeZone)} {live.issuedBy ? `by ${live.issuedBy}` : "with a stage e-mail"} · {live.lastOpenedAt ? `last opened ${when(live.lastOpenedAt, timeZone)}` : "not opened yet"}
+          <span className="font-semibold text-ok-700">✓ Working</span> · issued {when(live.createdAt, timeZone)} {live.issuedBy ? `by ${live.issuedBy}` : "with an e-mail to the customer"} · {live.lastOpenedAt ? `last opened ${when(live.lastOpenedAt, timeZone)}` : "not opened yet"}
           {live.expiresAt && ` · ends ${when(live.expiresAt, timeZone, "d MMM yyyy")}`}
         </p>
       ) : (

@@ -9,6 +9,7 @@ import type { InvoiceView } from "@/server/money/invoices";
 import type { PaymentLine } from "@/server/money/payments";
 import { dollarsToCents, formatCents } from "@/server/money/totals";
 import { formatShopTime } from "@/server/records/calendar";
+import { useCustomerMailRefresh } from "./customer-mail";
 
 const METHOD_WORDS: Record<PaymentLine["method"], string> = { card: "Card, paid online", cash: "Cash", check: "Check", on_account: "On account", refund: "Refund" };
 // Times in the shop's own time zone, the same on the server and in any browser.
@@ -28,6 +29,7 @@ export function MoneyPanel(props: {
   invoices: InvoiceView[];
 }) {
   const router = useRouter();
+  const refreshMail = useCustomerMailRefresh(props.jobId);
   const [failure, setFailure] = useState<ApiFailure | null>(null);
   const [pending, setPending] = useState(false);
   const [done, setDone] = useState<string | null>(null);
@@ -43,6 +45,8 @@ export function MoneyPanel(props: {
       await api(path, { method: "POST", body });
       setDone(message);
       router.refresh();
+      // An invoice made or a payment taken e-mails the customer.
+      await refreshMail();
       return true;
     } catch (err) {
       if (err instanceof ApiRequestError) setFailure(err.failure);

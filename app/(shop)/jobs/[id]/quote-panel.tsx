@@ -10,6 +10,7 @@ import type { Quote } from "@/server/money/quotes";
 import { centsToDollarsText, documentTotals, dollarsToCents, formatCents, fromThousandths, agreedPriceCents, lineAmountCents, toThousandths } from "@/server/money/totals";
 import { formatShopTime } from "@/server/records/calendar";
 import { KIND_WORDS } from "../../prices/words";
+import { useCustomerMailRefresh } from "./customer-mail";
 
 const STATUS_WORDS: Record<Quote["status"], string> = {
   draft: "Draft: not sent",
@@ -220,6 +221,7 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
   const [notice, setNotice] = useState<string | null>(null);
   const [unpriced, setUnpriced] = useState<string[]>([]);
   const action = useAction();
+  const refreshMail = useCustomerMailRefresh(jobId);
 
   const put = (q: Quote) => setQuotes((list) => [q, ...list.filter((x) => x.id !== q.id)].sort((a, b) => b.version - a.version));
   const refresh = async () => {
@@ -283,7 +285,7 @@ export function QuotePanel({ jobId, initialQuotes, priceItems, taxMillipercent, 
     setEditing(null);
     setLines([]);
     setUnpriced([]);
-    await refresh();
+    await Promise.all([refresh(), refreshMail()]);
     setNotice(`Version ${sent.quote.version} sent for ${formatCents(sent.quote.totalCents)}. It is never changed now; a new version replaces it.`);
   }
 
