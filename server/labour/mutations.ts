@@ -4,6 +4,8 @@ import type { StaffUser } from "@/server/auth/session";
 import { recordAudit } from "@/server/audit/record";
 import { ApiError, notFound } from "@/server/http/errors";
 import { STAGE_LABELS } from "@/server/jobs/stages";
+import { formatShopTime } from "@/server/records/calendar";
+import { shopSettings } from "@/server/shop/queries";
 import { overlapping } from "./rules";
 import type { ClockCorrection } from "./schemas";
 
@@ -83,7 +85,9 @@ export async function correctClockEntry(db: DB, actor: StaffUser, id: number, in
       others.map((o) => ({ id: o.id, staffId: o.staff_id, jobId: o.job_id, startedAt: o.started_at, endedAt: o.ended_at })),
       now,
     );
-    if (clash.length) throw fieldError("startedAt", `Those times overlap ${entry.name}'s ${clash.length === 1 ? "entry" : `${clash.length} entries`} from ${clash[0].startedAt.slice(0, 16).replace("T", " ")} UTC; nobody works two jobs at once. Correct that entry first or choose other times.`);
+    const { timeZone } = await shopSettings(trx);
+    const shopTime = (iso: string | null) => (iso ? formatShopTime(iso, timeZone, "EEE d MMM yyyy HH:mm") : "still on");
+    if (clash.length) throw fieldError("startedAt", `Those times overlap ${entry.name}'s ${clash.length === 1 ? "entry" : `${clash.length} entries`} from ${shopTime(clash[0].startedAt)} (shop time); nobody works two jobs at once. Correct that entry first or choose other times.`);
     const startedAt = new Date(input.startedAt).toISOString();
     const endedAt = new Date(input.endedAt).toISOString();
     await trx
@@ -103,7 +107,7 @@ export async function correctClockEntry(db: DB, actor: StaffUser, id: number, in
       kind: "clock_corrected",
       actor,
       subject: `work order ${entry.work_order}`,
-      summary: `${actor.name} corrected ${entry.name}'s clock entry on work order ${entry.work_order} (${STAGE_LABELS[entry.stage as keyof typeof STAGE_LABELS] ?? entry.stage}) from ${entry.started_at} – ${entry.ended_at ?? "still on"} to ${startedAt} – ${endedAt}. Reason: ${input.reason}`,
+      summary: `${actor.name} corrected ${entry.name}'s clock entry on work order ${entry.work_order} (${STAGE_LABELS[entry.stage as keyof typeof STAGE_LABELS] ?? entry.stage}) from ${shopTime(entry.started_at)} – ${shopTime(entry.ended_at)} to ${shopTime(startedAt)} – ${shopTime(endedAt)} (shop time). Reason: ${input.reason}`,
       details: { entryId: id, before: { startedAt: entry.started_at, endedAt: entry.ended_at }, after: { startedAt, endedAt }, reason: input.reason },
     });
   });

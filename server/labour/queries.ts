@@ -2,7 +2,7 @@ import "server-only";
 import type { DB } from "@/db";
 import type { Stage } from "@/db/schema";
 import { formatShopTime } from "@/server/records/calendar";
-import { type ClockFlag, clockFlags, msByStage, shopDay } from "./rules";
+import { type ClockFlag, clockFlags, msByStage, shopDay, type StageChange, stagesOfEntry } from "./rules";
 
 export interface OpenClock {
   entryId: number;
@@ -76,10 +76,18 @@ function toView(r: EntryRow, now: Date, timeZone: string): ClockEntryView {
   };
 }
 
-/** A job's clock entries, newest first. */
-export async function jobClockEntries(db: DB, jobId: number, timeZone: string, now = new Date()) {
-  const rows = await entryQuery(db).where("c.job_id", "=", jobId).orderBy("c.started_at", "desc").execute();
-  return rows.map((r) => toView(r, now, timeZone));
+async function stageChangesOf(db: DB, jobId: number): Promise<StageChange[]> {
+  const events = await db.selectFrom("stage_event").select(["at", "to_stage"]).where("job_id", "=", jobId).orderBy("id").execute();
+  return events.map((e) => ({ at: e.at, toStage: e.to_stage as Stage }));
+}
+
+/**
+ * A job's clock entries, newest first, each with the stages its hours count under (split at the
+ * job's moves exactly as the hours by stage are).
+ */
+export async function jobClockEntries(db: DB, jobId: number, timeZone: string, now = new Date()): Promise<(ClockEntryView & { stages: string[] })[]> {
+  const [rows, changes] = await Promise.all([entryQuery(db).where("c.job_id", "=", jobId).orderBy("c.started_at", "desc").execute(), stageChangesOf(db, jobId)]);
+  return rows.map((r) => ({ ...toView(r, now, timeZone), stages: stagesOfEntry({ startedAt: r.started_at, endedAt: r.ended_at, stage: r.stage }, changes, now) }));
 }
 
 /** Entries started on or after an instant, across the shop, newest first (the hours page). */
@@ -96,15 +104,11 @@ export async function openClocks(db: DB, timeZone: string, now = new Date()) {
 
 /** A job's hours by stage (split at its stage changes) and by person. */
 export async function jobHours(db: DB, jobId: number, now = new Date()) {
-  const [entries, events] = await Promise.all([
+  const [entries, changes] = await Promise.all([
     db.selectFrom("clock_entry as c").innerJoin("staff as s", "s.id", "c.staff_id").select(["c.staff_id", "s.name", "c.stage", "c.started_at", "c.ended_at"]).where("c.job_id", "=", jobId).execute(),
-    db.selectFrom("stage_event").select(["at", "to_stage"]).where("job_id", "=", jobId).orderBy("id").execute(),
+    stageChangesOf(db, jobId),
   ]);
-  const byStage = msByStage(
-    entries.map((e) => ({ startedAt: e.started_at, endedAt: e.ended_at, stage: e.stage })),
-    events.map((e) => ({ at: e.at, toStage: e.to_stage as Stage })),
-    now,
-  );
+  const byStage = msByStage(entries.map((e) => ({ startedAt: e.started_at, endedAt: e.ended_at, stage: e.stage })), changes, now);
   const byPerson = new Map<string, { name: string; ms: number }>();
   for (const e of entries) {
     const end = e.ended_at ? new Date(e.ended_at).getTime() : now.getTime();

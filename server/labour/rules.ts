@@ -59,35 +59,65 @@ export interface StageChange {
   toStage: Stage;
 }
 
+type StagedSpan = Pick<ClockSpan, "startedAt" | "endedAt"> & { stage: string };
+
+/**
+ * One entry cut where the job changed stage while the clock ran, in order: the stage of each
+ * stretch and how long it lasted. Before the job's first event, the entry's own recorded stage
+ * counts. `timeline` is sorted by time.
+ */
+function stretches(entry: StagedSpan, timeline: readonly StageChange[], now: Date): { stage: string; ms: number }[] {
+  let cursor = ms(entry.startedAt);
+  const end = spanEnd(entry, now);
+  let stage = entry.stage;
+  const out: { stage: string; ms: number }[] = [];
+  for (const change of timeline) {
+    const at = ms(change.at);
+    if (at <= cursor) {
+      stage = change.toStage;
+      continue;
+    }
+    if (at >= end) break;
+    out.push({ stage, ms: at - cursor });
+    cursor = at;
+    stage = change.toStage;
+  }
+  out.push({ stage, ms: Math.max(0, end - cursor) });
+  return out;
+}
+
+const byTime = (changes: readonly StageChange[]) => [...changes].sort((a, b) => ms(a.at) - ms(b.at));
+
 /**
  * Milliseconds per stage for entries on one job, each entry split where the job changed stage
  * while the clock ran (an hour on a job that moved from Install to Wire at half past counts half
  * to each). Before the job's first event, the entry's own recorded stage counts.
  */
-export function msByStage(entries: readonly (Pick<ClockSpan, "startedAt" | "endedAt"> & { stage: string })[], changes: readonly StageChange[], now: Date): Map<string, number> {
-  const timeline = [...changes].sort((a, b) => ms(a.at) - ms(b.at));
+export function msByStage(entries: readonly StagedSpan[], changes: readonly StageChange[], now: Date): Map<string, number> {
+  const timeline = byTime(changes);
   const out = new Map<string, number>();
-  const add = (stage: string, amount: number) => {
-    if (amount > 0) out.set(stage, (out.get(stage) ?? 0) + amount);
-  };
   for (const entry of entries) {
-    let cursor = ms(entry.startedAt);
-    const end = spanEnd(entry, now);
-    let stage = entry.stage;
-    for (const change of timeline) {
-      const at = ms(change.at);
-      if (at <= cursor) {
-        stage = change.toStage;
-        continue;
-      }
-      if (at >= end) break;
-      add(stage, at - cursor);
-      cursor = at;
-      stage = change.toStage;
+    for (const part of stretches(entry, timeline, now)) {
+      if (part.ms > 0) out.set(part.stage, (out.get(part.stage) ?? 0) + part.ms);
     }
-    add(stage, end - cursor);
   }
   return out;
+}
+
+/**
+ * The stages an entry's hours count under, in order, from the same split as `msByStage`: one
+ * stage, or several when the job moved while the clock ran ("Queued → Fabricate"). An entry's
+ * label and the job's hours by stage can then never disagree.
+ */
+export function stagesOfEntry(entry: StagedSpan, changes: readonly StageChange[], now: Date): string[] {
+  const parts = stretches(entry, byTime(changes), now);
+  const worked = parts.filter((p) => p.ms > 0);
+  const stages: string[] = [];
+  // An entry of no length (clocked on and straight off) is labelled with the stage it began in.
+  for (const p of worked.length ? worked : parts.slice(0, 1)) {
+    if (stages[stages.length - 1] !== p.stage) stages.push(p.stage);
+  }
+  return stages;
 }
 
 /** The Monday (shop's calendar) of the ISO week an instant falls in. */

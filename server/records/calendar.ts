@@ -34,3 +34,25 @@ export function assertTimeZone(timeZone: string): void {
 export function formatShopTime(instant: string, timeZone: string, pattern: string): string {
   return format(new Date(instant), pattern, { in: tz(timeZone) });
 }
+
+const wallClockPattern = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})$/;
+
+/** An instant as a date-and-time field shows it on the shop's wall clock ("2026-12-02T13:44"), whatever zone the browser is in. */
+export function shopWallClockValue(instant: string, timeZone: string): string {
+  return formatShopTime(instant, timeZone, "yyyy-MM-dd'T'HH:mm");
+}
+
+/**
+ * The instant a date-and-time field's value means on the shop's wall clock, or null when it is
+ * not a real date and time. In the hour skipped when clocks go forward, the time is read as
+ * standard time (02:30 is 03:30 daylight time).
+ */
+export function instantFromShopWallClock(value: string, timeZone: string): string | null {
+  const match = wallClockPattern.exec(value);
+  if (!match) return null;
+  const [year, month, day, hour, minute] = match.slice(1).map(Number);
+  if (hour > 23 || minute > 59) return null;
+  const date = new TZDate(year, month - 1, day, hour, minute, timeZone);
+  if (!isValid(date) || format(date, "yyyy-MM-dd") !== value.slice(0, 10)) return null;
+  return new Date(date.getTime()).toISOString();
+}

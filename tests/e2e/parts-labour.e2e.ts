@@ -68,6 +68,42 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     await context.close();
   });
 
+  it("the office corrects a clock entry on the shop's clock from a computer set to another time zone, in fields wide enough to read", async () => {
+    for (const [device, name] of [[DESK, "desk"], [PHONE, "phone"]] as const) {
+      // The office computer is set to Japan time (UTC+9, no daylight time); the demo shop keeps US
+      // Central time, UTC−6 in January.
+      const context = await browser.newContext({ ...device, timezoneId: "Asia/Tokyo" });
+      const page = await signIn(context, "office");
+      const headers = { origin: baseUrl() };
+      const job = await newJob(page, "Corrected hours", { ready: false });
+      const entry = (await json(await page.request.post(`${baseUrl()}/api/clock`, { headers, data: { jobId: job.id } }), 201)).entry as { id: number };
+      await json(await page.request.delete(`${baseUrl()}/api/clock`, { headers, data: {} }));
+      // 19:44–21:00 UTC on Tuesday 13 January 2026 is 13:44–15:00 at the shop (a day of its own for each device).
+      const day = name === "desk" ? "13" : "14";
+      await json(await page.request.patch(`${baseUrl()}/api/clock-entries/${entry.id}`, { headers, data: { startedAt: `2026-01-${day}T19:44:00.000Z`, endedAt: `2026-01-${day}T21:00:00.000Z`, reason: "Times set by the office" } }));
+
+      await page.goto(`${baseUrl()}/jobs/${job.id}`);
+      await page.locator("#hours summary", { hasText: "Clock entries" }).click();
+      const row = page.locator(`[data-clock-entry="${entry.id}"]`);
+      expect(await row.locator("p").first().textContent()).toContain(`${day} Jan 13:44 – 15:00`);
+      await row.getByRole("button", { name: "Correct" }).click();
+      const started = row.getByLabel("Started");
+      const ended = row.getByLabel("Ended");
+      expect(await started.inputValue()).toBe(`2026-01-${day}T13:44`);
+      expect(await ended.inputValue()).toBe(`2026-01-${day}T15:00`);
+      // "01/13/2026, 01:44 PM" and the calendar button fit without being cut off.
+      for (const field of [started, ended]) expect((await field.boundingBox())!.width, `${name} date-time field width`).toBeGreaterThanOrEqual(250);
+      await shot(page, `clock-correct-${name}`);
+
+      // 16:30 typed at the desk is 16:30 at the shop: 2 h 46 min = 2.77 h.
+      await ended.fill(`2026-01-${day}T16:30`);
+      await row.getByLabel("Why (kept with the entry)").fill("Stayed to finish the bracket welds");
+      await row.getByRole("button", { name: "Save the correction" }).click();
+      await expect.poll(() => row.locator("p").first().textContent()).toContain(`${day} Jan 13:44 – 16:30 · 2.77 h`);
+      await context.close();
+    }
+  });
+
   it("the office orders a PTO on a purchase order and receives it on the parts desk; the card's 'waiting on' clears", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "office");

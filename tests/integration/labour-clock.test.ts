@@ -8,7 +8,7 @@ import * as labourRate from "@/app/api/shop-settings/labour-rate/route";
 import * as boughtParts from "@/app/api/jobs/[id]/bought-parts/route";
 import type { Role } from "@/db/schema";
 import type { JobDetail } from "@/server/jobs/queries";
-import { jobHours } from "@/server/labour/queries";
+import { jobClockEntries, jobHours } from "@/server/labour/queries";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
 import { giveJobMoney } from "../support/money";
@@ -97,7 +97,8 @@ describe("the labour clock", () => {
     }
     const clash = await correct(office.cookie, ids[1], { startedAt: at(15), endedAt: at(18), reason: "Started earlier" });
     expect(clash.status).toBe(400);
-    expect((await readBody(clash)).error.details.fields.startedAt[0]).toMatch(/overlap/);
+    // The clash is named on the shop's clock: the entry from 14:00 UTC on 2 March began at 08:00 Central standard time (UTC−6).
+    expect((await readBody(clash)).error.details.fields.startedAt[0]).toMatch(/overlap .* from Mon 2 Mar 2026 08:00 \(shop time\)/);
     for (const [body, field] of [
       [{ startedAt: at(17), endedAt: at(16), reason: "Typed it backwards" }, "endedAt"],
       [{ startedAt: "2026-02-31T10:00:00Z", endedAt: at(16), reason: "No such day" }, "startedAt"],
@@ -120,6 +121,27 @@ describe("the labour clock", () => {
     const hours = await jobHours(db(), job.id, new Date("2026-03-03T00:00:00.000Z"));
     expect(hours.totalHours).toBe(3);
     expect(Object.fromEntries(hours.byStage.map((s) => [s.stage, s.hours]))).toEqual({ install: 2, wire: 1 });
+  });
+});
+
+describe("a clock entry's stage", () => {
+  it("an entry that ran across a move is labelled with both stages, as the hours by stage count it", async () => {
+    const tech = await as("tech");
+    const job = await makeJob(db(), { stage: "queued" });
+    const clocked = await on(tech.cookie, { jobId: job.id });
+    expect((await readBody(clocked)).entry.stage).toBe("queued");
+    const [entry] = await entriesOf(tech.staff.id);
+    // The clock went on at 19:50 UTC on 2 December; the job moved to Fabricate 20 hours later.
+    await db().updateTable("clock_entry").set({ started_at: "2026-12-02T19:50:00.000Z" }).where("id", "=", entry.id).execute();
+    await db().updateTable("stage_event").set({ at: "2026-11-30T14:00:00.000Z" }).where("job_id", "=", job.id).execute();
+    await db().insertInto("stage_event").values({ job_id: job.id, from_stage: "queued", to_stage: "fabricate", actor_id: tech.staff.id, at: "2026-12-03T15:50:00.000Z", note: "", override_reason: null }).execute();
+    const now = new Date("2026-12-03T16:00:00.000Z");
+    const [view] = await jobClockEntries(db(), job.id, "US/Central", now);
+    expect(view.stage).toBe("queued");
+    expect(view.stages).toEqual(["queued", "fabricate"]);
+    const hours = await jobHours(db(), job.id, now);
+    expect(hours.byStage.map((s) => s.stage)).toEqual(view.stages);
+    expect(hours.byStage[0].hours).toBe(20);
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { clockFlags, hoursByWeek, msByStage, overlapping, weekOf } from "@/server/labour/rules";
+import { clockFlags, hoursByWeek, msByStage, overlapping, stagesOfEntry, weekOf } from "@/server/labour/rules";
 
 const H = 3_600_000;
 const tz = "US/Central";
@@ -112,5 +112,36 @@ describe("job cost in cents", () => {
     });
     // Labour 2.5 h × $125 = $312.50; parts 2 × $94.75 + $1,185.00 = $1,374.50; total $1,687.00.
     expect(cost).toEqual(expect.objectContaining({ hours: 2.5, labourCents: 31_250, partsCents: 137_450, unpricedParts: 1, totalCents: 168_700 }));
+  });
+});
+
+describe("the stages a clock entry is labelled with", () => {
+  const now = new Date("2026-12-03T16:00:00.000Z");
+  // The job sat in Queued from 30 November and moved to Fabricate at 15:50 UTC on 3 December.
+  const changes = [
+    { at: "2026-11-30T14:00:00.000Z", toStage: "queued" as const },
+    { at: "2026-12-03T15:50:00.000Z", toStage: "fabricate" as const },
+  ];
+
+  it("an entry that ran across a move names both stages, in order, as its hours count them", () => {
+    // On at 19:50 UTC on 2 December, still on: 20 h in Queued, then 10 minutes in Fabricate.
+    const entry = { startedAt: "2026-12-02T19:50:00.000Z", endedAt: null, stage: "queued" };
+    expect(stagesOfEntry(entry, changes, now)).toEqual(["queued", "fabricate"]);
+    expect(Object.fromEntries(msByStage([entry], changes, now))).toEqual({ queued: 20 * H, fabricate: H / 6 });
+  });
+
+  it("the job's history decides, even when the entry's own stage says otherwise (a start corrected to before a move)", () => {
+    const entry = { startedAt: "2026-12-02T19:50:00.000Z", endedAt: "2026-12-02T21:50:00.000Z", stage: "fabricate" };
+    expect(stagesOfEntry(entry, changes, now)).toEqual(["queued"]);
+    expect([...msByStage([entry], changes, now).keys()]).toEqual(["queued"]);
+  });
+
+  it("an entry inside one stage names that stage once; an entry of no length names the stage it began in", () => {
+    expect(stagesOfEntry({ startedAt: "2026-12-03T15:55:00.000Z", endedAt: "2026-12-03T15:58:00.000Z", stage: "fabricate" }, changes, now)).toEqual(["fabricate"]);
+    expect(stagesOfEntry({ startedAt: "2026-12-03T15:51:00.000Z", endedAt: "2026-12-03T15:51:00.000Z", stage: "fabricate" }, changes, now)).toEqual(["fabricate"]);
+    // A reorder within a stage is an event to the same stage: still one name.
+    expect(stagesOfEntry({ startedAt: "2026-12-03T15:52:00.000Z", endedAt: "2026-12-03T15:59:00.000Z", stage: "fabricate" }, [...changes, { at: "2026-12-03T15:55:00.000Z", toStage: "fabricate" as const }], now)).toEqual(["fabricate"]);
+    // Before the job's first event, the entry's own stage.
+    expect(stagesOfEntry({ startedAt: "2026-11-30T12:00:00.000Z", endedAt: "2026-11-30T15:00:00.000Z", stage: "queued" }, changes, now)).toEqual(["queued"]);
   });
 });

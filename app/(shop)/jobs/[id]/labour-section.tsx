@@ -19,7 +19,8 @@ const stageLabel = (s: string) => STAGE_LABELS[s as keyof typeof STAGE_LABELS] ?
 export async function LabourSection({ job, user }: { job: JobDetail; user: StaffUser }) {
   const db = getDb();
   const shop = await shopSettings(db);
-  const [summary, entries] = await Promise.all([jobHours(db, job.id), jobClockEntries(db, job.id, shop.timeZone)]);
+  const now = new Date();
+  const [summary, entries] = await Promise.all([jobHours(db, job.id, now), jobClockEntries(db, job.id, shop.timeZone, now)]);
   const canCorrect = user.role === "office" || user.role === "owner";
   const time = (iso: string) => formatShopTime(iso, shop.timeZone, "EEE d MMM HH:mm");
   return (
@@ -37,7 +38,7 @@ export async function LabourSection({ job, user }: { job: JobDetail; user: Staff
             {entries.map((e) => (
               <li key={e.id} className="border-l-4 border-line pl-2" data-clock-entry={e.id}>
                 <p>
-                  <span className="font-semibold">{e.staffName}</span> · {time(e.startedAt)} – {e.endedAt ? formatShopTime(e.endedAt, shop.timeZone, "HH:mm") : "still on"} · {hours(e.hours)} · {stageLabel(e.stage)}
+                  <span className="font-semibold">{e.staffName}</span> · {time(e.startedAt)} – {e.endedAt ? formatShopTime(e.endedAt, shop.timeZone, "HH:mm") : "still on"} · {hours(e.hours)} · <span data-entry-stages>{e.stages.map(stageLabel).join(" → ")}</span>
                 </p>
                 {e.flags.map((f) => <p key={f.code} className="font-semibold text-warn-700">⚠ {f.message}</p>)}
                 {e.correction && (
@@ -45,7 +46,7 @@ export async function LabourSection({ job, user }: { job: JobDetail; user: Staff
                     Corrected by {e.correction.byName ?? "the office"}: “{e.correction.reason}” (first clocked {e.correction.originalStartedAt ? time(e.correction.originalStartedAt) : "?"} – {e.correction.originalEndedAt ? time(e.correction.originalEndedAt) : "still on"})
                   </p>
                 )}
-                {canCorrect && <CorrectEntry id={e.id} startedAt={e.startedAt} endedAt={e.endedAt} />}
+                {canCorrect && <CorrectEntry id={e.id} startedAt={e.startedAt} endedAt={e.endedAt} timeZone={shop.timeZone} />}
               </li>
             ))}
           </ul>
