@@ -80,7 +80,7 @@ export function ClockStrip({ initial }: { initial?: OpenClock | null }) {
   return (
     <div className={`flex flex-wrap items-center justify-between gap-2 rounded-md border px-3 py-1 ${flagged ? "border-warn-700 bg-warn-100" : "border-ok-700 bg-ok-100"}`} data-clock-strip>
       <p className={`text-sm font-semibold ${flagged ? "text-warn-700" : "text-ok-700"}`}>
-        {flagged ? <IconWarn /> : <IconClock />} On the clock: <a className="underline" href={`/jobs/${clock.jobId}`}>{clock.workOrder}</a> since {clock.since}
+        {flagged ? <IconWarn /> : <IconClock />} On the clock: <a className="inline-flex min-h-11 items-center underline" href={`/jobs/${clock.jobId}`}>{clock.workOrder}</a> since {clock.since}
         {flagged && <> · {clock.flags[0].message}</>}
       </p>
       <button type="button" disabled={pending} onClick={() => off.mutate()} className="min-h-11 rounded-md bg-panel px-3 text-sm font-semibold text-ink border border-line">

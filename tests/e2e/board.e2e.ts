@@ -307,6 +307,25 @@ describe.skipIf(!enabled)("the board in Chromium", () => {
     expect(moved.x + moved.width).toBeLessThanOrEqual(PHONE.viewport.width + 1);
     expect(moved.y).toBeLessThan(PHONE.viewport.height);
     await page.screenshot({ path: "screenshots/board-phone-moved.png" });
+    // The confirmation covers none of the moved card's buttons, says the move without a stray
+    // separator, and keeps Undo in reach.
+    let toastBox = (await toast.boundingBox())!;
+    for (const button of await page.locator(`li[data-card="${wo}"] button`).all()) {
+      const b = (await button.boundingBox())!;
+      expect(b.y + b.height <= toastBox.y || b.y >= toastBox.y + toastBox.height, `"${await button.textContent()}" is clear of the confirmation`).toBe(true);
+    }
+    expect(await toast.textContent()).toMatch(new RegExp(`^Moved ${wo} to FabricateUndo×$`));
+    expect((await toast.getByRole("button", { name: /^Undo/ }).boundingBox())!.height).toBeGreaterThanOrEqual(44);
+    // At the foot of the page every column ends above the confirmation, so any card can be scrolled clear of it.
+    await page.evaluate(() => window.scrollTo(0, document.documentElement.scrollHeight));
+    await page.waitForTimeout(300);
+    toastBox = (await toast.boundingBox())!;
+    const lowest = Math.max(...(await page.locator("section[data-drop-stage]").evaluateAll((els) => els.map((e) => e.getBoundingClientRect().bottom))));
+    expect(lowest, "the columns end above the confirmation").toBeLessThanOrEqual(toastBox.y);
+    await page.screenshot({ path: "screenshots/board-phone-moved-foot.png" });
+    // The next tap elsewhere closes it (long before its own time is up).
+    await page.locator(`li[data-card="${wo}"] article p`).first().tap();
+    await toast.waitFor({ state: "detached", timeout: 2_000 });
     await context.close();
   });
 

@@ -104,6 +104,44 @@ describe.skipIf(!enabled)("bought-in parts and the labour clock in Chromium", ()
     }
   });
 
+  it("on a 390 px phone the on-the-clock link and the work-order links on the parts desk and hours page are 44 px tall; at the desk they stay one line", async () => {
+    const context = await browser.newContext(PHONE);
+    const page = await signIn(context, "office");
+    const headers = { origin: baseUrl() };
+    const job = await newJob(page, "Tap targets");
+    const supplier = `Low Meadow Hose ${Date.now().toString(36)}`;
+    await json(await page.request.post(`${baseUrl()}/api/jobs/${job.id}/bought-parts`, { headers, data: { kind: "fitting", description: "Breakaway coupler pair", quantity: 1, supplier, costCents: 4_900 } }), 201);
+    await json(await page.request.post(`${baseUrl()}/api/clock`, { headers, data: { jobId: job.id } }), 201);
+    try {
+      const height = async (where: string, link: ReturnType<Page["locator"]>) => {
+        await link.first().waitFor();
+        return { where, height: Math.round((await link.first().boundingBox())!.height) };
+      };
+      await page.goto(`${baseUrl()}/board`);
+      const phone = [await height("on-the-clock link", page.locator("[data-clock-strip]").getByRole("link", { name: job.workOrder }))];
+      await page.goto(`${baseUrl()}/job-costs?all=1`);
+      phone.push(await height("clock running now", page.locator("#running").getByRole("link", { name: job.workOrder })));
+      phone.push(await height("jobs table", page.locator("#jobs").getByRole("link", { name: job.workOrder })));
+      await shot(page, "job-costs-phone");
+      await page.goto(`${baseUrl()}/parts?supplier=${encodeURIComponent(supplier)}`);
+      phone.push(await height("parts desk line", page.locator("main").getByRole("link", { name: job.workOrder })));
+      await shot(page, "parts-phone");
+      for (const h of phone) expect(h.height, h.where).toBeGreaterThanOrEqual(44);
+
+      // At the desk a work order in a table is one line of text.
+      const desk = await browser.newContext(DESK);
+      const deskPage = await signIn(desk, "office");
+      await deskPage.goto(`${baseUrl()}/job-costs?all=1`);
+      expect((await height("desk jobs table", deskPage.locator("#jobs").getByRole("link", { name: job.workOrder }))).height).toBeLessThan(30);
+      await deskPage.goto(`${baseUrl()}/parts?supplier=${encodeURIComponent(supplier)}`);
+      expect((await height("desk parts line", deskPage.locator("main").getByRole("link", { name: job.workOrder }))).height).toBeLessThan(30);
+      await desk.close();
+    } finally {
+      await page.request.delete(`${baseUrl()}/api/clock`, { headers, data: {} });
+      await context.close();
+    }
+  });
+
   it("the office orders a PTO on a purchase order and receives it on the parts desk; the card's 'waiting on' clears", async () => {
     const context = await browser.newContext(DESK);
     const page = await signIn(context, "office");

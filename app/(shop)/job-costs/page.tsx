@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { buttonClass, inputClass } from "@/components/styles";
+import { buttonClass, inputClass, touchLinkClass } from "@/components/styles";
 import { formatCents } from "@/components/money";
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
@@ -58,7 +58,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
           <ul className="space-y-1 text-sm">
             {running.map((e) => (
               <li key={e.id} className={e.flags.length ? "font-semibold text-warn-700" : ""}>
-                {e.staffName} on <Link className="underline" href={`/jobs/${e.jobId}#hours`}>{e.workOrder}</Link> since {formatShopTime(e.startedAt, cal.timeZone, "EEE d MMM HH:mm")}
+                {e.staffName} on <Link className={`underline ${touchLinkClass}`} href={`/jobs/${e.jobId}#hours`}>{e.workOrder}</Link> since {formatShopTime(e.startedAt, cal.timeZone, "EEE d MMM HH:mm")}
                 {e.flags.map((f) => <span key={f.code}> · ⚠ {f.message}</span>)}
               </li>
             ))}
@@ -97,7 +97,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
               <tbody>
                 {shownJobs.map((j) => (
                   <tr key={j.jobId} className="border-b border-line/60">
-                    <td className="py-1"><Link className="font-semibold underline" href={`/jobs/${j.jobId}#job-cost`}>{j.workOrder}</Link> <span className="text-ink-soft">· {j.customerName}</span></td>
+                    <td className="py-1"><Link className={`font-semibold underline ${touchLinkClass}`} href={`/jobs/${j.jobId}#job-cost`}>{j.workOrder}</Link> <span className="text-ink-soft">· {j.customerName}</span></td>
                     <td>{STAGE_LABELS[j.stage]}</td>
                     <td className="text-right tabular-nums">{hours(j.hours)}</td>
                     <td className="text-right tabular-nums">{formatCents(j.labourCents)}</td>

@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { IconCheck, IconClock, IconWarn } from "@/components/icons";
+import { touchLinkClass } from "@/components/styles";
 import { Section } from "@/components/section";
 import { getDb } from "@/db";
 import { requirePageStaff } from "@/server/auth/session";
@@ -18,7 +19,7 @@ const day = (iso: string) => showStoredDate(iso, "EEE d MMM");
 function JobCell({ line }: { line: Pick<DeskLine, "jobId" | "workOrder" | "unitNumber"> }) {
   return (
     <span className="whitespace-nowrap">
-      <Link href={`/jobs/${line.jobId}#bought-parts`} className="font-semibold underline">{line.workOrder}</Link>
+      <Link href={`/jobs/${line.jobId}#bought-parts`} className={`font-semibold underline ${touchLinkClass}`}>{line.workOrder}</Link>
       <span className="text-ink-soft"> · {line.unitNumber}</span>
     </span>
   );
@@ -45,7 +46,7 @@ function OnOrderTable({ lines }: { lines: readonly DeskLine[] }) {
             <td className={`pr-2 whitespace-nowrap max-md:block max-md:py-0.5 ${l.overdue ? "font-bold text-stop-700" : ""}`}>
               {l.expectedOn ? <>{l.overdue ? <IconWarn /> : <IconClock />} {l.overdue ? "Overdue · " : ""}{day(l.expectedOn)}</> : "No date given"}
             </td>
-            <td className="pr-2 whitespace-nowrap max-md:block max-md:py-0.5">{label("Order")}{l.purchaseOrder ? <Link className="underline" href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
+            <td className="pr-2 whitespace-nowrap max-md:block max-md:py-0.5">{label("Order")}{l.purchaseOrder ? <Link className={`underline ${touchLinkClass}`} href={`/purchase-orders/${l.purchaseOrder.id}`}>{l.purchaseOrder.number}</Link> : "—"}</td>
             <td className="pr-2 max-md:block max-md:py-0.5">{label("Job")}<JobCell line={l} /></td>
             <td className="pr-2 max-md:block max-md:py-0.5">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.quantity} × {l.description}{l.partNumber && <span className="text-ink-soft"> ({l.partNumber})</span>}</td>
             <td className="pr-2 whitespace-nowrap max-md:block max-md:py-0.5">{label("Received")}{l.receivedQuantity} of {l.quantity}</td>
@@ -152,7 +153,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
               <li key={l.id} className="flex flex-wrap items-center justify-between gap-2 rounded-md border-2 border-stop-700 p-2" data-overdue-line={l.description}>
                 <p>
                   <span className="font-bold text-stop-700"><IconWarn /> Overdue since {day(l.expectedOn!)}</span> · {l.quantity - l.receivedQuantity} × {l.description} from {l.supplier} on{" "}
-                  <Link className="underline" href={`/purchase-orders/${l.purchaseOrder!.id}`}>{l.purchaseOrder!.number}</Link> for <JobCell line={l} />
+                  <Link className={`underline ${touchLinkClass}`} href={`/purchase-orders/${l.purchaseOrder!.id}`}>{l.purchaseOrder!.number}</Link> for <JobCell line={l} />
                 </p>
                 <ReceiveButton line={receiving(l)} />
               </li>
@@ -214,7 +215,7 @@ export default async function PartsDeskPage({ searchParams }: { searchParams: Pr
               {receivedShown.map((r) => (
                 <li key={r.id}>
                   <span className="text-ink-soft">{formatShopTime(r.at, desk.timeZone, "EEE d MMM HH:mm")}</span> · {r.quantity} × {r.description} for{" "}
-                  <Link className="underline" href={`/jobs/${r.jobId}#bought-parts`}>{r.workOrder}</Link> · {r.byName}
+                  <Link className={`underline ${touchLinkClass}`} href={`/jobs/${r.jobId}#bought-parts`}>{r.workOrder}</Link> · {r.byName}
                 </li>
               ))}
             </ul>

@@ -4,6 +4,7 @@ import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
 import { buttonClass, Field, FormAlert, inputClass, num, str, useApiForm } from "@/components/form";
 import { formatCents } from "@/components/money";
+import { touchLinkClass } from "@/components/styles";
 import type { DeskLine } from "@/server/parts/desk";
 import { BOUGHT_PART_KIND_LABELS, orderTotal } from "@/server/parts/rules";
 
@@ -43,7 +44,7 @@ export function OrderGroup({ supplier, lines, today, suppliers }: { supplier: st
                   <input type="checkbox" className="h-5 w-5" checked={picked.has(l.id)} onChange={() => toggle(l.id)} aria-label={`Order ${l.description} for ${l.workOrder}`} />
                 </label>
               </td>
-              <td className="pr-2 whitespace-nowrap"><a className="font-semibold underline" href={`/jobs/${l.jobId}#bought-parts`}>{l.workOrder}</a> <span className="text-ink-soft">· {l.unitNumber}</span></td>
+              <td className="pr-2 whitespace-nowrap"><a className={`font-semibold underline ${touchLinkClass}`} href={`/jobs/${l.jobId}#bought-parts`}>{l.workOrder}</a> <span className="text-ink-soft">· {l.unitNumber}</span></td>
               <td className="pr-2">{BOUGHT_PART_KIND_LABELS[l.kind]}: {l.description}</td>
               <td className="pr-2"><span className="text-ink-soft md:hidden">Part no. </span>{l.partNumber || "—"}</td>
               <td className="pr-2 text-right max-md:hidden">{l.quantity}</td>
