@@ -1,3 +1,5 @@
+import { formatCents } from "@/server/money/totals";
+
 /**
  * A job's cost so far, in integer cents: labour is hours × the shop's hourly rate, each stage's
  * share rounded half-up to the cent from milliseconds (no float dollars), bought-in parts are
@@ -77,4 +79,16 @@ export function jobCost(input: JobCostInput) {
     unpricedCoatingRuns: coating.unpricedRuns,
     totalCents: labour + parts + coating.cents,
   };
+}
+
+/**
+ * The one name for a job's cost so far against its approved quote (before tax), used on the job
+ * page, the Hours page and, as `over_under_quote_dollars`, in the CSV: the same figure, the same words.
+ */
+export const OVER_UNDER_QUOTE = "Over / under the quote";
+
+/** Cost so far less the quote, in cents, said plainly: "over by $12.00", "under by $858.09", "on the quote". */
+export function overUnderWords(overCents: number): string {
+  if (overCents === 0) return "on the quote";
+  return overCents > 0 ? `over by ${formatCents(overCents)}` : `under by ${formatCents(-overCents)}`;
 }

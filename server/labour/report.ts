@@ -120,7 +120,7 @@ const money = (cents: number) => (cents / 100).toFixed(2);
 
 export function jobCostsCsv(r: JobCostsReport) {
   return toCsv(
-    ["work_order", "customer", "stage_now", "hours", "quoted_hours", "labour_dollars", "bought_in_dollars", "unpriced_bought_in_lines", "coating_dollars", "unpriced_coating_runs", "cost_dollars", "quoted_dollars", "over_quote_dollars"],
+    ["work_order", "customer", "stage_now", "hours", "quoted_hours", "labour_dollars", "bought_in_dollars", "unpriced_bought_in_lines", "coating_dollars", "unpriced_coating_runs", "cost_dollars", "quoted_dollars", "over_under_quote_dollars"],
     r.jobs.map((j) => [
       j.workOrder, j.customerName, STAGE_LABELS[j.stage], j.hours.toFixed(2), j.quotedHours === null ? "" : j.quotedHours.toFixed(2), money(j.labourCents), money(j.partsCents), j.unpricedParts,
       money(j.coatingCents), j.unpricedCoatingRuns, money(j.totalCents), j.quotedCents === null ? "" : money(j.quotedCents), j.overQuoteCents === null ? "" : money(j.overQuoteCents),

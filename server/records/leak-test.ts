@@ -174,18 +174,19 @@ export function evaluateLeakTest(test: LeakTestInput, context: LeakTestContext):
 
   // Trade reference, leak test: flat walls flex with pressure, so the volume is not constant and
   // the P/T correction does not hold. With soap on every seam as well the test still counts.
-  // A D-shaped tank's flat side and flat top and bottom flex the same way.
+  // A D-shaped tank's flat side and flat top and bottom flex the same way. The tech's screen gives
+  // the reason in the shop's words; the source stays here and in DEVELOPERS.md.
   if (test.method === "both" && flatWalled(context.partShape)) {
     warn(
       "decay_on_box_tank",
-      `Pressure decay is not a valid leak test for ${flatTankWords(context.partShape)}: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution (trade reference, leak test).`,
+      `Pressure decay is not a valid leak test for ${flatTankWords(context.partShape)}: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution.`,
     );
   }
 
   if (!usesDecay && dropTooLarge) {
     warn(
       "soap_only_drop_exceeds_allowed",
-      `No seam showed bubbles, but the corrected pressure fell ${formatDropPsi(correctedDropPsi)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed (common practice, no published source).`,
+      `No seam showed bubbles, but the corrected pressure fell ${formatDropPsi(correctedDropPsi)} psi, more than the shop's allowed ${show(context.allowedDropPsi)} psi; look again at fittings, plugs and any seam not listed.`,
     );
   }
 

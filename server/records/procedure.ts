@@ -117,10 +117,6 @@ export function gaugeSource(procedure: LeakTestProcedure) {
   return source(same, "ASME BPVC Section V, Article 10");
 }
 
-export function calibrationSource(procedure: LeakTestProcedure) {
-  return procedure.calibrationMonths === PUBLISHED_PROCEDURE.calibrationMonths ? "common practice, no published source" : "the shop's procedure";
-}
-
 const monthsText = (months: number) => (months % 12 === 0 ? (months === 12 ? "a year" : `${months / 12} years`) : months === 1 ? "1 month" : `${months} months`);
 
 /**
@@ -165,6 +161,8 @@ export function procedureBreaches(
     }
   }
 
+  // No published source sets how old a gauge's calibration may be (yearly is common
+  // practice), so the tech is told the figure is the shop's procedure, which it is.
   if (readings.gaugeCalibratedOn && /^\d{4}-\d{2}-\d{2}$/.test(readings.gaugeCalibratedOn)) {
     const calibratedOn = parseCalendarDate(readings.gaugeCalibratedOn);
     if (readings.gaugeCalibratedOn > context.today) {
@@ -177,7 +175,7 @@ export function procedureBreaches(
       breaches.push({
         code: "gauge_calibration_old",
         field: "gaugeCalibratedOn",
-        message: `The gauge was last calibrated ${readings.gaugeCalibratedOn}, more than ${monthsText(procedure.calibrationMonths)} ago; use a gauge calibrated since then (${calibrationSource(procedure)}).`,
+        message: `The gauge was last calibrated ${readings.gaugeCalibratedOn}, more than ${monthsText(procedure.calibrationMonths)} ago; use a gauge calibrated since then (the shop's procedure).`,
       });
     }
   }

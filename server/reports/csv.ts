@@ -6,7 +6,7 @@ const pct = (share: number | null) => (share === null ? "" : Math.round(share * 
 
 export function stageTimesCsv(r: { stages: StageTimeRow[] }) {
   return toCsv(
-    ["stage", "visits_ended", "median_business_days", "p90_business_days"],
+    ["stage", "jobs_through", "median_business_days", "p90_business_days"],
     r.stages.map((s) => [s.label, s.visits, s.medianDays, s.p90Days]),
   );
 }

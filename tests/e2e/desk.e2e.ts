@@ -88,7 +88,7 @@ describe.skipIf(!enabled)("the office's desk", () => {
     await shot(page, "report-stage-times-desk");
     const csv = await page.request.get(`${baseUrl()}${await page.getByRole("link", { name: "Download CSV" }).getAttribute("href")}`);
     expect(csv.status()).toBe(200);
-    expect((await csv.text()).split("\r\n")[0]).toBe("stage,visits_ended,median_business_days,p90_business_days");
+    expect((await csv.text()).split("\r\n")[0]).toBe("stage,jobs_through,median_business_days,p90_business_days");
     await page.context().close();
 
     const phone = await signInWhereTheyLand(browser, "office", PHONE);

@@ -1,10 +1,13 @@
+import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
+import { JobCostSection } from "@/app/(shop)/jobs/[id]/labour-section";
 import * as clockEntry from "@/app/api/clock-entries/[id]/route";
 import * as clock from "@/app/api/clock/route";
 import * as jobCosts from "@/app/api/reports/job-costs/route";
 import * as labourRate from "@/app/api/shop-settings/labour-rate/route";
 import * as boughtParts from "@/app/api/jobs/[id]/bought-parts/route";
 import type { Role } from "@/db/schema";
+import type { JobDetail } from "@/server/jobs/queries";
 import { jobClockEntries, jobHours } from "@/server/labour/queries";
 import { useFreshDatabase } from "../support/db";
 import { ensureShop, makeJob, makeStaff } from "../support/factories";
@@ -187,9 +190,17 @@ describe("job cost", () => {
     const start = new Date(Date.now() - 3 * 3_600_000);
     await db().insertInto("clock_entry").values({ staff_id: tech.staff.id, job_id: job.id, stage: "install", started_at: start.toISOString(), ended_at: new Date(start.getTime() + 80 * 60_000).toISOString() }).execute();
     const csv = await (await jobCosts.GET(request("/api/reports/job-costs?format=csv", { cookie: office.cookie }))).text();
-    const line = csv.split("\r\n").find((l) => l.startsWith(`${job.work_order},`))!;
+    const [header, ...lines] = csv.split("\r\n");
+    const line = lines.find((l) => l.startsWith(`${job.work_order},`))!;
     // $166.67 labour + $649.00 bought-in = $815.67 against $1,000.00 quoted: $184.33 under, written -184.33.
+    expect(header.endsWith(",cost_dollars,quoted_dollars,over_under_quote_dollars")).toBe(true);
     expect(line.endsWith(",815.67,1000.00,-184.33")).toBe(true);
     expect(line).not.toContain("'");
+
+    // The job page names the same figure with the same words as the Hours page and the CSV.
+    const html = renderToStaticMarkup(await JobCostSection({ job: { id: job.id } as JobDetail }));
+    expect(html).toContain("Over / under the quote");
+    expect(html).toContain("under by $184.33");
+    expect(html).not.toMatch(/margin/i);
   });
 });

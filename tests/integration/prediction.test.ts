@@ -91,7 +91,17 @@ describe("the likely ready date on a job", () => {
     expect(prediction).toEqual({ kind: "not_enough_history", stages: [{ stage: "queued", visits: 1 }] });
     const html = renderToStaticMarkup(createElement(LikelyReady, { prediction, dueOn: job.dueOn, stage: job.stage }));
     expect(html).toContain("Not enough history yet");
+    // Said in the shop's words: jobs that went through the stage, not "visits".
+    expect(html).toContain("1 job went through Queued in the last 12 months (5 needed; a job sent back counts each time through).");
+    expect(html).not.toMatch(/visit/i);
     expect(html).not.toContain("Around");
+  });
+
+  it("two stages short of history are both named, each with the jobs that went through it", () => {
+    const html = renderToStaticMarkup(
+      createElement(LikelyReady, { prediction: { kind: "not_enough_history", stages: [{ stage: "wire", visits: 3 }, { stage: "queued", visits: 0 }] }, dueOn: null, stage: "install" }),
+    );
+    expect(html).toContain("3 jobs went through Wire &amp; verify; 0 jobs went through Queued in the last 12 months (5 needed for each; a job sent back counts each time through).");
   });
 
   it("the board marks the card that will likely miss its due date, and only that one", async () => {

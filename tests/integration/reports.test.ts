@@ -139,7 +139,7 @@ describe("report: time in each stage", () => {
     expect(res.headers.get("content-type")).toContain("text/csv");
     expect(res.headers.get("content-disposition")).toContain("baywright-stage-times-2026-03-01-to-2026-03-31.csv");
     const rows = parse(await res.text(), { columns: true }) as Record<string, string>[];
-    expect(rows.find((r) => r.stage === "Fabricate")).toEqual({ stage: "Fabricate", visits_ended: "4", median_business_days: "1.5", p90_business_days: "3" });
+    expect(rows.find((r) => r.stage === "Fabricate")).toEqual({ stage: "Fabricate", jobs_through: "4", median_business_days: "1.5", p90_business_days: "3" });
   });
 });
 

@@ -7,6 +7,7 @@ import { requirePageStaff } from "@/server/auth/session";
 import { showStoredDate } from "@/server/http/calendar-date";
 import { STAGE_LABELS } from "@/server/jobs/stages";
 import { openClocks } from "@/server/labour/queries";
+import { OVER_UNDER_QUOTE, overUnderWords } from "@/server/labour/cost";
 import { jobCostsReport } from "@/server/labour/report";
 import { readPeriod } from "@/server/reports/period";
 import { reportCalendar } from "@/server/reports/queries";
@@ -91,7 +92,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
           <div className="overflow-x-auto">
             <table className="w-full min-w-[860px] text-left text-sm">
               <thead className="border-b border-line text-ink-soft">
-                <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Coating</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th><th className="text-right">Over / under</th></tr>
+                <tr><th className="py-1">Job</th><th>Stage now</th><th className="text-right">Hours</th><th className="text-right">Labour</th><th className="text-right">Bought-in</th><th className="text-right">Coating</th><th className="text-right">Cost so far</th><th className="text-right">Quoted</th><th className="text-right">{OVER_UNDER_QUOTE}</th></tr>
               </thead>
               <tbody>
                 {shownJobs.map((j) => (
@@ -105,7 +106,7 @@ export default async function JobCostsPage({ searchParams }: { searchParams: Pro
                     <td className="text-right font-semibold tabular-nums">{formatCents(j.totalCents)}</td>
                     <td className="text-right tabular-nums">{j.quotedCents === null ? "no approved quote" : formatCents(j.quotedCents)}</td>
                     <td className={`text-right font-semibold tabular-nums ${j.overQuoteCents !== null && j.overQuoteCents > 0 ? "text-stop-700" : ""}`}>
-                      {j.overQuoteCents === null ? "—" : j.overQuoteCents > 0 ? `over by ${formatCents(j.overQuoteCents)}` : `under by ${formatCents(-j.overQuoteCents)}`}
+                      {j.overQuoteCents === null ? "—" : overUnderWords(j.overQuoteCents)}
                     </td>
                   </tr>
                 ))}

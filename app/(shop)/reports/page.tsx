@@ -73,7 +73,7 @@ async function view(report: ReportKey, period: { from: string; to: string }): Pr
       const r = await stageTimesReport(db, period, cal);
       const visits = r.stages.reduce((n, s) => n + s.visits, 0);
       return {
-        intro: "Business days each job spent in a stage, for every stay that ended in the period (a job sent back to Fabricate counts each visit). Half the stays were shorter than the median; nine in ten were no longer than the 90th percentile.",
+        intro: "Business days each job spent in a stage, each time a job went through a stage and left it in the period (a job sent back to Fabricate counts each time through). Half of them took less than the median; nine in ten took no longer than the 90th percentile.",
         empty: visits === 0 ? "No job left a stage in this period." : null,
         chart: {
           rows: r.stages.map((s) => ({ stage: s.label, median: s.medianDays, p90: s.p90Days })),
@@ -84,11 +84,11 @@ async function view(report: ReportKey, period: { from: string; to: string }): Pr
             { key: "median", label: "Median", color: COLOURS[0] },
             { key: "p90", label: "90th percentile", color: COLOURS[1] },
           ],
-          summary: `Bar chart of business days in each stage, median and 90th percentile, ${visits} stays in all. The table below holds the figures.`,
+          summary: `Bar chart of business days in each stage, median and 90th percentile, ${visits} ${visits === 1 ? "job" : "jobs"} through in all. The table below holds the figures.`,
         },
         table: {
           caption: "Time in each stage",
-          head: ["Stage", "Stays ended", "Median (business days)", "90th percentile (business days)"],
+          head: ["Stage", "Jobs through", "Median (business days)", "90th percentile (business days)"],
           rows: r.stages.map((s) => [s.label, s.visits, days(s.medianDays), days(s.p90Days)]),
         },
       };

@@ -209,11 +209,11 @@ describe("evaluateLeakTest: warnings", () => {
     }
   });
 
-  it("flags a gauge calibrated more than a year ago (common practice, no published source)", () => {
+  it("flags a gauge calibrated more than a year ago, as the shop's procedure (no published source sets it)", () => {
     expect(codes(evaluateLeakTest(leakTest({ gaugeCalibratedOn: "2024-06-02" }), context))).toEqual([]);
     const old = evaluateLeakTest(leakTest({ gaugeCalibratedOn: "2024-06-01" }), context);
     expect(codes(old)).toEqual(["gauge_calibration_old"]);
-    expect(old.warnings[0].message).toContain("common practice");
+    expect(old.warnings[0].message).toBe("The gauge was last calibrated 2024-06-01, more than a year ago; use a gauge calibrated since then (the shop's procedure).");
   });
 
   it("flags a calibration date after today", () => {
@@ -241,6 +241,29 @@ describe("evaluateLeakTest: warnings", () => {
     const outcome = evaluateLeakTest(leakTest({ method: "both", testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), box);
     expect(outcome.result).toBe("pass");
     expect(outcome.invalidReasons).toEqual([]);
+  });
+
+  it("says every caution and reason in the shop's words: a figure names its true source or the shop's procedure, never a bare reference", () => {
+    const box = { ...context, partShape: "box" as const };
+    const outcomes = [
+      evaluateLeakTest(leakTest({ method: "both", testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), box),
+      evaluateLeakTest(leakTest({ method: "decay", seams: [], testPressurePsig: 2, startPressurePsig: 2, endPressurePsig: 2, gaugeFullScalePsi: 5 }), box),
+      evaluateLeakTest(leakTest({ method: "soap", endPressurePsig: 3.5 }), context),
+      evaluateLeakTest(leakTest({ holdMinutes: 5, gaugeFullScalePsi: 100, testPressurePsig: 9, startPressurePsig: 9, endPressurePsig: 9, gaugeCalibratedOn: "2023-01-01" }), context),
+    ];
+    const messages = outcomes.flatMap((o) => [...o.warnings, ...o.invalidReasons].map((w) => w.message));
+    expect(new Set(outcomes.flatMap(codes))).toEqual(
+      new Set(["decay_on_box_tank", "soap_only_drop_exceeds_allowed", "hold_too_short", "gauge_range", "test_pressure_outside_band", "gauge_calibration_old"]),
+    );
+    for (const message of messages) expect(message).not.toMatch(/trade reference|common practice|published source|from memory/i);
+    expect(outcomes[0].warnings[0].message).toBe(
+      "Pressure decay is not a valid leak test for a box tank: its flat walls flex, so the volume changes and the drop cannot be trusted. Check every seam with soap solution.",
+    );
+    expect(outcomes[2].warnings[0].message).toBe(
+      "No seam showed bubbles, but the corrected pressure fell 0.50 psi, more than the shop's allowed 0.05 psi; look again at fittings, plugs and any seam not listed.",
+    );
+    // The hold names where its 15 minutes come from.
+    expect(messages).toContain("Pressure was held 5 min; hold at least 15 min before examining (ASME BPVC Section V, Article 10).");
   });
 
   it("calls pressure decay alone on a box tank invalid (trade reference, leak test: flat walls flex)", () => {

@@ -5,6 +5,7 @@ import { getDb } from "@/db";
 import type { StaffUser } from "@/server/auth/session";
 import type { JobDetail } from "@/server/jobs/queries";
 import { STAGE_LABELS } from "@/server/jobs/stages";
+import { OVER_UNDER_QUOTE, overUnderWords } from "@/server/labour/cost";
 import { loadJobCost, quotedFor } from "@/server/labour/job-cost";
 import { jobClockEntries, jobHours } from "@/server/labour/queries";
 import { formatShopTime } from "@/server/records/calendar";
@@ -60,7 +61,7 @@ export async function JobCostSection({ job }: { job: JobDetail }) {
   const db = getDb();
   const [cost, quoted] = await Promise.all([loadJobCost(db, job.id), quotedFor(db, job.id)]);
   const q = (cents: number | undefined) => (quoted && cents !== undefined ? formatCents(cents) : "—");
-  const margin = quoted ? quoted.subtotalCents - cost.totalCents : null;
+  const overQuote = quoted ? cost.totalCents - quoted.subtotalCents : null;
   return (
     <Section title="Job cost" id="job-cost">
       <table className="w-full text-left text-sm">
@@ -102,10 +103,10 @@ export async function JobCostSection({ job }: { job: JobDetail }) {
             <td className="text-right font-bold tabular-nums" data-job-cost-total>{formatCents(cost.totalCents)}</td>
             <td className="text-right font-bold tabular-nums">{q(quoted?.subtotalCents)}</td>
           </tr>
-          {margin !== null && (
+          {overQuote !== null && (
             <tr>
-              <td className="pt-1 font-bold">Margin so far</td>
-              <td colSpan={3} className={`text-right font-bold tabular-nums ${margin < 0 ? "text-stop-700" : "text-ok-700"}`}>{margin < 0 ? "Over the quote by " : ""}{formatCents(Math.abs(margin))}</td>
+              <td className="pt-1 font-bold">{OVER_UNDER_QUOTE}</td>
+              <td colSpan={3} className={`text-right font-bold tabular-nums ${overQuote > 0 ? "text-stop-700" : "text-ok-700"}`} data-job-over-under>{overUnderWords(overQuote)}</td>
             </tr>
           )}
         </tfoot>
@@ -114,7 +115,7 @@ export async function JobCostSection({ job }: { job: JobDetail }) {
         {cost.rateCents ? `Labour at the shop's cost of ${formatCents(cost.rateCents)} an hour (Settings).` : "The shop's labour cost per hour is not set: the owner sets it in Settings, and labour is counted from then on."}{" "}
         {quoted
           ? "Quoted: the approved quote and change orders before tax; quote lines carry no stage, so labour is compared in total."
-          : "No approved quote yet: once the customer approves one, its prices show in the Quoted column and the margin so far below."}{" "}
+          : "No approved quote yet: once the customer approves one, its prices show in the Quoted column and, below, how far over or under the quote the job is so far."}{" "}
         Outside coating is this job&apos;s share of each coating run&apos;s price, split equally over the parts on the run (the Coating page records the price).
       </p>
     </Section>

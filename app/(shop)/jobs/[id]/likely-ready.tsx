@@ -3,7 +3,8 @@ import { showStoredDate } from "@/server/http/calendar-date";
 import { likelyMissesDue, MIN_VISITS, type Prediction } from "@/server/jobs/prediction";
 import { STAGE_LABELS } from "@/server/jobs/stages";
 
-const visits = (n: number) => `${n} finished ${n === 1 ? "visit" : "visits"}`;
+/** "3 jobs went through Wire & verify": each finished stay in the stage, so a job sent back and through again counts again. */
+const wentThrough = (n: number, stage: string) => `${n} ${n === 1 ? "job" : "jobs"} went through ${stage}`;
 const days = (n: number) => `${n} business ${n === 1 ? "day" : "days"}`;
 
 /** The job page's "Likely ready" line: the estimate, or why there is none. */
@@ -13,7 +14,8 @@ export function LikelyReady({ prediction, dueOn, stage }: { prediction: Predicti
     return (
       <span data-testid="likely-ready">
         Not enough history yet:{" "}
-        {prediction.stages.map((s) => `${STAGE_LABELS[s.stage]} has ${visits(s.visits)} in the last 12 months`).join("; ")} ({MIN_VISITS} needed).
+        {prediction.stages.map((s) => wentThrough(s.visits, STAGE_LABELS[s.stage])).join("; ")} in the last 12 months ({MIN_VISITS} needed
+        {prediction.stages.length > 1 ? " for each" : ""}; a job sent back counts each time through).
       </span>
     );
   }
@@ -31,7 +33,7 @@ export function LikelyReady({ prediction, dueOn, stage }: { prediction: Predicti
       )}
       {prediction.overstayed && (
         <p className="text-sm text-warn-700">
-          In {STAGE_LABELS[prediction.steps[0].stage]} for {days(prediction.daysInStage)}, longer than most past visits: counted as finishing today.
+          In {STAGE_LABELS[prediction.steps[0].stage]} for {days(prediction.daysInStage)}, longer than most jobs took there: counted as finishing today.
         </p>
       )}
       <p className="text-sm text-ink-soft">
