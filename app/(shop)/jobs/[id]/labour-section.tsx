@@ -64,7 +64,8 @@ export async function JobCostSection({ job }: { job: JobDetail }) {
   const overQuote = quoted ? cost.totalCents - quoted.subtotalCents : null;
   return (
     <Section title="Job cost" id="job-cost">
-      <table className="w-full text-left text-sm">
+      {/* A gap before every figure, so two amounts never run together on a phone. */}
+      <table className="w-full text-left text-sm [&_td+td]:pl-3 [&_th+th]:pl-3">
         <thead className="border-b border-line text-ink-soft">
           <tr><th className="py-1">What</th><th className="text-right">Hours</th><th className="text-right">Cost</th><th className="text-right">Quoted</th></tr>
         </thead>
