@@ -8,8 +8,10 @@ const strictError = (message: string) => (issue: { code?: string }) =>
 export const clockOnSchema = z.strictObject({ jobId: recordId("Say which job to clock on: its id, a positive whole number.") }, { error: strictError("Clocking on takes only the job's id (jobId).") });
 
 // An instant with its offset, as the browser's Date#toISOString writes it.
+// A missing or malformed time gets one message: the checks after it wait until it is a time.
 const instant = (what: string) =>
-  z.iso.datetime({ offset: true, error: `Enter ${what} as a date and time.` }).refine((v) => !Number.isNaN(new Date(v).getTime()), { error: `${what[0].toUpperCase()}${what.slice(1)} is not a real time.` });
+  z.iso.datetime({ offset: true, error: `Enter ${what} as a date and time.`, abort: true }).refine((v) => !Number.isNaN(new Date(v).getTime()), { error: `${what[0].toUpperCase()}${what.slice(1)} is not a real time.` });
+const isTime = (v: string) => !Number.isNaN(new Date(v).getTime());
 
 export const clockCorrectionSchema = z
   .strictObject(
@@ -20,7 +22,7 @@ export const clockCorrectionSchema = z
     },
     { error: strictError("A correction takes startedAt, endedAt and reason.") },
   )
-  .refine((c) => new Date(c.endedAt) >= new Date(c.startedAt), { error: "The end cannot be before the start.", path: ["endedAt"] })
+  .refine((c) => !isTime(c.startedAt) || !isTime(c.endedAt) || new Date(c.endedAt) >= new Date(c.startedAt), { error: "The end cannot be before the start.", path: ["endedAt"] })
   // Nobody works a 24-hour shift on one job; a longer entry is a date typed wrong.
-  .refine((c) => new Date(c.endedAt).getTime() - new Date(c.startedAt).getTime() <= 24 * 3_600_000, { error: "An entry is at most 24 hours; split it or check the dates.", path: ["endedAt"] });
+  .refine((c) => !isTime(c.startedAt) || !isTime(c.endedAt) || new Date(c.endedAt).getTime() - new Date(c.startedAt).getTime() <= 24 * 3_600_000, { error: "An entry is at most 24 hours; split it or check the dates.", path: ["endedAt"] });
 export type ClockCorrection = z.output<typeof clockCorrectionSchema>;

@@ -109,6 +109,9 @@ describe("the labour clock", () => {
       expect(res.status, JSON.stringify(body)).toBe(400);
       expect(Object.keys((await readBody(res)).error.details.fields)).toContain(field);
     }
+    // An end left empty (a clock still on when the office corrects it) gets one message saying what to enter.
+    const empty = await correct(office.cookie, ids[1], { startedAt: at(16), endedAt: "", reason: "Left on overnight" });
+    expect((await readBody(empty)).error.details.fields).toEqual({ endedAt: ["Enter when the work ended as a date and time."] });
     expect((await entriesOf(tech.staff.id)).map((r) => [r.started_at, r.ended_at])).toEqual([[at(14), at(16)], [at(16), at(18)]]);
   });
 
