@@ -126,6 +126,13 @@ describe.skipIf(!enabled)("a new shop, from its first run to a delivered job, in
     await jobForm.getByLabel("Work", { exact: true }).selectOption("fabrication");
     await jobForm.getByLabel("Work description", { exact: true }).fill(description);
     await jobForm.getByLabel("Assigned to", { exact: true }).selectOption({ label: tech.name });
+    // A due date already past is said under the field before saving (a job entered late may be
+    // due already, so it is not refused); this job has no due date yet.
+    const due = jobForm.getByLabel("Due", { exact: true });
+    await due.fill("2020-01-06");
+    expect(await due.evaluate((el) => document.getElementById(el.getAttribute("aria-describedby")!)?.textContent)).toBe("That date has passed: the job will show as late.");
+    await due.fill("");
+    await expect.poll(() => jobForm.getByText("That date has passed").count()).toBe(0);
     await jobForm.getByRole("button", { name: "Open the job" }).click();
     await desk.waitForURL(/\/jobs\/\d+$/);
     const jobPath = new URL(desk.url()).pathname;
