@@ -297,8 +297,9 @@ async function measureOfficePage(url: string, base: string, cookie: string, move
   };
   const mover = async () => {
     let n = 0;
+    // The first move half an interval in, so a 10-second run sees two.
+    await sleep(MOVE_EVERY_MS / 2);
     while (running && movers.length) {
-      await sleep(MOVE_EVERY_MS);
       if (!running) break;
       const card = movers[n++ % movers.length];
       const res = await fetch(`${base}/api/jobs/${card.id}/moves`, {
@@ -311,6 +312,7 @@ async function measureOfficePage(url: string, base: string, cookie: string, move
       card.version = body.job.version;
       card.stage = body.job.stage;
       moves++;
+      await sleep(MOVE_EVERY_MS);
     }
   };
   const background = [...Array.from({ length: FLOOR_PHONES }, (_, p) => phone(p)), mover()];
