@@ -13,8 +13,7 @@ import { renderMoneyPdf } from "@/server/money/pdf";
 import { fromThousandths } from "@/server/money/totals";
 import { invoiceDocument, invoicePdfName } from "@/server/money/invoice-pdf";
 import { METHOD_LABELS } from "@/server/money/payments";
-import { TZDate } from "@date-fns/tz";
-import { format } from "date-fns";
+import { formatShopTime } from "@/server/records/calendar";
 import {
   type InvoiceSentPayload,
   type LinkIssuedPayload,
@@ -297,7 +296,7 @@ async function prepare(db: DB, row: ClaimedRow, work: Work, at: string, attachme
                   paidFor: work.payload.paidFor,
                   methodLabel: METHOD_LABELS[payment.method],
                   // The day the money came in on the shop's clock, not the server's.
-                  dateWords: format(new TZDate(payment.at, shopRow?.time_zone || "UTC"), "EEEE d MMMM yyyy"),
+                  dateWords: formatShopTime(payment.at, shopRow?.time_zone || "UTC", "EEEE d MMMM yyyy"),
                   balanceAfterCents: work.payload.balanceAfterCents,
                   onAccountCents: work.payload.onAccountCents,
                 },
