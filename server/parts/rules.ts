@@ -218,7 +218,12 @@ export function linesFromQuote(quoteLines: readonly QuotePartLine[], listed: rea
  * name as first written is what is shown.
  */
 export function supplierKey(name: string): string {
-  return name.trim().replace(/\s+/g, " ").toLowerCase();
+  return tidySupplier(name).toLowerCase();
+}
+
+/** A supplier's name as shown: as written, without surrounding or doubled spaces. */
+function tidySupplier(name: string): string {
+  return name.trim().replace(/\s+/g, " ");
 }
 
 /**
@@ -238,7 +243,7 @@ export function groupBySupplier<T extends { id: number; supplier: string }>(line
   }
   return [...groups.entries()]
     .sort(([a], [b]) => (a === "" ? 1 : b === "" ? -1 : a.localeCompare(b)))
-    .map(([key, g]) => ({ supplier: key === "" ? "" : g.first.supplier.trim().replace(/\s+/g, " "), lines: g.lines }));
+    .map(([key, g]) => ({ supplier: key === "" ? "" : tidySupplier(g.first.supplier), lines: g.lines }));
 }
 
 /** Known supplier names, one per supplier (the first of each in the order given), A–Z; blanks left out. */
@@ -246,7 +251,7 @@ export function distinctSuppliers(names: readonly string[]): string[] {
   const byKey = new Map<string, string>();
   for (const name of names) {
     const key = supplierKey(name);
-    if (key !== "" && !byKey.has(key)) byKey.set(key, name.trim().replace(/\s+/g, " "));
+    if (key !== "" && !byKey.has(key)) byKey.set(key, tidySupplier(name));
   }
   return [...byKey.values()].sort((a, b) => a.localeCompare(b));
 }
