@@ -87,12 +87,13 @@ export type EventOutcome = { outcome: "applied" | "already" } | { outcome: "refu
 
 const PAID_TYPES = new Set(["checkout.session.completed", "checkout.session.async_payment_succeeded"]);
 
-/** Sets an open invoice paid once nothing is owed. */
-async function settleInvoiceIfPaid(trx: DB, jobId: number) {
+/** Sets an open invoice paid once nothing is owed; answers the job's money after the payment (for its receipt). */
+async function settleInvoiceIfPaid(trx: DB, jobId: number): Promise<JobMoney> {
   const m = await jobMoney(trx, jobId);
   if (m.invoice?.status === "open" && balanceDueCents(m) <= 0) {
     await trx.updateTable("invoice").set({ status: m.receivedCents >= m.priceCents ? "paid" : "on_account" }).where("job_id", "=", jobId).where("status", "=", "open").execute();
   }
+  return m;
 }
 
 /**
@@ -101,10 +102,15 @@ async function settleInvoiceIfPaid(trx: DB, jobId: number) {
  * nobody on the job gets e-mail updates. The quote version (deposit) and invoice number are those
  * the payment went against, kept in the message so a later change does not rewrite the receipt.
  */
-async function queueReceipt(trx: Transaction<Database>, input: { jobId: number; paymentId: number; purpose: Purpose; quoteId: number | null; requestedBy: string; at: string }): Promise<string | null> {
+async function queueReceipt(
+  trx: Transaction<Database>,
+  input: { jobId: number; paymentId: number; purpose: Purpose; quoteId: number | null; requestedBy: string; at: string },
+  afterPayment?: JobMoney,
+): Promise<string | null> {
   const { emailOff, to } = await recipientsFor(trx, input.jobId);
   if (emailOff || to.length === 0) return null;
-  const m = await jobMoney(trx, input.jobId);
+  // The money as settling the invoice read it, after this payment; a deposit reads it here.
+  const m = afterPayment ?? (await jobMoney(trx, input.jobId));
   let paidFor: ReceiptPaidFor;
   if (input.purpose === "invoice") {
     paidFor = { kind: "invoice", invoiceNumber: m.invoice?.number ?? "" };
@@ -179,8 +185,8 @@ export async function applyPaymentEvent(db: DB, event: PaymentEvent): Promise<Ev
       summary: `The customer paid ${formatCents(checkout.amount_cents)} online (${checkout.purpose === "deposit" ? "deposit" : "invoice"}).`,
       details: { paymentId: payment.id, checkoutId: checkout.id, amountCents: checkout.amount_cents, eventId: event.id },
     });
-    if (checkout.purpose === "invoice") await settleInvoiceIfPaid(trx, checkout.job_id);
-    await queueReceipt(trx, { jobId: checkout.job_id, paymentId: payment.id, purpose: checkout.purpose, quoteId: checkout.quote_id, requestedBy: "", at: now });
+    const settled = checkout.purpose === "invoice" ? await settleInvoiceIfPaid(trx, checkout.job_id) : undefined;
+    await queueReceipt(trx, { jobId: checkout.job_id, paymentId: payment.id, purpose: checkout.purpose, quoteId: checkout.quote_id, requestedBy: "", at: now }, settled);
     return { outcome: "applied" };
   });
 }
@@ -230,9 +236,9 @@ export async function recordPayment(db: DB, actor: AuditActor & { role: Role }, 
       summary: `${actor.name} recorded ${formatCents(input.amountCents)} ${METHOD_LABELS[input.method].toLowerCase()} for the ${input.purpose}${input.reference ? ` (${input.reference})` : ""}.`,
       details: { paymentId: payment.id, purpose: input.purpose, method: input.method, amountCents: input.amountCents, reference: input.reference },
     });
-    if (input.purpose === "invoice") await settleInvoiceIfPaid(trx, jobId);
+    const settled = input.purpose === "invoice" ? await settleInvoiceIfPaid(trx, jobId) : undefined;
     // On account is owed, not paid: the customer gets no receipt for it.
-    if (input.method !== "on_account") await queueReceipt(trx, { jobId, paymentId: payment.id, purpose: input.purpose, quoteId: null, requestedBy: actor.name, at: now });
+    if (input.method !== "on_account") await queueReceipt(trx, { jobId, paymentId: payment.id, purpose: input.purpose, quoteId: null, requestedBy: actor.name, at: now }, settled);
     return payment.id;
   });
 }
